@@ -1,0 +1,87 @@
+import { z } from 'zod';
+
+/**
+ * The truss model every part of Panelpoint speaks: the drawing import produces its geometry,
+ * the engineer adds supports, properties and loads, the solver reads it.
+ *
+ * Units: lengths in metres, forces in kN, E in kN/m² (kPa), A in m², EA in kN.
+ * Coordinates: x to the right, y up. Loads: fy positive up (a gravity load has fy < 0).
+ */
+
+export const jointSchema = z.object({
+  id: z.string().min(1),
+  tag: z.string().min(1),
+  x: z.number().finite(),
+  y: z.number().finite(),
+});
+export type Joint = z.infer<typeof jointSchema>;
+
+export const memberGroupSchema = z.enum(['top-chord', 'bottom-chord', 'web', 'other']);
+export type MemberGroup = z.infer<typeof memberGroupSchema>;
+
+export const memberSchema = z.object({
+  id: z.string().min(1),
+  tag: z.string().min(1),
+  from: z.string().min(1),
+  to: z.string().min(1),
+  group: memberGroupSchema.optional(),
+  /** Young's modulus, kN/m². */
+  E: z.number().positive().finite().optional(),
+  /** Cross-section area, m². */
+  A: z.number().positive().finite().optional(),
+  /** Axial stiffness EA, kN; wins over E·A when both are given. */
+  EA: z.number().positive().finite().optional(),
+  material: z.string().max(120).optional(),
+  section: z.string().max(120).optional(),
+});
+export type Member = z.infer<typeof memberSchema>;
+
+export const supportSchema = z.discriminatedUnion('kind', [
+  z.object({ joint: z.string().min(1), kind: z.literal('pin') }),
+  z.object({
+    joint: z.string().min(1),
+    kind: z.literal('roller'),
+    /** Angle of the reaction line from +x, degrees; 90 = vertical reaction. */
+    angleDeg: z.number().finite().default(90),
+  }),
+]);
+export type Support = z.infer<typeof supportSchema>;
+
+export const loadCategorySchema = z.enum(['dead', 'live', 'roof-live', 'snow', 'wind', 'other']);
+export type LoadCategory = z.infer<typeof loadCategorySchema>;
+
+export const jointLoadSchema = z.object({
+  joint: z.string().min(1),
+  /** kN, +x to the right. */
+  fx: z.number().finite(),
+  /** kN, +y up. */
+  fy: z.number().finite(),
+  note: z.string().max(200).optional(),
+});
+export type JointLoad = z.infer<typeof jointLoadSchema>;
+
+export const loadCaseSchema = z.object({
+  id: z.string().min(1).max(40),
+  name: z.string().min(1).max(120),
+  category: loadCategorySchema,
+  loads: z.array(jointLoadSchema),
+});
+export type LoadCase = z.infer<typeof loadCaseSchema>;
+
+export const combinationSchema = z.object({
+  name: z.string().min(1).max(80),
+  /** Load case id → factor. */
+  factors: z.record(z.string(), z.number().finite()),
+  /** Where the factors come from, e.g. "ASCE/SEI 7-16 §2.3.1 (3)". */
+  clause: z.string().max(200).optional(),
+});
+export type Combination = z.infer<typeof combinationSchema>;
+
+export const trussModelSchema = z.object({
+  joints: z.array(jointSchema),
+  members: z.array(memberSchema),
+  supports: z.array(supportSchema),
+  loadCases: z.array(loadCaseSchema),
+  combinations: z.array(combinationSchema).default([]),
+});
+export type TrussModel = z.infer<typeof trussModelSchema>;

@@ -1,0 +1,55 @@
+import { z } from 'zod';
+
+export const unitSystemSchema = z.enum(['SI', 'US']);
+export type UnitSystem = z.infer<typeof unitSystemSchema>;
+
+export const projectInputSchema = z.object({
+  name: z.string().trim().min(1, 'Enter a project name.').max(160),
+  jobNumber: z.string().trim().min(1, 'Enter the job number.').max(40),
+  client: z.string().trim().max(160).default(''),
+  site: z.string().trim().max(240).default(''),
+  designBasis: z.string().trim().max(2000).default(''),
+  unitSystem: unitSystemSchema.default('SI'),
+});
+export type ProjectInput = z.input<typeof projectInputSchema>;
+
+export const projectUpdateSchema = projectInputSchema
+  .partial()
+  .extend({ archived: z.boolean().optional() })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change: send at least one field.');
+export type ProjectUpdate = z.input<typeof projectUpdateSchema>;
+
+export interface ProjectView {
+  id: number;
+  name: string;
+  jobNumber: string;
+  client: string;
+  site: string;
+  designBasis: string;
+  unitSystem: UnitSystem;
+  archived: boolean;
+  createdAt: string;
+  updatedAt: string;
+  trussCount: number;
+}
+
+export const trussInputSchema = z.object({
+  name: z.string().trim().min(1, 'Enter a truss name, e.g. "T1 – typical interior truss".').max(160),
+});
+export type TrussInput = z.infer<typeof trussInputSchema>;
+
+export interface TrussView {
+  id: number;
+  projectId: number;
+  name: string;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export const paperSizeSchema = z.enum(['A4', 'Letter']);
+export const firmSettingsSchema = z.object({
+  name: z.string().trim().min(1, 'Enter the firm name.').max(160),
+  address: z.string().trim().max(400).default(''),
+  paperSize: paperSizeSchema.default('A4'),
+});
+export type FirmSettings = z.infer<typeof firmSettingsSchema>;
