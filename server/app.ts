@@ -1,0 +1,100 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import ConnectSessionSequelize from 'connect-session-sequelize';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config';
+import type { Mailer } from './mail/mailer';
+import type { RouteSpec } from './middleware/access';
+import { csrfProtection } from './middleware/csrf';
+import { errorHandler, notFoundHandler } from './middleware/error-handler';
+import { createPassport } from './modules/auth/passport';
+import { authRoutes } from './modules/auth/auth.routes';
+import { usersRoutes } from './modules/users/users.routes';
+import { firmRoutes } from './modules/firm/firm.routes';
+import { outboxRoutes } from './modules/outbox/outbox.routes';
+import { projectsRoutes } from './modules/projects/projects.routes';
+
+export interface AppDeps {
+  config: Config;
+  sequelize: Sequelize;
+  mailer: Mailer;
+  sessionSecret: string;
+  /** Where the built client lives; served when present. */
+  clientDir?: string;
+  log?: (msg: string, err?: unknown) => void;
+}
+
+export interface CreatedApp {
+  app: Express;
+  /** Every API route with who may call it. */
+  routes: RouteSpec[];
+  close(): void;
+}
+
+/** Builds the Express app without listening, so tests can drive it with supertest. */
+export function createApp(deps: AppDeps): CreatedApp {
+  const { config } = deps;
+  const log = deps.log ?? ((msg, err) => console.error(msg, err));
+  const registry: RouteSpec[] = [];
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // KaTeX and the calc-sheet preview set inline styles.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'frame-src': ["'self'"],
+        },
+      },
+    }),
+  );
+
+  const SequelizeStore = ConnectSessionSequelize(session.Store);
+  const store = new SequelizeStore({ db: deps.sequelize, checkExpirationInterval: 15 * 60 * 1000, expiration: 12 * 3600 * 1000 });
+  const secure = Boolean(config.publicUrl?.startsWith('https://'));
+  app.use(
+    '/api',
+    session({
+      name: 'panelpoint.sid',
+      secret: deps.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 12 * 3600 * 1000 },
+    }),
+  );
+  const passport = createPassport();
+  app.use('/api', passport.initialize(), passport.session());
+  app.use('/api', csrfProtection);
+  app.use('/api', express.json({ limit: '1mb' }));
+
+  const publicUrl = () => config.publicUrl ?? `http://localhost:${config.port}`;
+  app.use('/api', authRoutes(registry, passport, config));
+  app.use('/api', usersRoutes(registry, { mailer: deps.mailer, publicUrl }));
+  app.use('/api', firmRoutes(registry));
+  app.use('/api', outboxRoutes(registry));
+  app.use('/api', projectsRoutes(registry));
+  app.use('/api', notFoundHandler);
+
+  if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {
+    const clientDir = deps.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*rest}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler(log));
+
+  return {
+    app,
+    routes: registry,
+    close: () => (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions(),
+  };
+}

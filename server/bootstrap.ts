@@ -1,0 +1,62 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config';
+import { createApp, type CreatedApp } from './app';
+import { openDatabase } from './db/sequelize';
+import { migrate } from './db/migrate';
+import { initModels } from './db/models';
+import { createMailer, type Mailer } from './mail/mailer';
+import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
+import { seedDemo } from './seed/demo';
+
+export interface Services extends CreatedApp {
+  sequelize: Sequelize;
+  mailer: Mailer;
+  sink?: SmtpSink;
+  shutdown(): Promise<void>;
+}
+
+/** Kept in the data folder so sessions survive a restart without a configured secret. */
+function sessionSecretFor(config: Config): string {
+  if (config.sessionSecret) return config.sessionSecret;
+  if (config.databaseStorage === ':memory:') return crypto.randomBytes(32).toString('hex');
+  const file = path.join(config.dataDir, 'session-secret');
+  if (!fs.existsSync(file)) {
+    fs.mkdirSync(config.dataDir, { recursive: true });
+    fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+  }
+  return fs.readFileSync(file, 'utf8').trim();
+}
+
+/** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
+export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void } = {}): Promise<Services> {
+  const sequelize = await openDatabase(config.databaseStorage);
+  await migrate(sequelize);
+  initModels(sequelize);
+  if (config.seedDemo) await seedDemo(config.bcryptRounds);
+  fs.mkdirSync(config.uploadsDir, { recursive: true });
+
+  const sink = config.smtpUrl ? undefined : await startSmtpSink();
+  const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, from: config.mailFrom });
+  const created = createApp({
+    config,
+    sequelize,
+    mailer,
+    sessionSecret: sessionSecretFor(config),
+    clientDir: options.clientDir,
+    log: options.log,
+  });
+  return {
+    ...created,
+    sequelize,
+    mailer,
+    sink,
+    async shutdown() {
+      created.close();
+      await sink?.close();
+      await sequelize.close();
+    },
+  };
+}

@@ -1,0 +1,16 @@
+import { Umzug, SequelizeStorage } from 'umzug';
+import type { Sequelize } from 'sequelize';
+import * as m0001 from './migrations/0001-initial';
+
+/** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
+const MIGRATIONS = [{ name: '0001-initial', ...m0001 }];
+
+export async function migrate(sequelize: Sequelize): Promise<void> {
+  const umzug = new Umzug({
+    migrations: MIGRATIONS.map(({ name, up, down }) => ({ name, up, down })),
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize }),
+    logger: undefined,
+  });
+  await umzug.up();
+}

@@ -1,0 +1,143 @@
+import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type CreationOptional, type Sequelize } from 'sequelize';
+import type { Role } from '@shared/schemas/auth.schema';
+import type { UnitSystem } from '@shared/schemas/project.schema';
+
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<number>;
+  declare email: string;
+  declare name: string;
+  declare role: Role;
+  declare passwordHash: string | null;
+  declare disabled: CreationOptional<boolean>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {
+  declare id: CreationOptional<number>;
+  declare tokenHash: string;
+  declare userId: number;
+  declare invitedById: number | null;
+  declare expiresAt: Date;
+  declare usedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
+  declare id: CreationOptional<number>;
+  declare from: string;
+  /** JSON array of addresses. */
+  declare to: string;
+  declare subject: string;
+  declare text: string;
+  declare raw: string;
+  declare receivedAt: Date;
+}
+
+export class Firm extends Model<InferAttributes<Firm>, InferCreationAttributes<Firm>> {
+  declare id: number;
+  declare name: string;
+  declare address: string;
+  declare paperSize: 'A4' | 'Letter';
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Project extends Model<InferAttributes<Project>, InferCreationAttributes<Project>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare jobNumber: string;
+  declare client: string;
+  declare site: string;
+  declare designBasis: string;
+  declare unitSystem: UnitSystem;
+  declare archived: CreationOptional<boolean>;
+  declare createdById: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Truss extends Model<InferAttributes<Truss>, InferCreationAttributes<Truss>> {
+  declare id: CreationOptional<number>;
+  declare projectId: number;
+  declare name: string;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+const timestamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
+
+/** Binds the models to a connection. Tables come from the migrations, never from sync(). */
+export function initModels(sequelize: Sequelize): void {
+  User.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      role: { type: DataTypes.STRING(16), allowNull: false },
+      passwordHash: { type: DataTypes.STRING(100), allowNull: true },
+      disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'users' },
+  );
+  Invitation.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+      userId: { type: DataTypes.INTEGER, allowNull: false },
+      invitedById: { type: DataTypes.INTEGER, allowNull: true },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      usedAt: { type: DataTypes.DATE, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'invitations' },
+  );
+  OutboxMessage.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      from: { type: DataTypes.STRING(320), allowNull: false },
+      to: { type: DataTypes.TEXT, allowNull: false },
+      subject: { type: DataTypes.STRING(400), allowNull: false },
+      text: { type: DataTypes.TEXT, allowNull: false },
+      raw: { type: DataTypes.TEXT, allowNull: false },
+      receivedAt: { type: DataTypes.DATE, allowNull: false },
+    },
+    { sequelize, tableName: 'outbox_messages', timestamps: false },
+  );
+  Firm.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true },
+      name: { type: DataTypes.STRING(160), allowNull: false },
+      address: { type: DataTypes.STRING(400), allowNull: false },
+      paperSize: { type: DataTypes.STRING(8), allowNull: false },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'firms' },
+  );
+  Project.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      name: { type: DataTypes.STRING(160), allowNull: false },
+      jobNumber: { type: DataTypes.STRING(40), allowNull: false },
+      client: { type: DataTypes.STRING(160), allowNull: false },
+      site: { type: DataTypes.STRING(240), allowNull: false },
+      designBasis: { type: DataTypes.TEXT, allowNull: false },
+      unitSystem: { type: DataTypes.STRING(2), allowNull: false },
+      archived: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      createdById: { type: DataTypes.INTEGER, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'projects' },
+  );
+  Truss.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      projectId: { type: DataTypes.INTEGER, allowNull: false },
+      name: { type: DataTypes.STRING(160), allowNull: false },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'trusses' },
+  );
+}

@@ -1,0 +1,78 @@
+import { fn, col } from 'sequelize';
+import type { ProjectView, TrussView } from '@shared/schemas/project.schema';
+import { Project, Truss } from '../../db/models';
+
+function toProjectView(p: Project, trussCount: number): ProjectView {
+  return {
+    id: p.id,
+    name: p.name,
+    jobNumber: p.jobNumber,
+    client: p.client,
+    site: p.site,
+    designBasis: p.designBasis,
+    unitSystem: p.unitSystem,
+    archived: Boolean(p.archived),
+    createdAt: new Date(p.createdAt).toISOString(),
+    updatedAt: new Date(p.updatedAt).toISOString(),
+    trussCount,
+  };
+}
+
+export function toTrussView(t: Truss): TrussView {
+  return {
+    id: t.id,
+    projectId: t.projectId,
+    name: t.name,
+    createdAt: new Date(t.createdAt).toISOString(),
+    updatedAt: new Date(t.updatedAt).toISOString(),
+  };
+}
+
+async function trussCounts(projectIds: number[]): Promise<Map<number, number>> {
+  if (projectIds.length === 0) return new Map();
+  const rows = (await Truss.findAll({
+    attributes: ['projectId', [fn('COUNT', col('id')), 'count']],
+    where: { projectId: projectIds },
+    group: ['projectId'],
+    raw: true,
+  })) as unknown as { projectId: number; count: number }[];
+  return new Map(rows.map((r) => [r.projectId, Number(r.count)]));
+}
+
+export const projectsRepository = {
+  async list(includeArchived: boolean): Promise<ProjectView[]> {
+    const projects = await Project.findAll({
+      where: includeArchived ? {} : { archived: false },
+      order: [['updatedAt', 'DESC']],
+    });
+    const counts = await trussCounts(projects.map((p) => p.id));
+    return projects.map((p) => toProjectView(p, counts.get(p.id) ?? 0));
+  },
+  async find(id: number): Promise<ProjectView | null> {
+    const p = await Project.findByPk(id);
+    if (!p) return null;
+    const counts = await trussCounts([id]);
+    return toProjectView(p, counts.get(id) ?? 0);
+  },
+  async create(values: Omit<ProjectView, 'id' | 'archived' | 'createdAt' | 'updatedAt' | 'trussCount'>, createdById: number) {
+    const p = await Project.create({ ...values, createdById });
+    return toProjectView(p, 0);
+  },
+  async update(id: number, values: Partial<Project['_creationAttributes']>): Promise<ProjectView | null> {
+    const p = await Project.findByPk(id);
+    if (!p) return null;
+    await p.update(values);
+    return this.find(id);
+  },
+  async listTrusses(projectId: number): Promise<TrussView[]> {
+    const rows = await Truss.findAll({ where: { projectId }, order: [['name', 'ASC']] });
+    return rows.map(toTrussView);
+  },
+  async createTruss(projectId: number, name: string): Promise<TrussView> {
+    return toTrussView(await Truss.create({ projectId, name }));
+  },
+  async findTruss(id: number): Promise<TrussView | null> {
+    const t = await Truss.findByPk(id);
+    return t ? toTrussView(t) : null;
+  },
+};

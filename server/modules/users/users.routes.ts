@@ -1,0 +1,27 @@
+import { inviteUserSchema, updateUserSchema } from '@shared/schemas/auth.schema';
+import { ApiRoutes, type RouteSpec } from '../../middleware/access';
+import { idParam, validateBody } from '../../middleware/validate';
+import type { User } from '../../db/models';
+import type { Mailer } from '../../mail/mailer';
+import { getFirm } from '../firm/firm.service';
+import { inviteUser, listUsers, updateUser } from './users.service';
+
+export function usersRoutes(registry: RouteSpec[], deps: { mailer: Mailer; publicUrl: () => string }) {
+  const routes = new ApiRoutes('/api', registry);
+  routes.add('get', '/users', ['admin'], async (_req, res) => {
+    res.json(await listUsers());
+  });
+  routes.add('post', '/users/invitations', ['admin'], validateBody(inviteUserSchema), async (req, res) => {
+    const firm = await getFirm();
+    const result = await inviteUser(req.body, req.user as User, {
+      mailer: deps.mailer,
+      publicUrl: deps.publicUrl(),
+      firmName: firm.name,
+    });
+    res.status(201).json(result);
+  });
+  routes.add('patch', '/users/:id', ['admin'], validateBody(updateUserSchema), async (req, res) => {
+    res.json(await updateUser(idParam(req.params.id, 'That user'), req.body, req.user as User));
+  });
+  return routes.router;
+}
