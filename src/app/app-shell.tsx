@@ -1,0 +1,126 @@
+import type { ReactNode } from 'react';
+import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { Button } from '@/components/ui/button';
+import { Badge } from '@/components/ui/page-header';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { Wordmark } from '@/components/ui/wordmark';
+import { useSession } from '@/features/auth/api/get-session';
+import { useSignOut } from '@/features/auth/api/sign-out';
+import { isAdmin, ROLE_LABELS } from '@/lib/permissions';
+import { useCurrentUser } from './current-user';
+
+export const CAUTION = 'Results must be reviewed by a licensed engineer; local codes govern.';
+
+/** Lets the page through only with a session; otherwise to sign-in, remembering where the person was going. */
+export function RequireSession({ children }: { children: ReactNode }) {
+  const session = useSession();
+  const location = useLocation();
+  if (session.isPending) return <FullPageLoading />;
+  if (session.isError) {
+    return (
+      <div className="mx-auto max-w-lg px-6 py-16">
+        <Wordmark />
+        <ErrorState title="Panelpoint could not be reached" error={session.error} onRetry={() => void session.refetch()} />
+      </div>
+    );
+  }
+  if (!session.data.user) {
+    const next = location.pathname + location.search;
+    return <Navigate to={next === '/' ? '/sign-in' : `/sign-in?next=${encodeURIComponent(next)}`} replace />;
+  }
+  return <>{children}</>;
+}
+
+export function RequireAdmin() {
+  const user = useCurrentUser();
+  if (!isAdmin(user.role)) {
+    return (
+      <EmptyState>
+        Only an admin can open this page. Ask your firm’s admin if you need a user, firm or outbox change.
+      </EmptyState>
+    );
+  }
+  return <Outlet />;
+}
+
+function FullPageLoading() {
+  return (
+    <div className="mx-auto max-w-lg px-6 py-16">
+      <LoadingState label="Opening Panelpoint…" />
+    </div>
+  );
+}
+
+function NavItem({ to, children }: { to: string; children: ReactNode }) {
+  return (
+    <NavLink
+      to={to}
+      className={({ isActive }) =>
+        `relative flex h-full items-center px-3 text-sm transition-colors ${
+          isActive
+            ? 'font-semibold text-ink after:absolute after:inset-x-3 after:-bottom-px after:h-0.5 after:bg-accent'
+            : 'text-ink-soft hover:text-ink'
+        }`
+      }
+    >
+      {children}
+    </NavLink>
+  );
+}
+
+/** The frame around every signed-in page: the bar with navigation for the role, the page, the caution line. */
+export function AppShell() {
+  const user = useCurrentUser();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="border-b border-paper-line bg-paper-raised/70">
+        <div className="mx-auto flex h-14 max-w-6xl items-stretch gap-6 px-6">
+          <NavLink to="/projects" className="flex items-center" aria-label="Panelpoint, projects">
+            <Wordmark />
+          </NavLink>
+          <nav aria-label="Main" className="flex items-stretch">
+            <NavItem to="/projects">Projects</NavItem>
+            {isAdmin(user.role) && (
+              <>
+                <span aria-hidden className="mx-2 my-4 w-px bg-paper-line" />
+                <NavItem to="/admin/users">Users</NavItem>
+                <NavItem to="/admin/outbox">Outbox</NavItem>
+                <NavItem to="/admin/firm">Firm</NavItem>
+              </>
+            )}
+          </nav>
+          <div className="ml-auto flex items-center gap-3">
+            <div className="text-right leading-tight">
+              <div className="text-sm font-medium text-ink">{user.name}</div>
+              <div className="text-[11px] text-ink-faint">{user.email}</div>
+            </div>
+            <Badge tone="accent">{ROLE_LABELS[user.role]}</Badge>
+            <Button
+              size="sm"
+              variant="quiet"
+              busy={signOut.isPending}
+              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in', { replace: true }) })}
+            >
+              Sign out
+            </Button>
+          </div>
+        </div>
+      </header>
+      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8">
+        <Outlet />
+      </main>
+      <Footer />
+    </div>
+  );
+}
+
+export function Footer() {
+  return (
+    <footer className="border-t border-paper-line">
+      <p className="mx-auto max-w-6xl px-6 py-3 text-xs text-ink-faint">{CAUTION}</p>
+    </footer>
+  );
+}

@@ -1,0 +1,25 @@
+import { PageHeader, Panel } from '@/components/ui/page-header';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { useFirm } from '@/features/firm/api/get-firm';
+import { FirmForm } from '@/features/firm/components/firm-form';
+import { isAdmin } from '@/lib/permissions';
+import { useCurrentUser } from '../../current-user';
+
+export function FirmRoute() {
+  const user = useCurrentUser();
+  const firm = useFirm();
+  return (
+    <div>
+      <PageHeader title="Firm" description="The name, address and paper size that every calc sheet’s title block carries." />
+      {firm.isPending ? (
+        <LoadingState label="Loading the firm’s details…" />
+      ) : firm.isError ? (
+        <ErrorState title="The firm’s details could not be loaded" error={firm.error} onRetry={() => void firm.refetch()} />
+      ) : (
+        <Panel title="Title block">
+          <FirmForm firm={firm.data} editable={isAdmin(user.role)} />
+        </Panel>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,44 @@
+import { useState } from 'react';
+import { PageHeader, Panel } from '@/components/ui/page-header';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { useUsers } from '@/features/users/api/get-users';
+import { InviteUserForm } from '@/features/users/components/invite-user-form';
+import { UsersTable } from '@/features/users/components/users-table';
+import { useCurrentUser } from '../../current-user';
+
+export function UsersRoute() {
+  const user = useCurrentUser();
+  const users = useUsers();
+  const [filter, setFilter] = useState('');
+
+  return (
+    <div>
+      <PageHeader
+        title="Users"
+        description="Who works in Panelpoint and in what role. A disabled person can no longer sign in; their signatures on issued sheets stay valid."
+      />
+      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[1fr_20rem]">
+        <div>
+          <input
+            type="search"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+            placeholder="Filter by name or e-mail"
+            aria-label="Filter users"
+            className="mb-3 h-9 w-full max-w-xs rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+          />
+          {users.isPending ? (
+            <LoadingState label="Loading users…" />
+          ) : users.isError ? (
+            <ErrorState title="The users could not be loaded" error={users.error} onRetry={() => void users.refetch()} />
+          ) : (
+            <UsersTable users={users.data} currentUserId={user.id} filter={filter} />
+          )}
+        </div>
+        <Panel title="Invite someone">
+          <InviteUserForm />
+        </Panel>
+      </div>
+    </div>
+  );
+}

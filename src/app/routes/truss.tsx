@@ -1,0 +1,40 @@
+import { Link, useParams } from 'react-router-dom';
+import { Panel } from '@/components/ui/page-header';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { useProject } from '@/features/projects/api/get-project';
+import { useTruss } from '@/features/trusses/api/get-truss';
+import { TrussPage } from '@/features/trusses/components/truss-page';
+
+export function TrussRoute() {
+  const trussId = Number(useParams().trussId);
+  if (!Number.isInteger(trussId) || trussId <= 0) {
+    return <EmptyState>This is not a truss address. Open the truss from its project.</EmptyState>;
+  }
+  return <TrussRouteLoaded trussId={trussId} />;
+}
+
+function TrussRouteLoaded({ trussId }: { trussId: number }) {
+  const truss = useTruss(trussId);
+  const project = useProject(truss.data?.projectId ?? 0, { enabled: truss.isSuccess });
+
+  if (truss.isPending) return <LoadingState label="Loading the truss…" />;
+  if (truss.isError) {
+    return (
+      <div>
+        <ErrorState title="The truss could not be loaded" error={truss.error} onRetry={() => void truss.refetch()} />
+        <Link to="/projects" className="text-sm font-medium text-accent hover:underline">
+          Back to the projects
+        </Link>
+      </div>
+    );
+  }
+
+  const projectLabel = project.data ? `${project.data.jobNumber} ${project.data.name}` : undefined;
+  return (
+    <TrussPage truss={truss.data} projectLabel={projectLabel}>
+      <Panel title="Drawing">
+        <EmptyState>The drawing import arrives next: upload the truss’s DXF here to see its joints and members.</EmptyState>
+      </Panel>
+    </TrussPage>
+  );
+}
