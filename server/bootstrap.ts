@@ -12,6 +12,7 @@ import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
 import { seedDemo } from './seed/demo';
 
 export interface Services extends CreatedApp {
+  config: Config;
   sequelize: Sequelize;
   mailer: Mailer;
   sink?: SmtpSink;
@@ -50,6 +51,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
   });
   return {
     ...created,
+    config,
     sequelize,
     mailer,
     sink,

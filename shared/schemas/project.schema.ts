@@ -3,19 +3,28 @@ import { z } from 'zod';
 export const unitSystemSchema = z.enum(['SI', 'US']);
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
-export const projectInputSchema = z.object({
+const projectFields = {
   name: z.string().trim().min(1, 'Enter a project name.').max(160),
   jobNumber: z.string().trim().min(1, 'Enter the job number.').max(40),
-  client: z.string().trim().max(160).default(''),
-  site: z.string().trim().max(240).default(''),
-  designBasis: z.string().trim().max(2000).default(''),
-  unitSystem: unitSystemSchema.default('SI'),
+  client: z.string().trim().max(160),
+  site: z.string().trim().max(240),
+  designBasis: z.string().trim().max(2000),
+  unitSystem: unitSystemSchema,
+};
+
+export const projectInputSchema = z.object({
+  ...projectFields,
+  client: projectFields.client.default(''),
+  site: projectFields.site.default(''),
+  designBasis: projectFields.designBasis.default(''),
+  unitSystem: projectFields.unitSystem.default('SI'),
 });
 export type ProjectInput = z.input<typeof projectInputSchema>;
 
-export const projectUpdateSchema = projectInputSchema
+/** Only the fields sent change; no defaults here, or a rename would blank the rest. */
+export const projectUpdateSchema = z
+  .object({ ...projectFields, archived: z.boolean() })
   .partial()
-  .extend({ archived: z.boolean().optional() })
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change: send at least one field.');
 export type ProjectUpdate = z.input<typeof projectUpdateSchema>;
 

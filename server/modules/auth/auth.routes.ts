@@ -29,6 +29,8 @@ export function authRoutes(registry: RouteSpec[], passport: PassportInstance, co
     limit: config.signInRateLimit,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    // Only failed attempts count, so a busy office behind one address is not locked out.
+    skipSuccessfulRequests: true,
     handler: (_req, _res, next) =>
       next(new AppError('too-many-attempts', 'Too many sign-in attempts from here. Wait a few minutes and try again.', 429)),
   });

@@ -1,0 +1,93 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import type { Services } from '../../server/bootstrap';
+import { demoEmail, openTab, signIn, startTestServices, type Tab } from '../support/test-services';
+
+/**
+ * Who may call each route, written out from the role table of the product design
+ * (drafter uploads, engineer models/runs/issues, reviewer checks, admin manages users and
+ * the firm; everyone in the firm reads projects). 'public' routes need no session.
+ * Every route the app registers must appear here, and every row here must exist.
+ */
+type Who = 'anon' | 'drafter' | 'engineer' | 'reviewer' | 'admin';
+const ALL = ['drafter', 'engineer', 'reviewer', 'admin'] as const;
+const EXPECTED: Record<string, 'public' | readonly Who[]> = {
+  'GET /api/session': 'public',
+  'POST /api/session': 'public',
+  'DELETE /api/session': 'public',
+  'GET /api/invitations/:token': 'public',
+  'POST /api/invitations/accept': 'public',
+  'GET /api/users': ['admin'],
+  'POST /api/users/invitations': ['admin'],
+  'PATCH /api/users/:id': ['admin'],
+  'GET /api/outbox': ['admin'],
+  'GET /api/firm': ALL,
+  'PUT /api/firm': ['admin'],
+  'GET /api/projects': ALL,
+  'POST /api/projects': ['engineer', 'admin'],
+  'GET /api/projects/:id': ALL,
+  'PATCH /api/projects/:id': ['engineer', 'admin'],
+  'GET /api/projects/:id/trusses': ALL,
+  'POST /api/projects/:id/trusses': ['drafter', 'engineer', 'admin'],
+  'GET /api/trusses/:id': ALL,
+};
+
+let services: Services;
+const tabs = {} as Record<Who, Tab>;
+
+beforeAll(async () => {
+  services = await startTestServices();
+  tabs.anon = await openTab(services.app);
+  for (const role of ALL) tabs[role] = await signIn(services.app, demoEmail(role));
+});
+afterAll(async () => {
+  await services.shutdown();
+});
+
+/** A concrete path for a route pattern: ids of the demo project (1) and an unknown token. */
+const concrete = (pattern: string) => pattern.replace(':id', '999999').replace(':token', 'no-such-invitation-token-000');
+
+describe('role matrix', () => {
+  it('when the app lists its routes, then each is in the expected matrix and each row exists', () => {
+    const registered = services.routes.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();
+    expect(registered).toEqual(Object.keys(EXPECTED).sort());
+  });
+
+  const cases: [string, Who, boolean][] = [];
+  for (const [route, allowed] of Object.entries(EXPECTED)) {
+    for (const who of ['anon', ...ALL] as Who[]) {
+      cases.push([route, who, allowed === 'public' || allowed.includes(who)]);
+    }
+  }
+
+  it.each(cases)('%s as %s → allowed: %s', async (route, who, allowed) => {
+    const [method, pattern] = route.split(' ');
+    // Signing out would end the shared tab's session, so that row gets a tab of its own.
+    const tab =
+      route === 'DELETE /api/session'
+        ? who === 'anon'
+          ? await openTab(services.app)
+          : await signIn(services.app, demoEmail(who))
+        : tabs[who];
+    const path = concrete(pattern);
+    const call = tab.agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete'](path).set('X-CSRF-Token', tab.csrf);
+    // An empty body: allowed calls then fail validation or find nothing, never reach a write.
+    const res = method === 'GET' ? await call : await call.send({});
+    if (allowed) {
+      expect([401, 403]).not.toContain(res.status);
+    } else {
+      expect(res.status).toBe(who === 'anon' ? 401 : 403);
+      expect(res.body.error.code).toBe(who === 'anon' ? 'not-signed-in' : 'forbidden');
+    }
+  });
+
+  it('when a signed-out tab signs out again, then it is harmless', async () => {
+    const tab = await openTab(services.app);
+    await tab.agent.delete('/api/session').set('X-CSRF-Token', tab.csrf).expect(204);
+  });
+
+  it('when no cookie at all is sent, then reads are 401', async () => {
+    const res = await request(services.app).get('/api/projects');
+    expect(res.status).toBe(401);
+  });
+});
