@@ -58,7 +58,10 @@ export interface JointForce {
 /** ΣFx = 0, ΣFy = 0 or ΣM about a joint = 0, as terms. The right-hand side is always 0. */
 export interface EquilibriumEquation {
   kind: 'sum-fx' | 'sum-fy' | 'sum-m';
-  /** For 'sum-m': the joint the moments are taken about. */
+  /**
+   * For 'sum-m': the joint the moments are taken about. For ΣF equations in a simultaneous
+   * step: the joint whose equilibrium it is.
+   */
   about?: { joint: string; tag: string; x: number; y: number };
   terms: ForceTerm[];
 }

@@ -1,0 +1,138 @@
+import type { PreparedModel } from './prepare';
+import { sparseEliminate, type SparseRow } from './sparse';
+import type { Classification, DeterminacyKind } from './types';
+
+/**
+ * Rows of the joint-equilibrium matrix A (2j × (m + r)): row 2i is ΣFx at joint i, row 2i+1 is
+ * ΣFy. Column e < m is member e's tension (+u at its `a` joint, −u at its `b` joint); column
+ * m + k is reaction component k along its unit direction. Equilibrium: A·[N; R] + F = 0.
+ */
+export function equilibriumRows(pm: PreparedModel): SparseRow[] {
+  const n = pm.jointIds.length;
+  const m = pm.members.length;
+  const rows: SparseRow[] = [];
+  for (let i = 0; i < 2 * n; i++) rows.push({ cols: [], vals: [] });
+  const add = (row: number, col: number, v: number) => {
+    if (v === 0) return;
+    rows[row].cols.push(col);
+    rows[row].vals.push(v);
+  };
+  pm.members.forEach((mb, e) => {
+    add(2 * mb.a, e, mb.cx);
+    add(2 * mb.a + 1, e, mb.cy);
+    add(2 * mb.b, e, -mb.cx);
+    add(2 * mb.b + 1, e, -mb.cy);
+  });
+  pm.reactions.forEach((rc, k) => {
+    add(2 * rc.joint, m + k, rc.dx);
+    add(2 * rc.joint + 1, m + k, rc.dy);
+  });
+  return rows;
+}
+
+const LIST_LIMIT = 20;
+
+function tagList(tags: string[]): string {
+  if (tags.length <= LIST_LIMIT) return tags.join(', ');
+  return `${tags.slice(0, LIST_LIMIT).join(', ')} and ${tags.length - LIST_LIMIT} more`;
+}
+
+/** Why the reactions alone cannot hold the truss still, when that is the cause. */
+function reactionDiagnosis(pm: PreparedModel): string | null {
+  const rs = pm.reactions;
+  if (rs.length < 3) {
+    return `There are only ${rs.length} reaction component${rs.length === 1 ? '' : 's'}; a plane truss needs at least three (for example a pin and a roller).`;
+  }
+  const parallel = rs.every((r) => Math.abs(r.dx * rs[0].dy - r.dy * rs[0].dx) < 1e-9);
+  if (parallel) {
+    return 'All reaction lines are parallel, so nothing resists movement across them; turn one roller or make one support a pin.';
+  }
+  // Concurrent: every reaction line passes through one point.
+  const a = rs[0];
+  const b = rs.find((r) => Math.abs(r.dx * a.dy - r.dy * a.dx) >= 1e-9);
+  if (b) {
+    const ax = pm.x[a.joint];
+    const ay = pm.y[a.joint];
+    const bx = pm.x[b.joint];
+    const by = pm.y[b.joint];
+    const det = a.dx * -b.dy - a.dy * -b.dx;
+    const t = ((bx - ax) * -b.dy - (by - ay) * -b.dx) / det;
+    const px = ax + t * a.dx;
+    const py = ay + t * a.dy;
+    const tol = 1e-9 * Math.max(pm.extent, 1);
+    const through = rs.every((r) => Math.abs((pm.x[r.joint] - px) * r.dy - (pm.y[r.joint] - py) * r.dx) < tol);
+    if (through) {
+      return `All reaction lines pass through one point (${px.toFixed(3)}, ${py.toFixed(3)}) m, so nothing resists rotation about it; move or turn a roller.`;
+    }
+  }
+  return null;
+}
+
+/**
+ * Stability and determinacy: the count m + r against 2j and the rank of the joint-equilibrium
+ * matrix (sparse elimination, see sparse.ts). A model is stable only with rank 2j; then
+ * m + r = 2j is determinate and m + r > 2j indeterminate to degree m + r − 2j. For an unstable
+ * model the joints that can move without any member changing length are named.
+ */
+export function trussClassify(pm: PreparedModel): Classification {
+  const m = pm.members.length;
+  const r = pm.reactions.length;
+  const j = pm.jointIds.length;
+  const degree = m + r - 2 * j;
+  const rows = equilibriumRows(pm);
+  const first = sparseEliminate(m + r, rows);
+  const rank = first.rank;
+  let kind: DeterminacyKind;
+  let mechanismJoints: string[] = [];
+  let message: string;
+  if (rank < 2 * j) {
+    kind = 'unstable';
+    const tracked = sparseEliminate(m + r, rows, { track: true });
+    const moving = new Set<number>();
+    for (const combo of tracked.nullCombinations) {
+      let max = 0;
+      for (const v of combo.values()) max = Math.max(max, Math.abs(v));
+      for (const [row, v] of combo) if (Math.abs(v) > 1e-6 * max) moving.add(row >> 1);
+    }
+    const order = [...moving].sort((p, q) => p - q);
+    mechanismJoints = order.map((i) => pm.jointIds[i]);
+    const tags = order.map((i) => pm.jointTags[i]);
+    const parts: string[] = [];
+    if (degree < 0) {
+      parts.push(
+        `m + r = ${m} + ${r} = ${m + r} is less than 2j = ${2 * j}: the truss is short of ${-degree} member${degree === -1 ? '' : 's'} or reaction${degree === -1 ? '' : 's'} and is a mechanism.`,
+      );
+    } else {
+      parts.push(
+        `m + r = ${m + r} ≥ 2j = ${2 * j}, but the joint equilibrium equations are dependent (rank ${rank} < ${2 * j}): the truss is geometrically unstable.`,
+      );
+    }
+    const diag = reactionDiagnosis(pm);
+    if (diag) parts.push(diag);
+    const loose = order.filter((i) => pm.incidentStart[i + 1] - pm.incidentStart[i] < 2 && pm.supportAt[i] < 0);
+    if (loose.length) {
+      parts.push(`Joint${loose.length > 1 ? 's' : ''} ${tagList(loose.map((i) => pm.jointTags[i]))} ${loose.length > 1 ? 'have' : 'has'} fewer than two members and no support.`);
+    }
+    parts.push(
+      `Joints that can move without any member changing length: ${tagList(tags)}. Add a member (such as the missing diagonal of an open panel) or a support restraint there; no member forces are given for an unstable truss.`,
+    );
+    message = parts.join(' ');
+  } else if (degree === 0) {
+    kind = 'determinate';
+    message = `m + r = ${m} + ${r} = ${2 * j} = 2j and the equilibrium matrix has full rank: the truss is stable and statically determinate.`;
+  } else {
+    kind = 'indeterminate';
+    message = `m + r = ${m} + ${r} = ${m + r} > 2j = ${2 * j} and the equilibrium matrix has full rank: the truss is stable and statically indeterminate to degree ${degree}; member forces depend on member stiffness EA.`;
+  }
+  return {
+    kind,
+    m,
+    r,
+    j,
+    degree,
+    rank,
+    mechanismJoints,
+    message,
+    step: { id: 'model/determinacy', caseId: '', title: 'Stability and determinacy', kind: 'determinacy', m, r, j, degree, rank, verdict: kind },
+  };
+}

@@ -1,0 +1,18 @@
+/**
+ * The truss solver's public interface (the only barrel in the repository).
+ * Units: m, kN; member forces tension positive; reactions +x right, +y up.
+ */
+export { trussSolve } from './solve';
+export { SolverError, type SolverErrorCode } from './errors';
+export {
+  stepToKatex,
+  equationToKatex,
+  numberFormat,
+  texEscape,
+  symbolMember,
+  symbolReaction,
+  symbolLoad,
+  type KatexOptions,
+} from './katex';
+export { caseSteps } from './steps';
+export type * from './types';

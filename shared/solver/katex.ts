@@ -1,0 +1,191 @@
+import type {
+  EquilibriumEquation,
+  ForceSense,
+  JointForce,
+  SolvedForce,
+  SolverStep,
+} from './types';
+
+/** Options for `stepToKatex`. */
+export interface KatexOptions {
+  /** Decimals for forces (kN) and lengths (m); default 3. */
+  decimals?: number;
+}
+
+const TEX_SPECIAL = /[\\{}_^#$%&~]/g;
+
+/** Escapes a plain string (a tag, a name) for use inside `\mathrm{}` or `\text{}`. */
+export function texEscape(text: string): string {
+  return text.replace(TEX_SPECIAL, (ch) => {
+    if (ch === '\\') return '\\textbackslash{}';
+    if (ch === '~') return '\\textasciitilde{}';
+    if (ch === '^') return '\\textasciicircum{}';
+    return `\\${ch}`;
+  });
+}
+
+/** KaTeX symbol of a member force: F_{AB}. */
+export function symbolMember(tag: string): string {
+  return `F_{\\mathrm{${texEscape(tag)}}}`;
+}
+
+/** KaTeX symbol of a reaction component at a joint: R_{A,x}, R_{A,y} or R_{A} along a line. */
+export function symbolReaction(jointTag: string, component: 'x' | 'y' | 'n'): string {
+  const t = texEscape(jointTag);
+  return component === 'n' ? `R_{\\mathrm{${t}}}` : `R_{\\mathrm{${t}},${component}}`;
+}
+
+/** KaTeX symbol of a load component at a joint: P_{C,x}, P_{C,y}. */
+export function symbolLoad(jointTag: string, component: 'x' | 'y'): string {
+  return `P_{\\mathrm{${texEscape(jointTag)}},${component}}`;
+}
+
+/** Formats a number with fixed decimals, never "-0.000". */
+export function numberFormat(value: number, decimals = 3): string {
+  const text = value.toFixed(decimals);
+  return /^-0\.?0*$/.test(text) ? text.slice(1) : text;
+}
+
+function senseText(sense: ForceSense | undefined): string {
+  if (sense === 'T') return '\\ (\\mathrm{T})';
+  if (sense === 'C') return '\\ (\\mathrm{C})';
+  return '';
+}
+
+function termTex(coefficient: number, body: string, d: number, first: boolean, numeric: boolean): string {
+  const sign = coefficient < 0 ? '-' : '+';
+  const mag = Math.abs(coefficient);
+  const coeffText = Math.abs(mag - 1) < 1e-12 ? '' : `${numberFormat(mag, d)}${numeric ? ' \\times ' : '\\,'}`;
+  const lead = first ? (sign === '-' ? '-' : '') : ` ${sign} `;
+  return `${lead}${coeffText}${body}`;
+}
+
+function valueBody(term: { symbol: string; value: number | null }, d: number): string {
+  if (term.value === null) return term.symbol;
+  const v = numberFormat(term.value, d);
+  return term.value < 0 && v.startsWith('-') ? `(${v})` : v;
+}
+
+function equationLabel(eq: EquilibriumEquation): string {
+  const at = eq.about ? `\\big|_{\\mathrm{${texEscape(eq.about.tag)}}}` : '';
+  if (eq.kind === 'sum-fx') return `\\Sigma F_x${at} = 0`;
+  if (eq.kind === 'sum-fy') return `\\Sigma F_y${at} = 0`;
+  const about = eq.about ? `_{\\mathrm{${texEscape(eq.about.tag)}}}` : '';
+  return `\\Sigma M${about} = 0`;
+}
+
+/**
+ * One equation as KaTeX, known values substituted:
+ * `\Sigma F_x = 0:\quad -0.800\,F_{AC} + 50.000 = 0`. Terms with a zero coefficient are left out.
+ */
+export function equationToKatex(eq: EquilibriumEquation, options: KatexOptions = {}): string {
+  const d = options.decimals ?? 3;
+  const parts: string[] = [];
+  for (const term of eq.terms) {
+    if (Math.abs(term.coefficient) < 1e-12) continue;
+    if (term.value !== null && term.value === 0) continue;
+    parts.push(termTex(term.coefficient, valueBody(term, d), d, parts.length === 0, term.value !== null));
+  }
+  const body = parts.length ? parts.join('') : '0';
+  return `${equationLabel(eq)}:\\quad ${body} = 0`;
+}
+
+function solvedToKatex(s: SolvedForce, d: number): string {
+  return `${s.symbol} = ${numberFormat(s.value, d)}\\ \\mathrm{kN}${senseText(s.sense)}`;
+}
+
+function cosinesToKatex(f: JointForce, d: number): string {
+  return `${f.symbol}:\\ (\\cos, \\sin) = (${numberFormat(f.cx, d)},\\ ${numberFormat(f.cy, d)})`;
+}
+
+function matrixToKatex(rows: number[][], d: number): string {
+  const body = rows.map((r) => r.map((v) => numberFormat(v, d)).join(' & ')).join(' \\\\ ');
+  return `\\begin{bmatrix} ${body} \\end{bmatrix}`;
+}
+
+/**
+ * KaTeX source lines for any solver step, in reading order. Each line is one display equation
+ * (the sheet and the client both render from these). Plain words are wrapped in `\text{}`.
+ */
+export function stepToKatex(step: SolverStep, options: KatexOptions = {}): string[] {
+  const d = options.decimals ?? 3;
+  switch (step.kind) {
+    case 'determinacy': {
+      const rel = step.degree === 0 ? '=' : step.degree > 0 ? '>' : '<';
+      const words =
+        step.verdict === 'determinate'
+          ? 'statically determinate'
+          : step.verdict === 'indeterminate'
+            ? `statically indeterminate to degree ${step.degree}`
+            : 'unstable';
+      return [
+        `m + r = ${step.m} + ${step.r} = ${step.m + step.r} \\; ${rel} \\; 2j = 2 \\times ${step.j} = ${2 * step.j}`,
+        `\\operatorname{rank} \\mathbf{A} = ${step.rank} ${step.rank === 2 * step.j ? '=' : '<'} 2j = ${2 * step.j}`,
+        `\\Rightarrow\\ \\text{${words}}`,
+      ];
+    }
+    case 'zero-force': {
+      const why =
+        step.rule === 1
+          ? `rule 1 at joint ${texEscape(step.jointTag)}: two non-collinear members, no load, no support`
+          : `rule 2 at joint ${texEscape(step.jointTag)}: three members, two collinear, no load, no support`;
+      return [`${symbolMember(step.memberTag)} = 0 \\quad \\text{(${why}; pass ${step.pass})}`];
+    }
+    case 'reaction': {
+      const lines = [equationToKatex(step.equation, options)];
+      for (const s of step.solves) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
+      return lines;
+    }
+    case 'joint': {
+      const lines = [
+        `\\text{Joint ${texEscape(step.jointTag)} at } (${numberFormat(step.x, d)},\\ ${numberFormat(step.y, d)})\\ \\mathrm{m}`,
+      ];
+      for (const u of step.unknowns) lines.push(cosinesToKatex(u, d));
+      for (const eq of step.equations) {
+        const used = step.solvedFrom === 'both' || step.solvedFrom === eq.kind;
+        lines.push(equationToKatex(eq, options) + (used ? '' : '\\quad\\text{(check)}'));
+      }
+      for (const s of step.solution) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
+      return lines;
+    }
+    case 'simultaneous': {
+      const lines = [`\\text{${texEscape(step.reason)}}`];
+      for (const eq of step.equations) lines.push(equationToKatex(eq, options));
+      for (const s of step.solution) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
+      return lines;
+    }
+    case 'stiffness-members':
+      return step.rows.map(
+        (r) =>
+          `k_{\\mathrm{${texEscape(r.tag)}}} = \\frac{EA}{L} = \\frac{${numberFormat(r.EA, 0)}}{${numberFormat(r.length, d)}} = ${numberFormat(r.k, 1)}\\ \\mathrm{kN/m},\\quad (c, s) = (${numberFormat(r.c, d)},\\ ${numberFormat(r.s, d)})`,
+      );
+    case 'stiffness-assembly': {
+      const lines = [
+        `\\mathbf{u} = [${step.dofs.map((f) => `\\mathrm{${texEscape(f.label)}}`).join(',\\ ')}]^{T}`,
+      ];
+      if (step.matrix) lines.push(`\\mathbf{K} = ${matrixToKatex(step.matrix, 1)}\\ \\mathrm{kN/m}`);
+      if (step.note) lines.push(`\\text{${texEscape(step.note)}}`);
+      lines.push(`\\mathbf{P} = [${step.loads.map((v) => numberFormat(v, d)).join(',\\ ')}]^{T}\\ \\mathrm{kN}`);
+      lines.push('\\mathbf{K}\\,\\mathbf{u} = \\mathbf{P}');
+      return lines;
+    }
+    case 'stiffness-displacements':
+      return step.displacements.map(
+        (u) =>
+          `u_{\\mathrm{${texEscape(u.tag)}}} = ${numberFormat(u.ux * 1000, d)}\\ \\mathrm{mm},\\quad v_{\\mathrm{${texEscape(u.tag)}}} = ${numberFormat(u.uy * 1000, d)}\\ \\mathrm{mm}`,
+      );
+    case 'stiffness-forces':
+      return step.rows.map(
+        (r) =>
+          `${symbolMember(r.tag)} = k\\,\\delta = ${numberFormat(r.k, 1)} \\times ${numberFormat(r.elongation * 1000, d)}\\times 10^{-3} = ${numberFormat(r.force, d)}\\ \\mathrm{kN}${senseText(r.sense)}`,
+      );
+    case 'check': {
+      const at = step.residualJointTag ? `\\ \\text{at joint ${texEscape(step.residualJointTag)}}` : '';
+      const ratio = step.largestLoad > 0 ? step.residual / step.largestLoad : 0;
+      return [
+        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${step.residual.toExponential(2)}\\ \\mathrm{kN}${at}`,
+        `\\text{relative to the largest load } ${numberFormat(step.largestLoad, d)}\\ \\mathrm{kN}:\\ ${ratio.toExponential(2)}`,
+      ];
+    }
+  }
+}
