@@ -1,0 +1,543 @@
+import type { IDxf } from 'dxf-parser';
+import type { Joint } from '@shared/model/truss';
+import { DxfImportError } from './errors';
+import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
+import { healSegments } from './heal';
+import { dxfLayers, dxfOf } from './layers';
+import { assignTags, memberTagOf, readingOrder } from './tags';
+import {
+  DXF_REPORT_MAX_LOCATIONS,
+  dxfImportOptionsSchema,
+  type DxfImportOptions,
+  type DxfImportResult,
+  type DxfLengthUnit,
+  type DxfMember,
+  type DxfParsed,
+  type DxfPoint,
+  type DxfReportEntry,
+} from './types';
+
+/**
+ * $INSUNITS codes → [name, metres per unit, our symbol]. Codes from the DXF Reference
+ * (Autodesk), INSUNITS; factors are the exact definitions of the units (international inch
+ * 25.4 mm, foot 0.3048 m, yard 0.9144 m, mile 1609.344 m, US survey foot 1200/3937 m; the
+ * astronomical unit 149 597 870 700 m, IAU 2012; light year and parsec from their IAU values).
+ */
+const INSUNITS: Record<number, [string, number, DxfLengthUnit | null]> = {
+  1: ['inches', 0.0254, 'in'],
+  2: ['feet', 0.3048, 'ft'],
+  3: ['miles', 1609.344, null],
+  4: ['millimetres', 0.001, 'mm'],
+  5: ['centimetres', 0.01, 'cm'],
+  6: ['metres', 1, 'm'],
+  7: ['kilometres', 1000, null],
+  8: ['microinches', 0.0254e-6, null],
+  9: ['mils', 0.0254e-3, null],
+  10: ['yards', 0.9144, null],
+  11: ['ångströms', 1e-10, null],
+  12: ['nanometres', 1e-9, null],
+  13: ['micrometres', 1e-6, null],
+  14: ['decimetres', 0.1, null],
+  15: ['decametres', 10, null],
+  16: ['hectometres', 100, null],
+  17: ['gigametres', 1e9, null],
+  18: ['astronomical units', 149_597_870_700, null],
+  19: ['light years', 9_460_730_472_580_800, null],
+  20: ['parsecs', 3.085_677_581_491_367e16, null],
+  21: ['US survey feet', 1200 / 3937, null],
+};
+
+const UNIT_OF_SYMBOL: Record<DxfLengthUnit, [string, number]> = {
+  m: ['metres', 1],
+  mm: ['millimetres', 0.001],
+  cm: ['centimetres', 0.01],
+  in: ['inches', 0.0254],
+  ft: ['feet', 0.3048],
+};
+
+/** Farthest a point may lie from the origin, m: beyond any site grid (UTM northings stay below 10 000 km). */
+export const DXF_MAX_COORDINATE_M = 1e7;
+
+/**
+ * The units a drawing declares in its header ($INSUNITS), or null when it is unitless
+ * (0 or absent, as in every R12 file) or uses a code we do not know.
+ */
+export function dxfUnitOf(parsed: DxfParsed | IDxf): { insunits: number; name: string; unit: DxfLengthUnit | null; metresPerUnit: number } | null {
+  const { dxf } = dxfOf(parsed);
+  const raw = dxf.header?.['$INSUNITS'];
+  const code = typeof raw === 'number' && Number.isInteger(raw) ? raw : 0;
+  const u = INSUNITS[code];
+  if (!u) return null;
+  return { insunits: code, name: u[0], unit: u[2], metresPerUnit: u[1] };
+}
+
+/** "1 mm", "2.5 mm", "0.12 m", "3 m": lengths in messages. */
+function formatLength(m: number): string {
+  if (m < 1) return `${trim(m * 1000)} mm`;
+  return `${trim(m)} m`;
+}
+
+function trim(v: number): string {
+  return String(Number(v.toPrecision(3)));
+}
+
+function formatPoint(x: number, y: number): string {
+  return `(${x.toFixed(2)}, ${y.toFixed(2)}) m`;
+}
+
+function plural(n: number, one: string, many = `${one}s`): string {
+  return `${n} ${n === 1 ? one : many}`;
+}
+
+const ENTITY_WORDS: Record<string, [string, string]> = {
+  ARC: ['arc', 'arcs'],
+  CIRCLE: ['circle', 'circles'],
+  ELLIPSE: ['ellipse', 'ellipses'],
+  SPLINE: ['spline', 'splines'],
+  TEXT: ['text', 'texts'],
+  MTEXT: ['multiline text', 'multiline texts'],
+  DIMENSION: ['dimension', 'dimensions'],
+  HATCH: ['hatch', 'hatches'],
+  POINT: ['point', 'points'],
+  SOLID: ['solid fill', 'solid fills'],
+  '3DFACE': ['3D face', '3D faces'],
+  ATTDEF: ['attribute definition', 'attribute definitions'],
+  INSERT: ['block reference', 'block references'],
+  POLYLINE: ['polyline', 'polylines'],
+  LWPOLYLINE: ['polyline', 'polylines'],
+  LINE: ['line', 'lines'],
+};
+
+function entityWords(type: string, n: number): string {
+  const w = ENTITY_WORDS[type];
+  if (w) return `${n} ${n === 1 ? w[0] : w[1]}`;
+  return `${n} ${type} ${n === 1 ? 'entity' : 'entities'}`;
+}
+
+/** Default tolerance: 1/20 000 of the diagonal, rounded down to 1, 2 or 5 × 10ⁿ m (common practice, no source). */
+function defaultTolerance(diagonal: number): number {
+  const raw = diagonal / 20_000;
+  const p = Math.pow(10, Math.floor(Math.log10(raw)));
+  const m = raw / p;
+  const nice = m >= 5 ? 5 : m >= 2 ? 2 : 1;
+  return nice * p;
+}
+
+class Growable {
+  data = new Float64Array(4096);
+  length = 0;
+  push4(a: number, b: number, c: number, d: number): void {
+    if (this.length + 4 > this.data.length) {
+      const bigger = new Float64Array(this.data.length * 2);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    const o = this.length;
+    this.data[o] = a;
+    this.data[o + 1] = b;
+    this.data[o + 2] = c;
+    this.data[o + 3] = d;
+    this.length += 4;
+  }
+}
+
+function pushLimited<T>(list: T[], ...items: T[]): void {
+  for (const it of items) if (list.length < DXF_REPORT_MAX_LOCATIONS) list.push(it);
+}
+
+/**
+ * Imports a parsed drawing as truss geometry: joints (m) and members, healed, tagged, and a
+ * report of every change and every entity left out.
+ *
+ * Reads LINE, LWPOLYLINE and 2-D POLYLINE (open or closed; each span a member; arc spans
+ * taken as straight members and reported 'ignored-bulge') on the chosen layers, exploding
+ * INSERTs of blocks (nested, scale, mirroring, rotation, base point, arrays). Converts the
+ * drawing's units ($INSUNITS, or `options.units`) to metres, then heals with tolerance
+ * `options.tolerance` (m; default 1/20 000 of the drawing's diagonal, rounded to 1-2-5):
+ * merges endpoints, drops zero-length segments, merges duplicates and collinear overlaps,
+ * splits members at joints on their interior; reports crossings without a joint, dangling
+ * members and separate pieces without changing them. Joint tags come from TEXT/MTEXT near a
+ * joint, otherwise A, B, … in reading order; member tags join their joints' tags ("BC").
+ *
+ * @throws DxfImportError 'bad-option' (options fail the schema), 'units-required' (unitless
+ *   drawing, no units chosen), 'unknown-layer', 'no-lines' (nothing straight on the chosen
+ *   layers), 'bad-coordinate' (NaN / missing), 'coordinate-too-large' (beyond 10 000 km from the
+ *   origin), 'tolerance-too-large' (tolerance over half the typical member length),
+ *   'block-problem' (self-referencing or too deeply nested blocks).
+ */
+export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfImportResult {
+  const opt = dxfImportOptionsSchema.safeParse(options ?? {});
+  if (!opt.success) {
+    const first = opt.error.issues[0];
+    throw new DxfImportError('bad-option', `The import option "${first?.path.join('.') || 'options'}" is not valid (${first?.message ?? 'invalid'}). Use layers as a list of layer names, units as m, mm, cm, in or ft, and a tolerance in metres greater than 0.`);
+  }
+  const o = opt.data;
+  const { dxf, unread } = dxfOf(parsed);
+  if (!dxf || typeof dxf !== 'object') {
+    throw new DxfImportError('unreadable', 'There is no parsed drawing to import. Parse the file with dxfParse first.');
+  }
+  const report: DxfReportEntry[] = [];
+  const entry = (e: Omit<DxfReportEntry, 'points' | 'joints' | 'members'> & Partial<Pick<DxfReportEntry, 'points' | 'joints' | 'members'>>): DxfReportEntry => {
+    const full: DxfReportEntry = { points: [], joints: [], members: [], ...e };
+    report.push(full);
+    return full;
+  };
+
+  // ---- units
+  const declared = dxfUnitOf(dxf);
+  const insunits = declared?.insunits ?? (typeof dxf.header?.['$INSUNITS'] === 'number' ? (dxf.header['$INSUNITS'] as number) : 0);
+  let units: DxfImportResult['units'];
+  if (o.units) {
+    const [name, f] = UNIT_OF_SYMBOL[o.units];
+    units = { name, unit: o.units, metresPerUnit: f, insunits, source: 'option' };
+    if (declared && declared.metresPerUnit !== f) {
+      entry({ kind: 'units', severity: 'warning', count: 1, message: `read the drawing in ${name} as chosen, although it says it is drawn in ${declared.name}` });
+    } else {
+      entry({ kind: 'units', severity: 'info', count: 1, message: `read the drawing in ${name} as chosen and converted to metres` });
+    }
+  } else if (declared) {
+    units = { name: declared.name, unit: declared.unit, metresPerUnit: declared.metresPerUnit, insunits, source: 'drawing' };
+    entry({ kind: 'units', severity: 'info', count: 1, message: `read the drawing in ${declared.name}, as its header says ($INSUNITS = ${insunits}), and converted to metres` });
+  } else {
+    throw new DxfImportError(
+      'units-required',
+      insunits === 0
+        ? 'The drawing does not say what units it is drawn in ($INSUNITS is 0 or missing). Choose the units (m, mm, cm, in or ft) and import again.'
+        : `The drawing says its units are code ${insunits} ($INSUNITS), which Panelpoint does not know. Choose the units (m, mm, cm, in or ft) and import again.`,
+    );
+  }
+  const k = units.metresPerUnit;
+
+  // ---- layers
+  const layerInfo = dxfLayers(dxf);
+  const lineLayers = layerInfo.filter((l) => l.holdsLines).map((l) => l.name);
+  let chosen: string[];
+  if (o.layers) {
+    const known = new Set(layerInfo.map((l) => l.name));
+    const missing = o.layers.filter((l) => !known.has(l));
+    if (missing.length > 0) {
+      throw new DxfImportError('unknown-layer', `The drawing has no layer ${missing.map((m) => `"${m}"`).join(', ')}. Its layers are ${layerInfo.map((l) => `"${l.name}"`).join(', ') || 'none'}; choose from those.`);
+    }
+    chosen = [...new Set(o.layers)];
+  } else {
+    chosen = lineLayers;
+  }
+  const chosenSet = new Set(chosen);
+  const segOnChosen = layerInfo.filter((l) => chosenSet.has(l.name)).reduce((s, l) => s + l.segments, 0);
+  if (segOnChosen === 0) {
+    if (lineLayers.length === 0) {
+      const found = layerInfo.flatMap((l) => Object.entries(l.counts)).reduce<Record<string, number>>((acc, [t, n]) => {
+        acc[t] = (acc[t] ?? 0) + n;
+        return acc;
+      }, {});
+      const what = Object.entries(found).map(([t, n]) => entityWords(t, n)).join(', ');
+      throw new DxfImportError('no-lines', `The drawing holds no lines or polylines on any layer${what ? ` (it holds ${what})` : ''}. Draw the truss members as lines or polylines and upload again.`);
+    }
+    throw new DxfImportError('no-lines', `There are no lines or polylines on the chosen layer${chosen.length === 1 ? '' : 's'} ${chosen.map((c) => `"${c}"`).join(', ')}. Layers holding lines: ${lineLayers.map((c) => `"${c}"`).join(', ')}; choose from those.`);
+  }
+
+  // ---- explode, in metres
+  const segs = new Growable();
+  const segLayer: number[] = [];
+  const segBulged: number[] = [];
+  const layerIndex = new Map<string, number>();
+  const layerNames: string[] = [];
+  const texts: ExplodedText[] = [];
+  const ignored = new Map<string, { type: string; reason: string; count: number; layers: Set<string>; points: DxfPoint[] }>();
+  const ignore = (type: string, reason: string, layer: string, x: number | null, y: number | null) => {
+    const key = `${type}\u0000${reason}`;
+    let g = ignored.get(key);
+    if (!g) {
+      g = { type, reason, count: 0, layers: new Set(), points: [] };
+      ignored.set(key, g);
+    }
+    g.count++;
+    g.layers.add(layer);
+    if (x !== null && y !== null && Number.isFinite(x) && Number.isFinite(y)) pushLimited(g.points, { x, y });
+  };
+  const bad = (entity: object, layer: string, x1: number, y1: number, x2: number, y2: number) => {
+    const v = [x1, y1, x2, y2];
+    if (v.some((c) => !Number.isFinite(c))) {
+      throw new DxfImportError('bad-coordinate', `The ${describeEntity(entity, layer)} has a coordinate that is not a number. Fix or delete it in your CAD program and upload again.`);
+    }
+    const far = Math.max(...v.map(Math.abs));
+    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(entity, layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
+  };
+  explodeDrawing(dxf, [k, 0, 0, k, 0, 0], {
+    segment(layer, x1, y1, x2, y2, entity, bulged) {
+      if (!chosenSet.has(layer)) return;
+      if (
+        !(Math.abs(x1) <= DXF_MAX_COORDINATE_M && Math.abs(y1) <= DXF_MAX_COORDINATE_M && Math.abs(x2) <= DXF_MAX_COORDINATE_M && Math.abs(y2) <= DXF_MAX_COORDINATE_M)
+      ) {
+        bad(entity, layer, x1, y1, x2, y2);
+      }
+      let li = layerIndex.get(layer);
+      if (li === undefined) {
+        li = layerNames.length;
+        layerNames.push(layer);
+        layerIndex.set(layer, li);
+      }
+      segs.push4(x1, y1, x2, y2);
+      segLayer.push(li);
+      segBulged.push(bulged ? 1 : 0);
+    },
+    text(t) {
+      if (Math.abs(t.x) <= DXF_MAX_COORDINATE_M && Math.abs(t.y) <= DXF_MAX_COORDINATE_M && Number.isFinite(t.height)) texts.push(t);
+      else ignore(t.type, 'no usable position', t.layer, null, null);
+    },
+    entity() {},
+    ignored(type, reason, layer, x, y) {
+      ignore(type, reason, layer, x, y);
+    },
+  });
+  for (const [type, perLayer] of Object.entries(unread)) {
+    for (const [layer, n] of Object.entries(perLayer)) {
+      for (let i = 0; i < n; i++) ignore(type, 'not read by the DXF reader', layer, null, null);
+    }
+  }
+  const n = segs.length / 4;
+  const seg = segs.data.subarray(0, segs.length);
+
+  // ---- extent and tolerance
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (let i = 0; i < seg.length; i += 2) {
+    const x = seg[i];
+    const y = seg[i + 1];
+    if (x < minX) minX = x;
+    if (x > maxX) maxX = x;
+    if (y < minY) minY = y;
+    if (y > maxY) maxY = y;
+  }
+  const diagonal = Math.hypot(maxX - minX, maxY - minY);
+  if (!(diagonal > 0)) {
+    throw new DxfImportError('no-lines', `Every line on the chosen layers has zero length (they all sit at one point). Draw the truss members as lines and upload again.`);
+  }
+  const tolSource: 'default' | 'option' = o.tolerance !== undefined ? 'option' : 'default';
+  const tol = o.tolerance ?? defaultTolerance(diagonal);
+  {
+    const lens: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const L = Math.hypot(seg[4 * i + 2] - seg[4 * i], seg[4 * i + 3] - seg[4 * i + 1]);
+      if (L > 0) lens.push(L);
+    }
+    lens.sort((a, b) => a - b);
+    const typical = lens[lens.length >> 1];
+    if (tolSource === 'option' && tol > typical / 2) {
+      throw new DxfImportError('tolerance-too-large', `The tolerance of ${formatLength(tol)} is more than half the typical member length (${formatLength(typical)}), so it would join joints that should stay apart. Choose a smaller tolerance and import again.`);
+    }
+  }
+  entry({
+    kind: 'tolerance',
+    severity: 'info',
+    count: 1,
+    message:
+      tolSource === 'default'
+        ? `joined endpoints closer than ${formatLength(tol)} (the default: 1/20 000 of the drawing's ${formatLength(diagonal)} diagonal)`
+        : `joined endpoints closer than ${formatLength(tol)}, as chosen`,
+  });
+
+  // ---- heal
+  const h = healSegments(seg, n, tol);
+  const J = h.joints.length / 2;
+  const M = h.members.length / 2;
+
+  // ---- tags, order, ids
+  const order = readingOrder(h.joints, tol);
+  const tagResult = assignTags(h.joints, texts, order, tol);
+  const rank = new Int32Array(J);
+  order.forEach((j, r) => (rank[j] = r));
+  const jointId = (j: number) => `j${rank[j] + 1}`;
+  const joints: Joint[] = Array.from(order, (j, r) => ({ id: `j${r + 1}`, tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] }));
+  const mOrder = Int32Array.from({ length: M }, (_, i) => i).sort((p, q) => {
+    const p1 = Math.min(rank[h.members[2 * p]], rank[h.members[2 * p + 1]]);
+    const q1 = Math.min(rank[h.members[2 * q]], rank[h.members[2 * q + 1]]);
+    if (p1 !== q1) return p1 - q1;
+    return Math.max(rank[h.members[2 * p]], rank[h.members[2 * p + 1]]) - Math.max(rank[h.members[2 * q]], rank[h.members[2 * q + 1]]);
+  });
+  const mRank = new Int32Array(M);
+  mOrder.forEach((i, r) => (mRank[i] = r));
+  const memberId = (i: number) => `m${mRank[i] + 1}`;
+  const members: DxfMember[] = Array.from(mOrder, (i, r) => {
+    let a = h.members[2 * i];
+    let b = h.members[2 * i + 1];
+    if (rank[b] < rank[a]) [a, b] = [b, a];
+    return {
+      id: `m${r + 1}`,
+      tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
+      from: jointId(a),
+      to: jointId(b),
+      layer: layerNames[segLayer[h.memberSource[i]]],
+    };
+  });
+
+  // ---- report
+  const usedLayers = [...new Set(members.map((m) => m.layer))].sort();
+  const perLayer = new Map<string, number>();
+  for (let i = 0; i < n; i++) perLayer.set(layerNames[segLayer[i]], (perLayer.get(layerNames[segLayer[i]]) ?? 0) + 1);
+  const leftOut = lineLayers.filter((l) => !chosenSet.has(l));
+  entry({
+    kind: 'layers',
+    severity: 'info',
+    count: chosen.length,
+    message:
+      `took members from ${chosen.length === 1 ? 'layer' : 'layers'} ${chosen.map((l) => `${l} (${plural(perLayer.get(l) ?? 0, 'segment')})`).join(', ')}` +
+      (leftOut.length ? `; left out ${leftOut.length === 1 ? 'layer' : 'layers'} holding lines: ${leftOut.join(', ')}` : ''),
+    layers: chosen,
+  });
+  const pts = (flat: number[]): DxfPoint[] => {
+    const out: DxfPoint[] = [];
+    for (let i = 0; i + 1 < flat.length && out.length < DXF_REPORT_MAX_LOCATIONS; i += 2) out.push({ x: flat[i], y: flat[i + 1] });
+    return out;
+  };
+  const ids = (list: number[], f: (i: number) => string): string[] => [...new Set(list.slice(0, 4 * DXF_REPORT_MAX_LOCATIONS).map(f))].slice(0, DXF_REPORT_MAX_LOCATIONS);
+  if (h.merged.count > 0) {
+    entry({
+      kind: 'merged-endpoints',
+      severity: 'change',
+      count: h.merged.count,
+      message: `merged ${plural(h.merged.count, 'endpoint')} closer than ${formatLength(tol)} into ${plural(h.merged.joints.length, 'joint')}`,
+      joints: ids(h.merged.joints, jointId),
+      points: h.merged.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).map((j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
+    });
+  }
+  if (h.zeroLength.count > 0) {
+    entry({
+      kind: 'dropped-zero-length',
+      severity: 'change',
+      count: h.zeroLength.count,
+      message: `dropped ${plural(h.zeroLength.count, 'segment')} of zero length (shorter than ${formatLength(tol)})`,
+      points: pts(h.zeroLength.points),
+    });
+  }
+  if (h.duplicates.count > 0) {
+    entry({
+      kind: 'merged-duplicate',
+      severity: 'change',
+      count: h.duplicates.count,
+      message: `merged ${plural(h.duplicates.count, 'duplicate member')} drawn on top of another`,
+      members: ids(h.duplicates.members, memberId),
+      points: pts(h.duplicates.points),
+    });
+  }
+  if (h.splits.members > 0) {
+    entry({
+      kind: 'split-member',
+      severity: 'change',
+      count: h.splits.members,
+      message: `split ${plural(h.splits.members, 'member')} at ${plural(h.splits.cuts, 'joint')} lying on ${h.splits.members === 1 ? 'it' : 'them'}`,
+      joints: ids(h.splits.joints, jointId),
+      members: ids(h.splits.pieces, memberId),
+      points: h.splits.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).map((j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
+    });
+  }
+  if (h.overlaps.count > 0) {
+    entry({
+      kind: 'merged-overlap',
+      severity: 'change',
+      count: h.overlaps.count,
+      message: `merged ${plural(h.overlaps.count, 'overlapping collinear piece')} into the member ${h.overlaps.count === 1 ? 'it overlapped' : 'they overlapped'}`,
+      members: ids(h.overlaps.members, memberId),
+      points: pts(h.overlaps.points),
+    });
+  }
+  if (h.crossings.length > 0) {
+    const c0 = h.crossings[0];
+    const nC = h.crossings.length;
+    entry({
+      kind: 'crossing',
+      severity: 'warning',
+      count: nC,
+      message:
+        nC === 1
+          ? `2 members cross without a joint at ${formatPoint(c0.x, c0.y)}; they were left apart`
+          : `${nC} pairs of members cross without a joint, the first at ${formatPoint(c0.x, c0.y)}; they were left apart`,
+      members: ids(h.crossings.flatMap((c) => [c.a, c.b]), memberId),
+      points: h.crossings.slice(0, DXF_REPORT_MAX_LOCATIONS).map((c) => ({ x: c.x, y: c.y })),
+    });
+  }
+  if (h.dangling.length > 0) {
+    const nD = new Set(h.dangling.map((d) => d.member)).size;
+    entry({
+      kind: 'dangling-member',
+      severity: 'warning',
+      count: nD,
+      message: `${plural(nD, 'member has', 'members have')} an end joined to nothing else`,
+      members: ids(h.dangling.map((d) => d.member), memberId),
+      joints: ids(h.dangling.map((d) => d.joint), jointId),
+      points: h.dangling.slice(0, DXF_REPORT_MAX_LOCATIONS).map((d) => ({ x: h.joints[2 * d.joint], y: h.joints[2 * d.joint + 1] })),
+    });
+  }
+  if (h.pieces.length > 0) {
+    const nP = h.pieces.length;
+    entry({
+      kind: 'isolated-piece',
+      severity: 'warning',
+      count: nP,
+      message: `${plural(nP, 'piece is', 'pieces are')} not connected to the main truss (${plural(h.pieces.reduce((s, p) => s + p.length, 0), 'member')})`,
+      members: ids(h.pieces.flat(), memberId),
+      points: h.pieces.slice(0, DXF_REPORT_MAX_LOCATIONS).map((p) => {
+        let sx = 0;
+        let sy = 0;
+        for (const i of p) {
+          sx += h.joints[2 * h.members[2 * i]] + h.joints[2 * h.members[2 * i + 1]];
+          sy += h.joints[2 * h.members[2 * i] + 1] + h.joints[2 * h.members[2 * i + 1] + 1];
+        }
+        return { x: sx / (2 * p.length), y: sy / (2 * p.length) };
+      }),
+    });
+  }
+  const bulged: DxfPoint[] = [];
+  let nBulged = 0;
+  for (let i = 0; i < n; i++) {
+    if (!segBulged[i]) continue;
+    nBulged++;
+    if (bulged.length < DXF_REPORT_MAX_LOCATIONS) bulged.push({ x: (seg[4 * i] + seg[4 * i + 2]) / 2, y: (seg[4 * i + 1] + seg[4 * i + 3]) / 2 });
+  }
+  if (nBulged > 0) {
+    entry({
+      kind: 'ignored-bulge',
+      severity: 'warning',
+      count: nBulged,
+      message: `took ${plural(nBulged, 'arc segment')} of polylines as straight ${nBulged === 1 ? 'member' : 'members'} between ${nBulged === 1 ? 'its' : 'their'} ends (bulge ignored)`,
+      points: bulged,
+    });
+  }
+  const tagged = tagResult.fromText.length;
+  entry({
+    kind: 'joint-tags',
+    severity: 'info',
+    count: J,
+    message:
+      tagged === 0
+        ? `named ${plural(J, 'joint')} A, B, C, … in reading order (top to bottom, left to right)`
+        : `took ${plural(tagged, 'joint tag')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
+    joints: ids(tagResult.fromText, jointId),
+  });
+  for (const u of tagResult.unused) ignore(u.text.type, u.reason, u.text.layer, u.text.x, u.text.y);
+  const ignoredList = [...ignored.values()].sort((a, b) => (a.type < b.type ? -1 : a.type > b.type ? 1 : a.reason < b.reason ? -1 : 1));
+  for (const g of ignoredList) {
+    const layers = [...g.layers].sort();
+    entry({
+      kind: 'ignored-entity',
+      severity: 'info',
+      count: g.count,
+      message: `ignored ${entityWords(g.type, g.count)} (${g.reason}) on ${layers.length === 1 ? 'layer' : 'layers'} ${layers.join(', ')}`,
+      entityType: g.type,
+      layers,
+      points: g.points,
+    });
+  }
+
+  return {
+    joints,
+    members,
+    units,
+    tolerance: { value: tol, source: tolSource },
+    extent: { minX, minY, maxX, maxY },
+    layers: usedLayers,
+    report,
+  };
+}

@@ -1,0 +1,30 @@
+/**
+ * Drawing import: ASCII DXF line drawings of a truss → joints and members in metres, with a
+ * report of every change healing made. Pure (no I/O, no clock, no console): the server runs it
+ * on upload, the client may run it for previews.
+ *
+ * Typical use:
+ *   const parsed = dxfParseBytes(bytes);          // or dxfParse(text)
+ *   const layers = dxfLayers(parsed);             // for the layer picker
+ *   const result = dxfImport(parsed, { units: 'mm' });
+ * Every refusal is a DxfImportError { code, message }.
+ */
+export { DxfImportError, isDxfImportError } from './errors';
+export type { DxfImportErrorCode } from './errors';
+export { dxfSniff, dxfDecode, dxfParse, dxfParseBytes, dxfAssertKind } from './parse';
+export type { DxfFileKind } from './parse';
+export { dxfLayers } from './layers';
+export { dxfImport, dxfUnitOf } from './import';
+export { dxfLengthUnitSchema, dxfImportOptionsSchema, DXF_REPORT_MAX_LOCATIONS } from './types';
+export type {
+  DxfLengthUnit,
+  DxfImportOptions,
+  DxfPoint,
+  DxfExtent,
+  DxfParsed,
+  DxfLayerInfo,
+  DxfReportKind,
+  DxfReportEntry,
+  DxfMember,
+  DxfImportResult,
+} from './types';

@@ -1,0 +1,123 @@
+import type { ExplodedText } from './explode';
+
+/** Spreadsheet-style names: 0 → A, 25 → Z, 26 → AA, 27 → AB, … */
+export function tagOfIndex(i: number): string {
+  let s = '';
+  let n = i + 1;
+  while (n > 0) {
+    const r = (n - 1) % 26;
+    s = String.fromCharCode(65 + r) + s;
+    n = Math.floor((n - 1) / 26);
+  }
+  return s;
+}
+
+/** Member tag from its joints' tags: "BC" when both are one character, else "AA-B". */
+export function memberTagOf(a: string, b: string): string {
+  return a.length === 1 && b.length === 1 ? a + b : `${a}-${b}`;
+}
+
+/** A text that can name a joint: 1 to 12 visible characters, no spaces. */
+export function isTagLike(s: string): boolean {
+  return s.length >= 1 && s.length <= 12 && /^[^\s]+$/.test(s);
+}
+
+/**
+ * Reading order of joints: rows from top to bottom (a joint within `rowTol` below the row's
+ * top joint belongs to the row), left to right within a row. Returns joint indices.
+ */
+export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
+  const n = xy.length / 2;
+  const byY = Array.from({ length: n }, (_, i) => i).sort((p, q) => xy[2 * q + 1] - xy[2 * p + 1] || xy[2 * p] - xy[2 * q]);
+  const row = new Int32Array(n);
+  let r = -1;
+  let top = Infinity;
+  for (const i of byY) {
+    const y = xy[2 * i + 1];
+    if (y < top - rowTol) {
+      r++;
+      top = y;
+    }
+    row[i] = r;
+  }
+  byY.sort((p, q) => row[p] - row[q] || xy[2 * p] - xy[2 * q] || xy[2 * q + 1] - xy[2 * p + 1]);
+  return Int32Array.from(byY);
+}
+
+export interface TagResult {
+  /** Tag of each joint (by joint index). */
+  tags: string[];
+  /** Joints whose tag came from a text. */
+  fromText: number[];
+  /** Texts not used, with why. */
+  unused: { text: ExplodedText; reason: string }[];
+}
+
+/**
+ * Gives every joint a tag: a tag-like TEXT/MTEXT whose estimated centre lies within
+ * 2.5 text heights plus half its width of a joint names the nearest such joint (closest pairs
+ * first, each text and joint used once, a tag string only once); the other joints get A, B, C,
+ * … in reading order, skipping strings a text already took.
+ */
+export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32Array, tol: number): TagResult {
+  const n = xy.length / 2;
+  const tags: string[] = new Array(n).fill('');
+  const fromText: number[] = [];
+  const unused: TagResult['unused'] = [];
+  // joints sorted by x for range queries
+  const byX = Int32Array.from({ length: n }, (_, i) => i).sort((p, q) => xy[2 * p] - xy[2 * q]);
+  const xs = Float64Array.from(byX, (i) => xy[2 * i]);
+  const pairs: { d: number; t: number; j: number }[] = [];
+  const candidate: boolean[] = [];
+  texts.forEach((t, ti) => {
+    const ok = isTagLike(t.text);
+    candidate.push(ok);
+    if (!ok) return;
+    const w = 0.6 * t.height * t.text.length;
+    const r = Math.max(2.5 * t.height + w / 2, 2 * tol);
+    let lo = 0;
+    let hi = n;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (xs[mid] < t.x - r) lo = mid + 1;
+      else hi = mid;
+    }
+    for (let k = lo; k < n && xs[k] <= t.x + r; k++) {
+      const j = byX[k];
+      const d = Math.hypot(xy[2 * j] - t.x, xy[2 * j + 1] - t.y);
+      if (d <= r) pairs.push({ d, t: ti, j });
+    }
+  });
+  pairs.sort((p, q) => p.d - q.d || p.t - q.t || p.j - q.j);
+  const textUsed = new Uint8Array(texts.length);
+  const used = new Set<string>();
+  const duplicate = new Uint8Array(texts.length);
+  for (const p of pairs) {
+    if (textUsed[p.t] || tags[p.j] !== '') continue;
+    const s = texts[p.t].text;
+    if (used.has(s)) {
+      duplicate[p.t] = 1;
+      continue;
+    }
+    tags[p.j] = s;
+    used.add(s);
+    textUsed[p.t] = 1;
+    fromText.push(p.j);
+  }
+  texts.forEach((t, ti) => {
+    if (textUsed[ti]) return;
+    unused.push({
+      text: t,
+      reason: !candidate[ti] ? 'not a joint tag' : duplicate[ti] ? 'repeats a tag already used' : 'not near a joint',
+    });
+  });
+  let next = 0;
+  for (const j of order) {
+    if (tags[j] !== '') continue;
+    let s = tagOfIndex(next++);
+    while (used.has(s)) s = tagOfIndex(next++);
+    tags[j] = s;
+  }
+  fromText.sort((a, b) => a - b);
+  return { tags, fromText, unused };
+}
