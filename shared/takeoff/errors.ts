@@ -14,6 +14,7 @@ export type TakeoffErrorCode =
   | 'too-few-purlins'
   | 'purlins-out-of-order'
   | 'no-area-loads'
+  | 'missing-load-case'
   | 'duplicate-load-case'
   | 'unknown-basis'
   | 'unknown-method';
