@@ -17,5 +17,6 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: 'forks',
+    globalSetup: ['tests/support/global-setup.ts'],
   },
 });

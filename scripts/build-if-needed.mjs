@@ -22,7 +22,7 @@ function newest(p) {
 const builtAt = fs.existsSync(built) ? fs.statSync(built).mtimeMs : 0;
 if (builtAt > Math.max(...sources.map(newest))) process.exit(0);
 console.log('Building the client…');
-execFileSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'warn'], {
+execFileSync(process.execPath, [path.join(root, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--logLevel', 'error'], {
   cwd: root,
   stdio: 'inherit',
 });
