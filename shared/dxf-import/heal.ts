@@ -269,10 +269,14 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   {
     const grid = gridOfMembers(joints, members, M, mcell, ox, oy, mny);
     const stamp = new Int32Array(M).fill(-1);
+    // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
+    const isEnd = new Uint8Array(J);
+    for (let i = 0; i < 2 * M; i++) isEnd[members[i]] = 1;
     const cutMember: number[] = [];
     const cutT: number[] = [];
     const cutJoint: number[] = [];
     for (let j = 0; j < J; j++) {
+      if (!isEnd[j]) continue;
       const x = joints[2 * j];
       const y = joints[2 * j + 1];
       const gxa = Math.floor((x - tol - ox) / mcell);
@@ -312,7 +316,6 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       for (const i of cutMember) isCut[i] = 1;
       const pieces = new Int32Array(2 * (M + cutMember.length));
       const pieceSource = new Int32Array(M + cutMember.length);
-      const pieceWasCut = new Uint8Array(M + cutMember.length);
       let Q = 0;
       for (let i = 0; i < M; i++) {
         if (isCut[i]) continue;
@@ -334,14 +337,12 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
           pieces[2 * Q] = prev;
           pieces[2 * Q + 1] = j;
           pieceSource[Q] = memberSource[i];
-          pieceWasCut[Q] = 1;
           Q++;
           prev = j;
         }
         pieces[2 * Q] = prev;
         pieces[2 * Q + 1] = members[2 * i + 1];
         pieceSource[Q] = memberSource[i];
-        pieceWasCut[Q] = 1;
         Q++;
         splitPieceRanges.push([firstPiece, Q]);
       }
@@ -371,16 +372,12 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         outSource[K] = pieceSource[q];
         K++;
       }
-      void pieceWasCut;
       for (const [s, e] of splitPieceRanges) for (let q = s; q < e; q++) splits.pieces.push(keep[q]);
       // duplicates found earlier pointed at pre-split members; point them at a surviving piece
       const remap = new Int32Array(M).fill(-1);
       {
         let q = 0;
         for (let i = 0; i < M; i++) if (!isCut[i]) remap[i] = keep[q++];
-        for (const [s] of splitPieceRanges) {
-          void s;
-        }
         let r = 0;
         for (let i = 0; i < M; i++) {
           if (isCut[i]) remap[i] = keep[splitPieceRanges[r++][0]];

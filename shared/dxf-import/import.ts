@@ -114,9 +114,9 @@ function entityWords(type: string, n: number): string {
   return `${n} ${type} ${n === 1 ? 'entity' : 'entities'}`;
 }
 
-/** Default tolerance: 1/20 000 of the diagonal, rounded down to 1, 2 or 5 × 10ⁿ m (common practice, no source). */
+/** Default tolerance: 1/10 000 of the diagonal, rounded down to 1, 2 or 5 × 10ⁿ m (common practice, no source). */
 function defaultTolerance(diagonal: number): number {
-  const raw = diagonal / 20_000;
+  const raw = diagonal / 10_000;
   const p = Math.pow(10, Math.floor(Math.log10(raw)));
   const m = raw / p;
   const nice = m >= 5 ? 5 : m >= 2 ? 2 : 1;
@@ -153,7 +153,7 @@ function pushLimited<T>(list: T[], ...items: T[]): void {
  * taken as straight members and reported 'ignored-bulge') on the chosen layers, exploding
  * INSERTs of blocks (nested, scale, mirroring, rotation, base point, arrays). Converts the
  * drawing's units ($INSUNITS, or `options.units`) to metres, then heals with tolerance
- * `options.tolerance` (m; default 1/20 000 of the drawing's diagonal, rounded to 1-2-5):
+ * `options.tolerance` (m; default 1/10 000 of the drawing's diagonal, rounded to 1-2-5):
  * merges endpoints, drops zero-length segments, merges duplicates and collinear overlaps,
  * splits members at joints on their interior; reports crossings without a joint, dangling
  * members and separate pieces without changing them. Joint tags come from TEXT/MTEXT near a
@@ -335,7 +335,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     count: 1,
     message:
       tolSource === 'default'
-        ? `joined endpoints closer than ${formatLength(tol)} (the default: 1/20 000 of the drawing's ${formatLength(diagonal)} diagonal)`
+        ? `joined endpoints closer than ${formatLength(tol)} (the default: 1/10 000 of the drawing's ${formatLength(diagonal)} diagonal)`
         : `joined endpoints closer than ${formatLength(tol)}, as chosen`,
   });
 
@@ -392,7 +392,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     for (let i = 0; i + 1 < flat.length && out.length < DXF_REPORT_MAX_LOCATIONS; i += 2) out.push({ x: flat[i], y: flat[i + 1] });
     return out;
   };
-  const ids = (list: number[], f: (i: number) => string): string[] => [...new Set(list.slice(0, 4 * DXF_REPORT_MAX_LOCATIONS).map(f))].slice(0, DXF_REPORT_MAX_LOCATIONS);
+  const ids = (list: number[], f: (i: number) => string): string[] =>
+    [...new Set(list.map(f))].sort((a, b) => Number(a.slice(1)) - Number(b.slice(1))).slice(0, DXF_REPORT_MAX_LOCATIONS);
   if (h.merged.count > 0) {
     entry({
       kind: 'merged-endpoints',

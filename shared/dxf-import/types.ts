@@ -9,7 +9,7 @@ export type DxfLengthUnit = z.infer<typeof dxfLengthUnitSchema>;
 
 /**
  * Options of one import run. All optional: the defaults are every layer holding lines, the
- * units of the drawing's $INSUNITS header and a tolerance of 1/20 000 of the drawing's diagonal
+ * units of the drawing's $INSUNITS header and a tolerance of 1/10 000 of the drawing's diagonal
  * rounded down to 1, 2 or 5 × 10ⁿ m. The upload API validates request bodies with this schema.
  */
 export const dxfImportOptionsSchema = z.object({
