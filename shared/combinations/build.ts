@@ -1,0 +1,206 @@
+import type { Combination, LoadCase, LoadCategory } from '@shared/model/truss';
+import { loadCategorySchema } from '@shared/model/truss';
+import { COMBINATION_SET_RULES, type CombinationRule, type CombinationSetId, type RuleTerm } from './sets';
+
+/** Stable codes of the combination builder's errors. */
+export type CombinationErrorCode =
+  | 'unknown-set'
+  | 'duplicate-load-case'
+  | 'unknown-category'
+  | 'missing-case-value'
+  | 'non-finite-value'
+  | 'too-many-combinations';
+
+/** Thrown for input the builder cannot turn into combinations; the message names the case or set. */
+export class CombinationError extends Error {
+  readonly code: CombinationErrorCode;
+  constructor(code: CombinationErrorCode, message: string) {
+    super(message);
+    this.name = 'CombinationError';
+    this.code = code;
+  }
+}
+
+/**
+ * A built-in combination: a model {@link Combination} (name, factors by load-case id, clause)
+ * plus where it came from and a note per factor, so every factor on the calc sheet can be traced
+ * to its clause.
+ */
+export interface CodeCombination extends Combination {
+  clause: string;
+  setId: CombinationSetId;
+  /** The rule of the set, e.g. "3" or "6.10b S-lead". */
+  rule: string;
+  /** The combination as the standard writes it, e.g. "1.2D + 1.6(Lr or S or R) + (L or 0.5W)". */
+  formula: string;
+  /** The factors written out over the case ids, e.g. "1.2 D + 1.6 S1 + 0.5 W1". */
+  expression: string;
+  /** Load case id → why its factor is what it is, with the clause. */
+  factorNotes: Record<string, string>;
+}
+
+/** The most combinations one set may produce before the builder refuses (too many alternatives). */
+export const COMBINATIONS_MAX = 2000;
+
+type CaseRef = Pick<LoadCase, 'id' | 'category'> & Partial<Pick<LoadCase, 'name'>>;
+
+function assertCases(loadCases: readonly CaseRef[]): void {
+  const seen = new Set<string>();
+  for (const c of loadCases) {
+    if (!loadCategorySchema.safeParse(c.category).success) {
+      throw new CombinationError(
+        'unknown-category',
+        `Load case "${c.id}" has category "${String(c.category)}"; use one of ${loadCategorySchema.options.join(', ')}.`,
+      );
+    }
+    if (seen.has(c.id)) {
+      throw new CombinationError('duplicate-load-case', `Load case id "${c.id}" is used twice; give each load case its own id.`);
+    }
+    seen.add(c.id);
+  }
+}
+
+/** Writes a factor without trailing zeros: 1.2, 0.45, 1.1475, 1. */
+function factorText(f: number): string {
+  return String(Math.round(f * 1e6) / 1e6);
+}
+
+interface Choice {
+  caseId: string;
+  term: RuleTerm;
+}
+
+function ruleExpand(rule: CombinationRule, byCategory: Map<LoadCategory, CaseRef[]>): Choice[][] {
+  // Alternatives per group: 'all' is a single alternative with every case; 'one-of' is one
+  // alternative per case of any listed category (or an empty one when none is present).
+  const groups: Choice[][][] = rule.groups.map((group) => {
+    if (group.kind === 'all') {
+      return [(byCategory.get(group.term.category) ?? []).map((c) => ({ caseId: c.id, term: group.term }))];
+    }
+    const alternatives = group.options.flatMap((term) =>
+      (byCategory.get(term.category) ?? []).map((c) => [{ caseId: c.id, term }]),
+    );
+    return alternatives.length > 0 ? alternatives : [[]];
+  });
+  const hasVariable = rule.groups.some(
+    (group, i) => group.kind === 'one-of' && groups[i].some((alternative) => alternative.length > 0),
+  );
+  if (rule.needs === 'variable' && !hasVariable) return [];
+  let combos: Choice[][] = [[]];
+  for (const alternatives of groups) {
+    const next: Choice[][] = [];
+    for (const partial of combos) for (const alternative of alternatives) next.push([...partial, ...alternative]);
+    combos = next;
+    if (combos.length > COMBINATIONS_MAX) {
+      throw new CombinationError(
+        'too-many-combinations',
+        `Rule ${rule.clause} gives more than ${COMBINATIONS_MAX} combinations from these load cases; merge cases that always act together.`,
+      );
+    }
+  }
+  return combos.filter((choices) => choices.length > 0);
+}
+
+const LETTERS = 'abcdefghijklmnopqrstuvwxyz';
+function suffix(i: number): string {
+  return i < 26 ? LETTERS[i] : `${LETTERS[Math.floor(i / 26) - 1]}${LETTERS[i % 26]}`;
+}
+
+/**
+ * Builds the combinations of a built-in set over the given load cases.
+ *
+ * - Dead cases act together, each with the dead-load factor.
+ * - Each case of a variable category (live, roof live, snow, wind) is an alternative: one case
+ *   per category at a time ("Lr or S or R" takes each roof live and snow case in turn). Split a
+ *   variable load into several cases only when they are alternatives (e.g. wind from the left or
+ *   the right); cases that always act together belong in one case.
+ * - A rule whose variable categories have no case is skipped (the permanent-only rules, such as
+ *   1.4D, stay). Wind is taken in the direction its case was entered; no sign reversal is added.
+ * - Cases of category 'other' appear in no built-in combination (see {@link combinationsIgnoredCases}).
+ * - Identical factor sets from different rules are kept once (the first).
+ *
+ * @returns combinations in the order of the standard's rules; names like "LRFD 3a"
+ * @throws CombinationError 'unknown-set', 'duplicate-load-case', 'unknown-category', 'too-many-combinations'
+ */
+export function combinationsBuild(setId: CombinationSetId, loadCases: readonly CaseRef[]): CodeCombination[] {
+  const set = COMBINATION_SET_RULES[setId as CombinationSetId];
+  if (!set) {
+    throw new CombinationError(
+      'unknown-set',
+      `Combination set "${String(setId)}" is unknown; choose one of ${Object.keys(COMBINATION_SET_RULES).join(', ')}.`,
+    );
+  }
+  assertCases(loadCases);
+  const byCategory = new Map<LoadCategory, CaseRef[]>();
+  for (const c of loadCases) byCategory.set(c.category, [...(byCategory.get(c.category) ?? []), c]);
+
+  const result: CodeCombination[] = [];
+  const seen = new Set<string>();
+  for (const rule of set.rules) {
+    const expanded = ruleExpand(rule, byCategory).filter((choices) => {
+      const key = choices
+        .map((x) => `${x.caseId}=${factorText(x.term.factor)}`)
+        .sort()
+        .join('|');
+      if (seen.has(key)) return false;
+      seen.add(key);
+      return true;
+    });
+    expanded.forEach((choices, i) => {
+      const factors: Record<string, number> = {};
+      const factorNotes: Record<string, string> = {};
+      for (const { caseId, term } of choices) {
+        factors[caseId] = term.factor;
+        factorNotes[caseId] = term.note;
+      }
+      result.push({
+        name: `${set.prefix} ${rule.id}${expanded.length > 1 ? suffix(i) : ''}`,
+        factors,
+        clause: rule.clause,
+        setId: set.id,
+        rule: rule.id,
+        formula: rule.formula,
+        expression: choices.map(({ caseId, term }) => `${factorText(term.factor)} ${caseId}`).join(' + '),
+        factorNotes,
+      });
+    });
+  }
+  return result;
+}
+
+/**
+ * Load cases that no combination of the built-in sets uses (category 'other'), with the reason,
+ * so the client can say so instead of dropping them silently.
+ */
+export function combinationsIgnoredCases(loadCases: readonly CaseRef[]): { caseId: string; reason: string }[] {
+  assertCases(loadCases);
+  return loadCases
+    .filter((c) => c.category === 'other')
+    .map((c) => ({
+      caseId: c.id,
+      reason: `Load case "${c.name ?? c.id}" has category 'other', which the built-in sets do not factor; add it to combinations by hand with the factor its standard gives.`,
+    }));
+}
+
+/**
+ * Σ factor × value over a combination's cases: the combined value of any quantity that adds
+ * linearly (a member force in kN, an area load in kPa or psf, …), in the unit of `values`.
+ * @throws CombinationError 'missing-case-value' when a factored case has no value, 'non-finite-value'
+ */
+export function combinationApply(combination: Pick<Combination, 'name' | 'factors'>, values: Readonly<Record<string, number>>): number {
+  let total = 0;
+  for (const [caseId, factor] of Object.entries(combination.factors)) {
+    const value = values[caseId];
+    if (value === undefined) {
+      throw new CombinationError(
+        'missing-case-value',
+        `Combination "${combination.name}" uses load case "${caseId}", which has no value here.`,
+      );
+    }
+    if (!Number.isFinite(value) || !Number.isFinite(factor)) {
+      throw new CombinationError('non-finite-value', `Combination "${combination.name}": case "${caseId}" gives ${factor} × ${value}.`);
+    }
+    total += factor * value;
+  }
+  return total;
+}

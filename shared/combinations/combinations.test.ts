@@ -1,0 +1,210 @@
+import { describe, expect, it } from 'vitest';
+import type { LoadCategory } from '@shared/model/truss';
+import {
+  COMBINATION_SETS,
+  CombinationError,
+  combinationApply,
+  combinationsBuild,
+  combinationsIgnoredCases,
+  type CodeCombination,
+} from './index';
+
+const cases = (...list: Array<[string, LoadCategory]>) => list.map(([id, category]) => ({ id, category }));
+
+/** The largest and smallest combined value, with the combination that gives it. */
+function extremes(combos: CodeCombination[], values: Record<string, number>) {
+  const results = combos.map((c) => ({ name: c.name, value: combinationApply(c, values) }));
+  const max = results.reduce((a, b) => (b.value > a.value ? b : a));
+  const min = results.reduce((a, b) => (b.value < a.value ? b : a));
+  return { results, max, min };
+}
+
+describe('ASCE/SEI 7-16 strength design (LRFD)', () => {
+  // ASCE/SEI 7-16 §2.3.1 (from memory, high confidence):
+  // (1) 1.4D  (2) 1.2D + 1.6L + 0.5(Lr or S or R)  (3) 1.2D + 1.6(Lr or S or R) + (L or 0.5W)
+  // (4) 1.2D + 1.0W + L + 0.5(Lr or S or R)  (5) 0.9D + 1.0W
+  it('when D, L, Lr, S and W are present, then the ten combinations of (1)–(5) are built with their clauses', () => {
+    const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['L', 'live'], ['Lr', 'roof-live'], ['S', 'snow'], ['W', 'wind']));
+    expect(combos.map((c) => [c.name, c.factors])).toEqual([
+      ['LRFD 1', { D: 1.4 }],
+      ['LRFD 2a', { D: 1.2, L: 1.6, Lr: 0.5 }],
+      ['LRFD 2b', { D: 1.2, L: 1.6, S: 0.5 }],
+      ['LRFD 3a', { D: 1.2, Lr: 1.6, L: 1.0 }],
+      ['LRFD 3b', { D: 1.2, Lr: 1.6, W: 0.5 }],
+      ['LRFD 3c', { D: 1.2, S: 1.6, L: 1.0 }],
+      ['LRFD 3d', { D: 1.2, S: 1.6, W: 0.5 }],
+      ['LRFD 4a', { D: 1.2, W: 1.0, L: 1.0, Lr: 0.5 }],
+      ['LRFD 4b', { D: 1.2, W: 1.0, L: 1.0, S: 0.5 }],
+      ['LRFD 5', { D: 0.9, W: 1.0 }],
+    ]);
+    expect(combos[4].clause).toBe('ASCE/SEI 7-16 §2.3.1 (3)');
+    expect(combos[4].expression).toBe('1.2 D + 1.6 Lr + 0.5 W');
+  });
+
+  it('when D = 15, Lr = 20 and S = 25 psf, then 1.2D + 1.6S = 58.0 psf governs', () => {
+    // Worked check from the factors of ASCE/SEI 7-16 §2.3.1: (1) 21.0, (2) 30.5, (3) 58.0 psf.
+    const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['Lr', 'roof-live'], ['S', 'snow']));
+    const { results, max } = extremes(combos, { D: 15, Lr: 20, S: 25 });
+    expect(max.value).toBeCloseTo(58.0, 10);
+    expect(combos.find((c) => c.name === max.name)!.clause).toBe('ASCE/SEI 7-16 §2.3.1 (3)');
+    expect(results.find((r) => r.name === 'LRFD 1')!.value).toBeCloseTo(21.0, 10);
+    expect(Math.max(...results.filter((r) => r.name.startsWith('LRFD 2')).map((r) => r.value))).toBeCloseTo(30.5, 10);
+    // (4) without W or L is 1.2D + 0.5(Lr or S), the same as (2): kept once.
+    expect(combos.filter((c) => c.name.startsWith('LRFD 4'))).toHaveLength(0);
+  });
+
+  it('when D = 15 psf and wind uplift W = −18 psf, then 0.9D + 1.0W = −4.5 psf is the least', () => {
+    // ASCE/SEI 7-16 §2.3.1 (5).
+    const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['W', 'wind']));
+    const { min } = extremes(combos, { D: 15, W: -18 });
+    expect(min.value).toBeCloseTo(-4.5, 10);
+    expect(min.name).toBe('LRFD 5');
+  });
+});
+
+describe('ASCE/SEI 7-16 allowable stress design (ASD)', () => {
+  // ASCE/SEI 7-16 §2.4.1 (from memory, high confidence): (1) D (2) D + L (3) D + (Lr or S or R)
+  // (4) D + 0.75L + 0.75(Lr or S or R) (5) D + 0.6W (6) D + 0.75L + 0.75(0.6W) + 0.75(Lr or S or R)
+  // (7) 0.6D + 0.6W
+  it('when D = 15, Lr = 20 and S = 25 psf, then D + S = 40.0 psf governs and D + 0.75S = 33.75 psf', () => {
+    const combos = combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['Lr', 'roof-live'], ['S', 'snow']));
+    const { results, max } = extremes(combos, { D: 15, Lr: 20, S: 25 });
+    expect(max.value).toBeCloseTo(40.0, 10);
+    expect(combos.find((c) => c.name === max.name)!.clause).toBe('ASCE/SEI 7-16 §2.4.1 (3)');
+    expect(results.find((r) => r.name === 'ASD 4b')!.value).toBeCloseTo(33.75, 10);
+  });
+
+  it('when D = 15 psf and W = −18 psf, then 0.6D + 0.6W = −1.8 psf is the least', () => {
+    const combos = combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['W', 'wind']));
+    const { min } = extremes(combos, { D: 15, W: -18 });
+    expect(min.value).toBeCloseTo(-1.8, 10);
+    expect(combos.find((c) => c.name === min.name)!.clause).toBe('ASCE/SEI 7-16 §2.4.1 (7)');
+  });
+
+  it('when wind accompanies live and snow in (6), then its factor is 0.75 × 0.6 = 0.45 and the note says so', () => {
+    const combos = combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['L', 'live'], ['S', 'snow'], ['W', 'wind']));
+    const six = combos.filter((c) => c.rule === '6');
+    expect(six).toHaveLength(1);
+    expect(six[0].factors).toEqual({ D: 1, L: 0.75, W: 0.45, S: 0.75 });
+    expect(six[0].factorNotes.W).toContain('0.75 × 0.6 = 0.45');
+    expect(six[0].factorNotes.W).toContain('§2.4.1 (6)');
+  });
+});
+
+describe('EN 1990:2002+A1 fundamental combination', () => {
+  // EN 1990 eq. (6.10), (6.10a), (6.10b); Table A1.2(B): γ_G,sup 1.35, γ_Q 1.5, ξ 0.85;
+  // Table A1.1: ψ0 snow (≤ 1000 m) 0.5, wind 0.6 (from memory).
+  const snowAndWind = cases(['G', 'dead'], ['S', 'snow'], ['W', 'wind']);
+  const values = { G: 2.0, S: 1.0, W: 0.5 };
+
+  it('when G = 2.0, S = 1.0 and W = 0.5 kPa by (6.10), then snow leading gives 4.65 kPa and wind leading 4.20 kPa', () => {
+    const combos = combinationsBuild('en1990-6.10', snowAndWind);
+    const value = (rule: string) => combinationApply(combos.find((c) => c.rule === rule)!, values);
+    expect(value('6.10 S-lead')).toBeCloseTo(4.65, 10);
+    expect(value('6.10 W-lead')).toBeCloseTo(4.2, 10);
+    expect(value('6.10 G')).toBeCloseTo(2.7, 10);
+    // Wind uplift with G favourable: γ_G,inf = 1.00.
+    expect(combos.find((c) => c.rule === '6.10 W-lead G-fav')!.factors).toEqual({ G: 1, W: 1.5 });
+  });
+
+  it('when the same loads are combined by (6.10a) and (6.10b), then 3.90, 4.245 and 3.795 kPa result and 4.245 kPa governs', () => {
+    const combos = combinationsBuild('en1990-6.10ab', snowAndWind);
+    const value = (rule: string) => combinationApply(combos.find((c) => c.rule === rule)!, values);
+    expect(value('6.10a')).toBeCloseTo(3.9, 10);
+    expect(value('6.10b S-lead')).toBeCloseTo(4.245, 10);
+    expect(value('6.10b W-lead')).toBeCloseTo(3.795, 10);
+    expect(extremes(combos, values).max.value).toBeCloseTo(4.245, 10);
+    const b = combos.find((c) => c.rule === '6.10b S-lead')!;
+    expect(b.factors.G).toBeCloseTo(0.85 * 1.35, 12);
+    expect(b.factorNotes.G).toContain('ξ');
+    expect(b.factorNotes.W).toContain('ψ0');
+    expect(b.clause).toBe('EN 1990:2002+A1 eq. (6.10b), Table A1.2(B), Table A1.1');
+  });
+
+  it('when roof imposed load H accompanies, then ψ0 = 0 leaves it out; when it leads, snow accompanies at 1.5 × 0.5', () => {
+    const combos = combinationsBuild('en1990-6.10', cases(['G', 'dead'], ['H', 'roof-live'], ['S', 'snow']));
+    expect(combos.find((c) => c.rule === '6.10 S-lead')!.factors).toEqual({ G: 1.35, S: 1.5 });
+    expect(combos.find((c) => c.rule === '6.10 H-lead')!.factors).toEqual({ G: 1.35, H: 1.5, S: 0.75 });
+  });
+});
+
+describe('alternatives, skipping and traceability', () => {
+  it('when only dead load is present, then each set keeps just its permanent-only combination', () => {
+    const dead = cases(['D', 'dead']);
+    expect(combinationsBuild('asce7-16-strength', dead).map((c) => c.expression)).toEqual(['1.4 D']);
+    expect(combinationsBuild('asce7-16-asd', dead).map((c) => c.expression)).toEqual(['1 D']);
+    expect(combinationsBuild('en1990-6.10', dead).map((c) => c.expression)).toEqual(['1.35 D']);
+    expect(combinationsBuild('en1990-6.10ab', dead).map((c) => c.expression)).toEqual(['1.35 D']);
+  });
+
+  it('when there are two dead cases and two wind cases, then the dead cases act together and the wind cases are alternatives', () => {
+    const combos = combinationsBuild('asce7-16-strength', cases(['D1', 'dead'], ['D2', 'dead'], ['WL', 'wind'], ['WR', 'wind']));
+    const five = combos.filter((c) => c.rule === '5');
+    expect(five.map((c) => c.factors)).toEqual([
+      { D1: 0.9, D2: 0.9, WL: 1 },
+      { D1: 0.9, D2: 0.9, WR: 1 },
+    ]);
+    expect(five.map((c) => c.name)).toEqual(['LRFD 5a', 'LRFD 5b']);
+  });
+
+  it('when no dead case exists, then variable-only combinations are still built and 1.4D is skipped', () => {
+    const combos = combinationsBuild('asce7-16-strength', cases(['S', 'snow']));
+    expect(combos.map((c) => c.rule)).toEqual(['2', '3']);
+    expect(combos[1].factors).toEqual({ S: 1.6 });
+  });
+
+  it('when any set is built over all categories, then every factor has a note naming its clause', () => {
+    const all = cases(['D', 'dead'], ['L', 'live'], ['Lr', 'roof-live'], ['S', 'snow'], ['W', 'wind']);
+    for (const set of COMBINATION_SETS) {
+      const combos = combinationsBuild(set.id, all);
+      expect(combos.length).toBeGreaterThan(0);
+      expect(new Set(combos.map((c) => c.name)).size).toBe(combos.length);
+      for (const combo of combos) {
+        for (const caseId of Object.keys(combo.factors)) {
+          expect(combo.factorNotes[caseId]).toMatch(/ASCE\/SEI 7-16 §2\.[34]\.1 \(\d\)|EN 1990 eq\. \(6\.10[ab]?\)/);
+        }
+        expect(combo.name.length).toBeLessThanOrEqual(80);
+      }
+    }
+  });
+
+  it('when the sets are listed, then the ASCE sets say seismic is left out', () => {
+    expect(COMBINATION_SETS.map((s) => s.id)).toEqual(['asce7-16-strength', 'asce7-16-asd', 'en1990-6.10', 'en1990-6.10ab']);
+    for (const set of COMBINATION_SETS.filter((s) => s.id.startsWith('asce'))) {
+      expect(set.notes.join(' ')).toMatch(/Seismic combinations are not included/);
+    }
+  });
+
+  it("when a case has category 'other', then no built-in combination uses it and it is reported", () => {
+    const list = cases(['D', 'dead'], ['X', 'other']);
+    const combos = combinationsBuild('asce7-16-strength', list);
+    expect(combos.some((c) => 'X' in c.factors)).toBe(false);
+    expect(combinationsIgnoredCases(list)).toEqual([{ caseId: 'X', reason: expect.stringContaining("category 'other'") }]);
+  });
+});
+
+describe('bad input', () => {
+  it('when the set id is unknown, then an unknown-set error lists the sets', () => {
+    expect(() => combinationsBuild('asce7-22' as never, [])).toThrowError(/asce7-16-strength/);
+  });
+
+  it('when two cases share an id, then a duplicate-load-case error names it', () => {
+    try {
+      combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['D', 'snow']));
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(CombinationError);
+      expect((error as CombinationError).code).toBe('duplicate-load-case');
+      expect((error as CombinationError).message).toContain('"D"');
+    }
+  });
+
+  it('when a category is unknown, then an unknown-category error names the case', () => {
+    expect(() => combinationsBuild('en1990-6.10', [{ id: 'E', category: 'seismic' as never }])).toThrowError(/Load case "E"/);
+  });
+
+  it('when a combination is applied without a value for one of its cases, then the case is named', () => {
+    expect(() => combinationApply({ name: 'LRFD 1', factors: { D: 1.4 } }, {})).toThrowError(/"D"/);
+    expect(() => combinationApply({ name: 'LRFD 1', factors: { D: 1.4 } }, { D: Number.NaN })).toThrowError(CombinationError);
+  });
+});

@@ -1,0 +1,17 @@
+export {
+  COMBINATIONS_MAX,
+  CombinationError,
+  combinationApply,
+  combinationsBuild,
+  combinationsIgnoredCases,
+} from './build';
+export type { CodeCombination, CombinationErrorCode } from './build';
+export { COMBINATION_SETS, COMBINATION_SET_RULES } from './sets';
+export type {
+  CombinationRule,
+  CombinationSet,
+  CombinationSetId,
+  CombinationSetInfo,
+  RuleGroup,
+  RuleTerm,
+} from './sets';
