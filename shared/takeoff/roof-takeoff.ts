@@ -148,6 +148,12 @@ function spansFrom(input: RoofTakeoffInput): number[] {
 }
 
 function purlinJointsFrom(input: RoofTakeoffInput): Joint[] {
+  if (!Array.isArray(input.joints) || !Array.isArray(input.topChordJoints)) {
+    throw new TakeoffError('unknown-joint', 'The takeoff needs the truss joints and the list of top-chord joints; pick the top chord on the drawing.');
+  }
+  if (input.purlinJoints !== undefined && !Array.isArray(input.purlinJoints)) {
+    throw new TakeoffError('too-few-purlins', 'The purlin joints must be a list of joint ids in order along the roof.');
+  }
   const byId = new Map<string, Joint>();
   for (const joint of input.joints) {
     assertFinite(joint.x, `The x coordinate of joint ${joint.tag}`);
