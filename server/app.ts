@@ -16,6 +16,9 @@ import { usersRoutes } from './modules/users/users.routes';
 import { firmRoutes } from './modules/firm/firm.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { projectsRoutes } from './modules/projects/projects.routes';
+import { drawingsRoutes } from './modules/drawings/drawings.routes';
+import { modelsRoutes } from './modules/models/models.routes';
+import { localFileStore } from './storage/file-store';
 
 export interface AppDeps {
   config: Config;
@@ -83,6 +86,9 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));
   app.use('/api', projectsRoutes(registry));
+  const uploads = localFileStore(config.uploadsDir);
+  app.use('/api', drawingsRoutes(registry, { store: uploads, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
+  app.use('/api', modelsRoutes(registry));
   app.use('/api', notFoundHandler);
 
   if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {

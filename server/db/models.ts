@@ -66,6 +66,38 @@ export class Truss extends Model<InferAttributes<Truss>, InferCreationAttributes
   declare updatedAt: CreationOptional<Date>;
 }
 
+export class Drawing extends Model<InferAttributes<Drawing>, InferCreationAttributes<Drawing>> {
+  declare id: CreationOptional<number>;
+  declare trussId: number;
+  declare version: number;
+  declare originalName: string;
+  declare storedName: string;
+  declare size: number;
+  declare sha256: string;
+  declare status: 'imported' | 'failed';
+  /** JSON texts. */
+  declare options: string;
+  declare layers: string;
+  declare result: string | null;
+  declare error: string | null;
+  declare uploadedById: number | null;
+  declare importedAt: Date;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class TrussModelRecord extends Model<InferAttributes<TrussModelRecord>, InferCreationAttributes<TrussModelRecord>> {
+  declare trussId: number;
+  declare drawingId: number | null;
+  /** JSON of the TrussModel. */
+  declare model: string;
+  declare takeoff: string | null;
+  declare version: CreationOptional<number>;
+  declare updatedById: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 const timestamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
 
 /** Binds the models to a connection. Tables come from the migrations, never from sync(). */
@@ -139,5 +171,37 @@ export function initModels(sequelize: Sequelize): void {
       ...timestamps,
     },
     { sequelize, tableName: 'trusses' },
+  );
+  Drawing.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      trussId: { type: DataTypes.INTEGER, allowNull: false },
+      version: { type: DataTypes.INTEGER, allowNull: false },
+      originalName: { type: DataTypes.STRING(255), allowNull: false },
+      storedName: { type: DataTypes.STRING(80), allowNull: false },
+      size: { type: DataTypes.INTEGER, allowNull: false },
+      sha256: { type: DataTypes.STRING(64), allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false },
+      options: { type: DataTypes.TEXT, allowNull: false },
+      layers: { type: DataTypes.TEXT, allowNull: false },
+      result: { type: DataTypes.TEXT, allowNull: true },
+      error: { type: DataTypes.TEXT, allowNull: true },
+      uploadedById: { type: DataTypes.INTEGER, allowNull: true },
+      importedAt: { type: DataTypes.DATE, allowNull: false },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'drawings' },
+  );
+  TrussModelRecord.init(
+    {
+      trussId: { type: DataTypes.INTEGER, primaryKey: true },
+      drawingId: { type: DataTypes.INTEGER, allowNull: true },
+      model: { type: DataTypes.TEXT, allowNull: false },
+      takeoff: { type: DataTypes.TEXT, allowNull: true },
+      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      updatedById: { type: DataTypes.INTEGER, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'truss_models' },
   );
 }

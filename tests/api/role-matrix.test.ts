@@ -30,6 +30,13 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/projects/:id/trusses': ALL,
   'POST /api/projects/:id/trusses': ['drafter', 'engineer', 'admin'],
   'GET /api/trusses/:id': ALL,
+  'GET /api/trusses/:id/drawings': ALL,
+  'POST /api/trusses/:id/drawings': ['drafter', 'engineer'],
+  'GET /api/drawings/:id': ALL,
+  'POST /api/drawings/:id/reimport': ['drafter', 'engineer'],
+  'GET /api/drawings/:id/file': ALL,
+  'GET /api/trusses/:id/model': ALL,
+  'PUT /api/trusses/:id/model': ['engineer'],
 };
 
 let services: Services;

@@ -1,3 +1,6 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import request from 'supertest';
 import type { Express } from 'express';
 import { loadConfig, type Config } from '../../server/config';
@@ -11,6 +14,7 @@ export async function startTestServices(overrides: Partial<Config> = {}): Promis
     databaseStorage: ':memory:',
     bcryptRounds: 4,
     publicUrl: 'http://panelpoint.test',
+    uploadsDir: fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-uploads-')),
     ...overrides,
   };
   return startServices(config, { log: () => {} });

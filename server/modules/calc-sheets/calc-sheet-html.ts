@@ -1,0 +1,48 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import Handlebars from 'handlebars';
+import type { CalcSheetView } from './calc-sheet-view';
+import { sheetAssets, TEMPLATES_DIR } from './sheet-assets';
+import { forceLegendSvg } from './truss-svg';
+
+/**
+ * Turns a calc sheet view into one self-contained HTML document (fonts and styles inlined). The
+ * same document is the in-app preview and what Chromium prints to PDF.
+ */
+
+/** Escapes a string for a CSS string literal in double quotes (title block in the page margins). */
+export function cssString(value: unknown): string {
+  return String(value ?? '')
+    .replace(/\\/g, '\\\\')
+    .replace(/"/g, '\\"')
+    .replace(/[\r\n]+/g, ' ')
+    .replace(/</g, '\\3C ');
+}
+
+type Render = (context: unknown) => string;
+let compiled: Render | null = null;
+
+function compile(): Render {
+  const hb = Handlebars.create();
+  hb.registerHelper('eq', (a: unknown, b: unknown) => a === b);
+  hb.registerHelper('gt', (a: number, b: number) => a > b);
+  hb.registerHelper('cssString', (v: unknown) => new hb.SafeString(cssString(v)));
+  const dir = path.join(TEMPLATES_DIR, 'partials');
+  for (const file of fs.readdirSync(dir)) {
+    if (!file.endsWith('.hbs')) continue;
+    hb.registerPartial(file.slice(0, -4), fs.readFileSync(path.join(dir, file), 'utf8'));
+  }
+  const main = fs.readFileSync(path.join(TEMPLATES_DIR, 'calc-sheet.hbs'), 'utf8');
+  return hb.compile(main, { strict: false, noEscape: false });
+}
+
+/** The full HTML document of a calc sheet. */
+export function renderCalcSheetHtml(view: CalcSheetView): string {
+  if (!compiled) compiled = compile();
+  return compiled({ ...view, assets: sheetAssets(), legendSvg: forceLegendSvg() });
+}
+
+/** Forgets the compiled templates (after editing them in development). */
+export function calcSheetTemplatesReset(): void {
+  compiled = null;
+}

@@ -1,0 +1,420 @@
+import type { JointLoad, TrussModel } from '@shared/model/truss';
+import type { JointForce, JointStep } from '@shared/solver';
+
+/**
+ * SVG drawings for the calc sheet: the truss with tags and dimensions, the loads of a case, the
+ * member force diagram, and a small free-body diagram per joint. Pure string building (no DOM).
+ *
+ * Model coordinates are metres, y up; drawings use a 1000-unit-wide view box, y down, and scale
+ * to the width of the page. Tension, compression and zero force are told apart by colour, line
+ * style and a written (T)/(C), so a grey-scale print loses nothing.
+ */
+
+/** Panelpoint's force colours (DESIGN.md "Look"): teal tension, amber compression, grey zero. */
+export const FORCE_STYLE = {
+  tension: { stroke: '#0f766e', ink: '#0b5a54', width: 3.2, dash: '' },
+  compression: { stroke: '#c2780a', ink: '#8a5200', width: 3.2, dash: '9 5' },
+  zero: { stroke: '#9aa1a8', ink: '#6b7178', width: 1.4, dash: '1.5 4' },
+} as const;
+
+const INK = '#23272b';
+const FAINT = '#8b9197';
+const VIEW_W = 1000;
+
+/** Escapes text for SVG content and attribute values. */
+export function svgEscape(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
+}
+
+const f1 = (v: number) => (Math.round(v * 10) / 10).toString();
+
+interface Frame {
+  /** Model → view. */
+  x(mx: number): number;
+  y(my: number): number;
+  scale: number;
+  width: number;
+  height: number;
+}
+
+interface Extent {
+  minX: number;
+  maxX: number;
+  minY: number;
+  maxY: number;
+}
+
+function extentOf(model: TrussModel): Extent {
+  const xs = model.joints.map((j) => j.x);
+  const ys = model.joints.map((j) => j.y);
+  return { minX: Math.min(...xs), maxX: Math.max(...xs), minY: Math.min(...ys), maxY: Math.max(...ys) };
+}
+
+/**
+ * Fits the model into the view box with room for labels and dimensions around it.
+ * `pad` = [top, right, bottom, left] in view units; `maxH` caps the drawing height so a tall
+ * truss does not take a whole page.
+ */
+function frameFit(ext: Extent, pad: [number, number, number, number], maxH: number): Frame {
+  const spanX = Math.max(ext.maxX - ext.minX, 1e-9);
+  const spanY = Math.max(ext.maxY - ext.minY, 1e-9);
+  const innerW = VIEW_W - pad[1] - pad[3];
+  let scale = innerW / spanX;
+  if (spanY * scale > maxH) scale = maxH / spanY;
+  if (ext.maxX - ext.minX < 1e-9) scale = maxH / spanY;
+  const drawnW = spanX * scale;
+  const offsetX = pad[3] + (innerW - drawnW) / 2;
+  const height = pad[0] + spanY * scale + pad[2];
+  return {
+    x: (mx) => offsetX + (mx - ext.minX) * scale,
+    y: (my) => pad[0] + (ext.maxY - my) * scale,
+    scale,
+    width: VIEW_W,
+    height,
+  };
+}
+
+function svgOpen(frame: Frame, label: string, cls: string): string {
+  return (
+    `<svg class="${cls}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${VIEW_W} ${f1(frame.height)}" ` +
+    `role="img" aria-label="${svgEscape(label)}" font-family="Inter, sans-serif">`
+  );
+}
+
+function haloText(x: number, y: number, text: string, attrs: string): string {
+  return `<text x="${f1(x)}" y="${f1(y)}" ${attrs} paint-order="stroke" stroke="#fff" stroke-width="4" stroke-linejoin="round">${svgEscape(text)}</text>`;
+}
+
+/** Direction (unit, model axes) pointing away from the members at a joint: where its tag goes. */
+function openDirection(model: TrussModel, jointId: string): [number, number] {
+  const j = model.joints.find((p) => p.id === jointId);
+  if (!j) return [0, 1];
+  let sx = 0;
+  let sy = 0;
+  for (const m of model.members) {
+    const other = m.from === jointId ? m.to : m.to === jointId ? m.from : null;
+    if (!other) continue;
+    const o = model.joints.find((p) => p.id === other);
+    if (!o) continue;
+    const L = Math.hypot(o.x - j.x, o.y - j.y) || 1;
+    sx += (o.x - j.x) / L;
+    sy += (o.y - j.y) / L;
+  }
+  const L = Math.hypot(sx, sy);
+  if (L < 1e-6) return [0.6, 0.8];
+  return [-sx / L, -sy / L];
+}
+
+function supportSymbol(frame: Frame, x: number, y: number, kind: 'pin' | 'roller', angleDeg: number): string {
+  // Drawn with the reaction pointing up (toward the joint), then turned to the reaction line.
+  const rot = -(angleDeg - 90);
+  const s = 13;
+  const parts = [`<path d="M0 0 L${-s} ${s * 1.45} L${s} ${s * 1.45} Z" fill="#fff" stroke="${INK}" stroke-width="1.6"/>`];
+  let base = s * 1.45;
+  if (kind === 'roller') {
+    parts.push(
+      `<circle cx="${-s * 0.55}" cy="${base + 4.5}" r="4" fill="#fff" stroke="${INK}" stroke-width="1.4"/>`,
+      `<circle cx="${s * 0.55}" cy="${base + 4.5}" r="4" fill="#fff" stroke="${INK}" stroke-width="1.4"/>`,
+    );
+    base += 9;
+  }
+  parts.push(`<line x1="${-s * 1.5}" y1="${base}" x2="${s * 1.5}" y2="${base}" stroke="${INK}" stroke-width="1.6"/>`);
+  for (let i = -3; i <= 2; i++) {
+    const hx = i * s * 0.45 + s * 0.2;
+    parts.push(`<line x1="${f1(hx)}" y1="${f1(base)}" x2="${f1(hx - 6)}" y2="${f1(base + 6)}" stroke="${FAINT}" stroke-width="1"/>`);
+  }
+  void frame;
+  return `<g transform="translate(${f1(x)} ${f1(y)}) rotate(${f1(rot)})">${parts.join('')}</g>`;
+}
+
+function distinctSorted(values: number[], tol: number): number[] {
+  const sorted = [...values].sort((a, b) => a - b);
+  const out: number[] = [];
+  for (const v of sorted) if (!out.length || v - out[out.length - 1] > tol) out.push(v);
+  return out;
+}
+
+/** A horizontal dimension line with tick marks and the length written above it. */
+function dimH(x1: number, x2: number, y: number, text: string, size: number): string {
+  const t = (x: number) => `<line x1="${f1(x - 4)}" y1="${f1(y + 4)}" x2="${f1(x + 4)}" y2="${f1(y - 4)}" stroke="${INK}" stroke-width="1.3"/>`;
+  const fits = Math.abs(x2 - x1) > text.length * size * 0.55 + 6;
+  const label = fits ? `<text x="${f1((x1 + x2) / 2)}" y="${f1(y - 5)}" text-anchor="middle" font-size="${size}" fill="${INK}" class="tnum">${svgEscape(text)}</text>` : '';
+  return `<line x1="${f1(x1)}" y1="${f1(y)}" x2="${f1(x2)}" y2="${f1(y)}" stroke="${INK}" stroke-width="0.9"/>${t(x1)}${t(x2)}${label}`;
+}
+
+/** A vertical dimension line with the length written beside it, turned. */
+function dimV(y1: number, y2: number, x: number, text: string, size: number): string {
+  const t = (y: number) => `<line x1="${f1(x - 4)}" y1="${f1(y + 4)}" x2="${f1(x + 4)}" y2="${f1(y - 4)}" stroke="${INK}" stroke-width="1.3"/>`;
+  const fits = Math.abs(y2 - y1) > text.length * size * 0.55 + 6;
+  const cy = (y1 + y2) / 2;
+  const label = fits ? `<text x="${f1(x + 6)}" y="${f1(cy)}" transform="rotate(-90 ${f1(x + 6)} ${f1(cy)})" text-anchor="middle" dy="${f1(size * 0.75)}" font-size="${size}" fill="${INK}" class="tnum">${svgEscape(text)}</text>` : '';
+  return `<line x1="${f1(x)}" y1="${f1(y1)}" x2="${f1(x)}" y2="${f1(y2)}" stroke="${INK}" stroke-width="0.9"/>${t(y1)}${t(y2)}${label}`;
+}
+
+function arrowHead(x: number, y: number, ux: number, uy: number, size: number, fill: string): string {
+  // Tip at (x, y) pointing along (ux, uy) in view axes.
+  const px = -uy;
+  const py = ux;
+  const bx = x - ux * size;
+  const by = y - uy * size;
+  return `<path d="M${f1(x)} ${f1(y)} L${f1(bx + px * size * 0.38)} ${f1(by + py * size * 0.38)} L${f1(bx - px * size * 0.38)} ${f1(by - py * size * 0.38)} Z" fill="${fill}"/>`;
+}
+
+/** Options for {@link trussGeometrySvg}. */
+export interface GeometrySvgOptions {
+  /** Writes a length given in metres, with its unit. */
+  formatLength: (metres: number) => string;
+  /** Writes a force given in kN, with its unit. */
+  formatForce: (kN: number) => string;
+  /** Joint loads to draw as arrows (kN, +y up); omit for the bare geometry. */
+  loads?: JointLoad[];
+  /** Draw the dimension chains (default true). */
+  dimensions?: boolean;
+  /** Draw member tags (default true; off for a loading diagram). */
+  memberTags?: boolean;
+  label: string;
+}
+
+/**
+ * The truss with joint and member tags, support symbols, dimension chains (distinct joint x
+ * below, distinct joint y at the right, each with the overall size) and, when given, load
+ * arrows with their values.
+ */
+export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions): string {
+  const ext = extentOf(model);
+  const dims = options.dimensions ?? true;
+  const loads = (options.loads ?? []).filter((l) => Math.hypot(l.fx, l.fy) > 1e-12);
+  const many = model.joints.length > 60;
+  const font = many ? 11 : 15;
+  const top = loads.length ? 78 : 34;
+  const frame = frameFit(ext, [top, dims ? 96 : 40, dims ? 112 : 56, 46], 380);
+  const byId = new Map(model.joints.map((j) => [j.id, j]));
+  const out: string[] = [svgOpen(frame, options.label, 'truss-drawing')];
+
+  for (const m of model.members) {
+    const a = byId.get(m.from);
+    const b = byId.get(m.to);
+    if (!a || !b) continue;
+    out.push(`<line x1="${f1(frame.x(a.x))}" y1="${f1(frame.y(a.y))}" x2="${f1(frame.x(b.x))}" y2="${f1(frame.y(b.y))}" stroke="${INK}" stroke-width="2.4" stroke-linecap="round"/>`);
+  }
+  for (const sp of model.supports) {
+    const j = byId.get(sp.joint);
+    if (!j) continue;
+    out.push(supportSymbol(frame, frame.x(j.x), frame.y(j.y), sp.kind, sp.kind === 'roller' ? sp.angleDeg : 90));
+  }
+  if (options.memberTags ?? true) {
+    for (const m of model.members) {
+      const a = byId.get(m.from);
+      const b = byId.get(m.to);
+      if (!a || !b) continue;
+      out.push(haloText(frame.x((a.x + b.x) / 2), frame.y((a.y + b.y) / 2) + font * 0.35, m.tag, `text-anchor="middle" font-size="${font * 0.82}" font-style="italic" fill="#0b5a54"`));
+    }
+  }
+  for (const j of model.joints) {
+    const [ox, oy] = openDirection(model, j.id);
+    const cx = frame.x(j.x);
+    const cy = frame.y(j.y);
+    out.push(`<circle cx="${f1(cx)}" cy="${f1(cy)}" r="${many ? 2.6 : 3.8}" fill="#fff" stroke="${INK}" stroke-width="1.6"/>`);
+    const supported = model.supports.some((s) => s.joint === j.id);
+    const dx = ox * (font + 2);
+    const dy = supported && oy < 0.3 ? -(font + 4) : -oy * (font + 2);
+    const anchor = Math.abs(dx) < font * 0.4 ? 'middle' : dx > 0 ? 'start' : 'end';
+    out.push(haloText(cx + dx, cy + dy + font * 0.35, j.tag, `text-anchor="${anchor}" font-size="${font}" font-weight="600" fill="${INK}"`));
+  }
+
+  if (loads.length) {
+    const maxLoad = Math.max(...loads.map((l) => Math.hypot(l.fx, l.fy)));
+    for (const l of loads) {
+      const j = byId.get(l.joint);
+      if (!j) continue;
+      const mag = Math.hypot(l.fx, l.fy);
+      const ux = l.fx / mag;
+      const uy = -l.fy / mag; // view axes
+      const len = 26 + 34 * (mag / maxLoad);
+      const tipX = frame.x(j.x) - ux * 6;
+      const tipY = frame.y(j.y) - uy * 6;
+      const tailX = tipX - ux * len;
+      const tailY = tipY - uy * len;
+      out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - ux * 8)}" y2="${f1(tipY - uy * 8)}" stroke="#1d4ed8" stroke-width="1.8"/>`);
+      out.push(arrowHead(tipX, tipY, ux, uy, 10, '#1d4ed8'));
+      out.push(haloText(tailX - ux * 4, tailY - uy * 4 - 3, options.formatForce(mag), `text-anchor="middle" font-size="${font * 0.8}" fill="#1d4ed8" class="tnum"`));
+    }
+  }
+
+  if (dims) {
+    const tol = 5e-4;
+    const xs = distinctSorted(model.joints.map((j) => j.x), tol);
+    const ys = distinctSorted(model.joints.map((j) => j.y), tol);
+    const base = frame.y(ext.minY) + 58;
+    const right = frame.x(ext.maxX) + 46;
+    const size = font * 0.78;
+    if (xs.length > 2 && xs.length <= 24) {
+      for (let i = 0; i + 1 < xs.length; i++) out.push(dimH(frame.x(xs[i]), frame.x(xs[i + 1]), base, options.formatLength(xs[i + 1] - xs[i]), size));
+    }
+    const overallY = xs.length > 2 && xs.length <= 24 ? base + 30 : base;
+    if (xs.length >= 2) out.push(dimH(frame.x(xs[0]), frame.x(xs[xs.length - 1]), overallY, options.formatLength(ext.maxX - ext.minX), size));
+    if (ys.length > 2 && ys.length <= 12) {
+      for (let i = 0; i + 1 < ys.length; i++) out.push(dimV(frame.y(ys[i]), frame.y(ys[i + 1]), right, options.formatLength(ys[i + 1] - ys[i]), size));
+    }
+    const overallX = ys.length > 2 && ys.length <= 12 ? right + 30 : right;
+    if (ys.length >= 2) out.push(dimV(frame.y(ys[0]), frame.y(ys[ys.length - 1]), overallX, options.formatLength(ext.maxY - ext.minY), size));
+  }
+  out.push('</svg>');
+  return out.join('');
+}
+
+/** Sense of a member force for drawing, with a tolerance relative to the largest force. */
+export function forceSenseOf(value: number, tolerance: number): 'T' | 'C' | '0' {
+  if (Math.abs(value) <= tolerance) return '0';
+  return value > 0 ? 'T' : 'C';
+}
+
+/** Options for {@link forceDiagramSvg}. */
+export interface ForceDiagramOptions {
+  /** Writes a force magnitude given in kN, without sign, with its unit or not. */
+  formatMagnitude: (kN: number) => string;
+  label: string;
+  /** |force| at or below this counts as zero, kN. */
+  zeroTolerance: number;
+}
+
+/**
+ * The member force diagram: tension teal solid, compression amber dashed, zero-force thin grey
+ * dotted; each member labelled with its magnitude and T or C (0 for zero-force).
+ */
+export function forceDiagramSvg(model: TrussModel, forces: Record<string, number>, options: ForceDiagramOptions): string {
+  const ext = extentOf(model);
+  const many = model.members.length > 120;
+  const font = many ? 9.5 : 13.5;
+  const frame = frameFit(ext, [30, 40, 40, 40], 400);
+  const byId = new Map(model.joints.map((j) => [j.id, j]));
+  const out: string[] = [svgOpen(frame, options.label, 'force-diagram')];
+  const labels: string[] = [];
+  for (const m of model.members) {
+    const a = byId.get(m.from);
+    const b = byId.get(m.to);
+    if (!a || !b) continue;
+    const v = forces[m.id] ?? 0;
+    const sense = forceSenseOf(v, options.zeroTolerance);
+    const st = sense === 'T' ? FORCE_STYLE.tension : sense === 'C' ? FORCE_STYLE.compression : FORCE_STYLE.zero;
+    const dash = st.dash ? ` stroke-dasharray="${st.dash}"` : '';
+    out.push(
+      `<line x1="${f1(frame.x(a.x))}" y1="${f1(frame.y(a.y))}" x2="${f1(frame.x(b.x))}" y2="${f1(frame.y(b.y))}" stroke="${st.stroke}" stroke-width="${st.width}"${dash} stroke-linecap="${sense === '0' ? 'round' : 'butt'}"/>`,
+    );
+    const text = sense === '0' ? '0' : `${options.formatMagnitude(Math.abs(v))} ${sense}`;
+    labels.push(haloText(frame.x((a.x + b.x) / 2), frame.y((a.y + b.y) / 2) + font * 0.35, text, `text-anchor="middle" font-size="${font}" font-weight="600" fill="${st.ink}" class="tnum"`));
+  }
+  for (const j of model.joints) out.push(`<circle cx="${f1(frame.x(j.x))}" cy="${f1(frame.y(j.y))}" r="2.4" fill="${INK}"/>`);
+  out.push(...labels, '</svg>');
+  return out.join('');
+}
+
+/** The legend strip under a force diagram (also a small SVG, same styles). */
+export function forceLegendSvg(): string {
+  const item = (x: number, st: (typeof FORCE_STYLE)[keyof typeof FORCE_STYLE], text: string) => {
+    const dash = st.dash ? ` stroke-dasharray="${st.dash}"` : '';
+    return `<line x1="${x}" y1="14" x2="${x + 46}" y2="14" stroke="${st.stroke}" stroke-width="${st.width}"${dash}/><text x="${x + 56}" y="18.5" font-size="13" fill="${st.ink}">${svgEscape(text)}</text>`;
+  };
+  return (
+    `<svg class="force-legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 1000 28" font-family="Inter, sans-serif" role="img" aria-label="Legend">` +
+    item(0, FORCE_STYLE.tension, 'Tension (T), solid') +
+    item(300, FORCE_STYLE.compression, 'Compression (C), dashed') +
+    item(640, FORCE_STYLE.zero, 'Zero force (0), dotted') +
+    '</svg>'
+  );
+}
+
+/** Options for {@link jointFbdSvg}. */
+export interface JointFbdOptions {
+  /** Writes a force magnitude in kN with its unit. */
+  formatForce: (kN: number) => string;
+  zeroTolerance: number;
+}
+
+function forceLabel(f: JointForce, kind: 'member' | 'other', fmt: (kN: number) => string, tol: number): string {
+  const name = f.ref.type === 'member' ? f.label : f.label;
+  if (f.value === null) return kind === 'member' ? `${name} = ?` : `${name} = ?`;
+  if (kind === 'member') {
+    const s = forceSenseOf(f.value, tol);
+    return s === '0' ? `${name} = 0` : `${name} = ${fmt(Math.abs(f.value))} (${s})`;
+  }
+  return `${name} = ${fmt(Math.abs(f.value))}`;
+}
+
+/**
+ * A joint's free-body diagram: the joint, a stub of each member with its force arrow (unknowns
+ * drawn as tension, away from the joint; known forces in their actual sense), and loads and
+ * reactions as arrows onto the joint, each labelled.
+ */
+export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
+  const W = 360;
+  const H = 250;
+  const cx = W / 2;
+  const cy = H / 2;
+  const out: string[] = [
+    `<svg class="fbd" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" role="img" aria-label="${svgEscape(`Free-body diagram of joint ${step.jointTag}`)}" font-family="Inter, sans-serif">`,
+  ];
+  const all: { f: JointForce; unknown: boolean }[] = [
+    ...step.known.map((f) => ({ f, unknown: false })),
+    ...step.unknowns.map((f) => ({ f, unknown: true })),
+  ];
+  const labels: string[] = [];
+  const used: [number, number][] = [];
+  const place = (x: number, y: number): [number, number] => {
+    let py = y;
+    for (let k = 0; k < 6; k++) {
+      if (!used.some(([ux, uy]) => Math.abs(ux - x) < 70 && Math.abs(uy - py) < 13)) break;
+      py += 13;
+    }
+    used.push([x, py]);
+    return [x, py];
+  };
+  for (const { f, unknown } of all) {
+    const ux = f.cx;
+    const uy = -f.cy; // view axes
+    if (Math.hypot(ux, uy) < 1e-9) continue;
+    if (f.ref.type === 'member') {
+      const len = 78;
+      const ex = cx + ux * len;
+      const ey = cy + uy * len;
+      out.push(`<line x1="${cx}" y1="${cy}" x2="${f1(ex)}" y2="${f1(ey)}" stroke="#d5d9dd" stroke-width="9" stroke-linecap="butt"/>`);
+      const s = f.value === null ? 'T' : forceSenseOf(f.value, options.zeroTolerance);
+      const st = unknown ? { stroke: INK, ink: INK, dash: '' } : s === 'T' ? FORCE_STYLE.tension : s === 'C' ? FORCE_STYLE.compression : FORCE_STYLE.zero;
+      const a0 = 16;
+      const a1 = 64;
+      if (s === '0') {
+        out.push(`<line x1="${f1(cx + ux * a0)}" y1="${f1(cy + uy * a0)}" x2="${f1(cx + ux * a1)}" y2="${f1(cy + uy * a1)}" stroke="${st.stroke}" stroke-width="1.6" stroke-dasharray="1.5 4" stroke-linecap="round"/>`);
+      } else {
+        const outward = s === 'T';
+        const dash = st.dash ? ` stroke-dasharray="${st.dash}"` : '';
+        const tipD = outward ? a1 : a0;
+        const tailD = outward ? a0 : a1;
+        const dir = outward ? 1 : -1;
+        out.push(`<line x1="${f1(cx + ux * tailD)}" y1="${f1(cy + uy * tailD)}" x2="${f1(cx + ux * (tipD - dir * 8))}" y2="${f1(cy + uy * (tipD - dir * 8))}" stroke="${st.stroke}" stroke-width="2"${dash}/>`);
+        out.push(arrowHead(cx + ux * tipD, cy + uy * tipD, ux * dir, uy * dir, 10, st.stroke));
+      }
+      const [lx, ly] = place(cx + ux * (len + 6), cy + uy * (len + 6) + 4);
+      const anchor = ux > 0.3 ? 'start' : ux < -0.3 ? 'end' : 'middle';
+      labels.push(haloText(lx, ly + (uy > 0.5 ? 8 : uy < -0.5 ? -2 : 0), forceLabel(f, 'member', options.formatForce, options.zeroTolerance), `text-anchor="${anchor}" font-size="12" font-weight="${unknown ? 700 : 500}" fill="${unknown ? INK : st.ink}" class="tnum"`));
+    } else {
+      if (f.value !== null && Math.abs(f.value) <= 1e-12) continue;
+      const sign = f.value !== null && f.value < 0 ? -1 : 1;
+      const dx = ux * sign;
+      const dy = uy * sign;
+      const tipX = cx - dx * 9;
+      const tipY = cy - dy * 9;
+      const tailX = tipX - dx * 56;
+      const tailY = tipY - dy * 56;
+      const colour = f.ref.type === 'load' ? '#1d4ed8' : '#6d28d9';
+      out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - dx * 8)}" y2="${f1(tipY - dy * 8)}" stroke="${colour}" stroke-width="2"/>`);
+      out.push(arrowHead(tipX, tipY, dx, dy, 10, colour));
+      const [lx, ly] = place(tailX - dx * 6, tailY - dy * 6 + 4);
+      const anchor = dx > 0.3 ? 'end' : dx < -0.3 ? 'start' : 'middle';
+      labels.push(haloText(lx, ly + (dy > 0.5 ? -4 : dy < -0.5 ? 8 : 0), forceLabel(f, 'other', options.formatForce, options.zeroTolerance), `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
+    }
+  }
+  out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="#fff" stroke="${INK}" stroke-width="2"/>`);
+  out.push(haloText(cx + 10, cy - 10, step.jointTag, `font-size="14" font-weight="700" fill="${INK}"`));
+  out.push(...labels, '</svg>');
+  return out.join('');
+}

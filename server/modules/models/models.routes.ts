@@ -1,0 +1,16 @@
+import { modelSaveSchema } from '@shared/schemas/model.schema';
+import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
+import { idParam, validateBody } from '../../middleware/validate';
+import { getModel, saveModel } from './models.service';
+
+export function modelsRoutes(registry: RouteSpec[]) {
+  const routes = new ApiRoutes('/api', registry);
+  routes.add('get', '/trusses/:id/model', ANY_ROLE, async (req, res) => {
+    res.json(await getModel(idParam(req.params.id, 'That truss')));
+  });
+  // Loads, supports and properties are the engineer's; drafters change geometry by drawings.
+  routes.add('put', '/trusses/:id/model', ['engineer'], validateBody(modelSaveSchema), async (req, res) => {
+    res.json(await saveModel(idParam(req.params.id, 'That truss'), req.body, req.user!.id));
+  });
+  return routes.router;
+}

@@ -1,0 +1,17 @@
+import { z } from 'zod';
+import { combinationSchema, loadCaseSchema, memberSchema, supportSchema } from '@shared/model/truss';
+
+/**
+ * What an engineer saves: supports, loads, combinations and member properties. Geometry
+ * comes only from the drawing, so joints are not sent; members are sent for their
+ * properties and matched by id.
+ */
+export const modelSaveSchema = z.object({
+  version: z.number().int().positive(),
+  supports: z.array(supportSchema),
+  loadCases: z.array(loadCaseSchema),
+  combinations: z.array(combinationSchema),
+  members: z.array(memberSchema.pick({ id: true, group: true, E: true, A: true, EA: true, material: true, section: true })),
+  takeoff: z.unknown().optional(),
+});
+export type ModelSaveInput = z.infer<typeof modelSaveSchema>;
