@@ -10,6 +10,7 @@ import { initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
 import { seedDemo } from './seed/demo';
+import { localFileStore } from './storage/file-store';
 
 export interface Services extends CreatedApp {
   config: Config;
@@ -36,8 +37,8 @@ export async function startServices(config: Config, options: { clientDir?: strin
   const sequelize = await openDatabase(config.databaseStorage);
   await migrate(sequelize);
   initModels(sequelize);
-  if (config.seedDemo) await seedDemo(config.bcryptRounds);
   fs.mkdirSync(config.uploadsDir, { recursive: true });
+  if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
 
   const sink = config.smtpUrl ? undefined : await startSmtpSink();
   const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, from: config.mailFrom });

@@ -1,6 +1,10 @@
 import bcrypt from 'bcryptjs';
 import type { Role } from '@shared/schemas/auth.schema';
+import crypto from 'node:crypto';
 import { Firm, Project, Truss, User } from '../db/models';
+import type { FileStore } from '../storage/file-store';
+import { uploadDrawing } from '../modules/drawings/drawings.service';
+import { demoTrussDxf } from './demo-drawing';
 
 /** Demo password shared by the four demo accounts. For local use only. */
 export const DEMO_PASSWORD = 'panelpoint-demo';
@@ -16,7 +20,7 @@ export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
  * An invented firm and a warehouse-roof project, loaded only into an empty database so a
  * new install has something to sign in to.
  */
-export async function seedDemo(bcryptRounds: number): Promise<boolean> {
+export async function seedDemo(bcryptRounds: number, uploads: FileStore): Promise<boolean> {
   if ((await User.count()) > 0) return false;
   await Firm.upsert({
     id: 1,
@@ -37,7 +41,17 @@ export async function seedDemo(bcryptRounds: number): Promise<boolean> {
     unitSystem: 'SI',
     createdById: engineer.id,
   });
-  await Truss.create({ projectId: project.id, name: 'T1 — typical interior truss' });
+  const t1 = await Truss.create({ projectId: project.id, name: 'T1 — typical interior truss' });
   await Truss.create({ projectId: project.id, name: 'T2 — gable end truss' });
+
+  // T1 arrives with its drawing, uploaded by the demo drafter, as the start of the journeys.
+  const drafter = users.find((u) => u.role === 'drafter')!;
+  const bytes = Buffer.from(demoTrussDxf(), 'latin1');
+  const storedName = `${crypto.randomBytes(16).toString('hex')}.dxf`;
+  await uploads.write(storedName, bytes);
+  await uploadDrawing(
+    { trussId: t1.id, file: { storedName, originalName: 'KL-T1-roof-truss.dxf', size: bytes.length }, fields: { layers: '["CHORDS","WEBS"]' }, userId: drafter.id },
+    uploads,
+  );
   return true;
 }
