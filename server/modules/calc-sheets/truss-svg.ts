@@ -81,8 +81,17 @@ function svgOpen(frame: Frame, label: string, cls: string): string {
   );
 }
 
+/**
+ * Text on a white box so it stays readable over lines. (A stroked "halo" would turn every label
+ * into a Type 3 outline font in the PDF: bigger files and slower printing.)
+ */
 function haloText(x: number, y: number, text: string, attrs: string): string {
-  return `<text x="${f1(x)}" y="${f1(y)}" ${attrs} paint-order="stroke" stroke="#fff" stroke-width="4" stroke-linejoin="round">${svgEscape(text)}</text>`;
+  const size = Number(/font-size="([\d.]+)"/.exec(attrs)?.[1] ?? 12);
+  const w = text.length * size * 0.58 + 3;
+  const h = size * 1.05;
+  const anchor = /text-anchor="(start|end|middle)"/.exec(attrs)?.[1] ?? 'start';
+  const left = anchor === 'start' ? x - 1.5 : anchor === 'end' ? x - w + 1.5 : x - w / 2;
+  return `<rect x="${f1(left)}" y="${f1(y - size * 0.82)}" width="${f1(w)}" height="${f1(h)}" rx="2" fill="#fff" fill-opacity="0.88"/><text x="${f1(x)}" y="${f1(y)}" ${attrs}>${svgEscape(text)}</text>`;
 }
 
 /** Direction (unit, model axes) pointing away from the members at a joint: where its tag goes. */
