@@ -68,7 +68,7 @@ function ProjectLoaded({ project }: { project: ProjectView }) {
         }
         title={
           <span className="flex flex-wrap items-baseline gap-x-3">
-            <span className="figures text-ink-soft">{project.jobNumber}</span>
+            <span className="text-ink-soft">{project.jobNumber}</span>
             <span>{project.name}</span>
             {project.archived && <Badge tone="muted">Archived</Badge>}
           </span>
@@ -92,7 +92,7 @@ function ProjectLoaded({ project }: { project: ProjectView }) {
         </p>
       )}
 
-      <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,22rem)_1fr]">
+      <div className={`grid grid-cols-1 gap-6 ${editing ? 'lg:grid-cols-[minmax(0,34rem)_1fr]' : 'lg:grid-cols-[minmax(0,22rem)_1fr]'}`}>
         <Panel title="Details">
           {editing ? (
             <EditProjectForm

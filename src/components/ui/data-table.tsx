@@ -62,17 +62,17 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
                     key={header.id}
                     scope="col"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={`px-3 py-2 text-[11px] font-semibold tracking-wide whitespace-nowrap text-ink-soft uppercase ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
+                    className={`px-3 py-2 align-middle text-[11px] leading-4 font-semibold tracking-wide whitespace-nowrap text-ink-soft uppercase ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button
                         type="button"
                         onClick={header.column.getToggleSortingHandler()}
-                        className={`inline-flex items-center gap-1 uppercase hover:text-ink ${right ? 'flex-row-reverse' : ''}`}
+                        className={`inline-flex items-center gap-1 align-middle leading-4 tracking-wide uppercase hover:text-ink ${right ? 'flex-row-reverse' : ''}`}
                       >
                         {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden className="w-2 text-ink-faint">
-                          {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : ''}
+                        <span aria-hidden className={`w-2 text-ink-faint ${sorted ? '' : 'invisible'}`}>
+                          {sorted === 'desc' ? '↓' : '↑'}
                         </span>
                       </button>
                     ) : (
@@ -97,7 +97,7 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
                 {row.getVisibleCells().map((cell) => {
                   const meta = cell.column.columnDef.meta;
                   return (
-                    <td key={cell.id} className={`px-3 py-1.5 align-middle ${meta?.align === 'right' ? 'text-right' : 'text-left'}`}>
+                    <td key={cell.id} className={`px-3 py-1.5 align-middle ${meta?.align === 'right' ? 'text-right whitespace-nowrap' : 'text-left'}`}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   );

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Button } from '@/components/ui/button';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useUsers } from '@/features/users/api/get-users';
@@ -10,35 +11,48 @@ export function UsersRoute() {
   const user = useCurrentUser();
   const users = useUsers();
   const [filter, setFilter] = useState('');
+  const [inviting, setInviting] = useState(false);
 
   return (
     <div>
       <PageHeader
         title="Users"
         description="Who works in Panelpoint and in what role. A disabled person can no longer sign in; their signatures on issued sheets stay valid."
+        actions={
+          !inviting && (
+            <Button variant="primary" onClick={() => setInviting(true)}>
+              Invite someone
+            </Button>
+          )
+        }
       />
-      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[1fr_20rem]">
-        <div>
-          <input
-            type="search"
-            value={filter}
-            onChange={(e) => setFilter(e.target.value)}
-            placeholder="Filter by name or e-mail"
-            aria-label="Filter users"
-            className="mb-3 h-9 w-full max-w-xs rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
-          />
-          {users.isPending ? (
-            <LoadingState label="Loading users…" />
-          ) : users.isError ? (
-            <ErrorState title="The users could not be loaded" error={users.error} onRetry={() => void users.refetch()} />
-          ) : (
-            <UsersTable users={users.data} currentUserId={user.id} filter={filter} />
-          )}
-        </div>
-        <Panel title="Invite someone">
-          <InviteUserForm />
+      {inviting && (
+        <Panel title="Invite someone" className="mb-6">
+          <InviteUserForm onClose={() => setInviting(false)} />
         </Panel>
+      )}
+      <div className="mb-3 flex items-center gap-4">
+        <input
+          type="search"
+          value={filter}
+          onChange={(e) => setFilter(e.target.value)}
+          placeholder="Filter by name or e-mail"
+          aria-label="Filter users"
+          className="h-9 w-full max-w-xs rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+        />
+        {users.data && (
+          <span className="figures ml-auto text-xs text-ink-faint">
+            {users.data.length} {users.data.length === 1 ? 'person' : 'people'}, {users.data.filter((u) => !u.disabled && !u.pending).length} active
+          </span>
+        )}
       </div>
+      {users.isPending ? (
+        <LoadingState label="Loading users…" />
+      ) : users.isError ? (
+        <ErrorState title="The users could not be loaded" error={users.error} onRetry={() => void users.refetch()} />
+      ) : (
+        <UsersTable users={users.data} currentUserId={user.id} filter={filter} />
+      )}
     </div>
   );
 }

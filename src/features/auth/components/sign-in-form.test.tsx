@@ -79,7 +79,7 @@ describe('SignInForm', () => {
 
   it('when the server accepts, then the new session is handed on', async () => {
     const session = {
-      user: { id: 1, email: 'engineer@firm.test', name: 'Ines Ortega', role: 'engineer', disabled: false, createdAt: '2025-01-01T00:00:00Z' },
+      user: { id: 1, email: 'engineer@firm.test', name: 'Ines Ortega', role: 'engineer', disabled: false, pending: false, createdAt: '2025-01-01T00:00:00Z' },
       csrfToken: 'fresh',
     };
     fetchMock.mockResolvedValueOnce(new Response(JSON.stringify(session), { status: 200 }));

@@ -39,15 +39,15 @@ function ProjectForm({ initial, submitLabel, onSave, onCancel }: ProjectFormProp
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-      <fieldset disabled={isSubmitting} className="grid grid-cols-1 gap-4 sm:grid-cols-[10rem_1fr]">
+    <form onSubmit={onSubmit} noValidate className="@container flex flex-col gap-4">
+      <fieldset disabled={isSubmitting} className="grid grid-cols-1 gap-4 @xl:grid-cols-[10rem_1fr]">
         <TextField label="Job number" autoComplete="off" placeholder="e.g. 24-031" error={errors.jobNumber?.message} {...register('jobNumber')} />
         <TextField label="Project name" autoComplete="off" placeholder="e.g. Riverside depot roof" error={errors.name?.message} {...register('name')} />
-        <div className="sm:col-span-2 grid grid-cols-1 gap-4 sm:grid-cols-2">
+        <div className="grid grid-cols-1 gap-4 @xl:col-span-2 @xl:grid-cols-2">
           <TextField label="Client" autoComplete="off" error={errors.client?.message} {...register('client')} />
           <TextField label="Site" autoComplete="off" error={errors.site?.message} {...register('site')} />
         </div>
-        <div className="sm:col-span-2">
+        <div className="@xl:col-span-2">
           <TextareaField
             label="Design basis"
             rows={3}
@@ -56,7 +56,7 @@ function ProjectForm({ initial, submitLabel, onSave, onCancel }: ProjectFormProp
             {...register('designBasis')}
           />
         </div>
-        <div className="sm:col-span-2 sm:max-w-xs">
+        <div className="@xl:col-span-2 @xl:max-w-xs">
           <SelectField label="Units" error={errors.unitSystem?.message} hint="Shown on every sheet of the project." {...register('unitSystem')}>
             {unitSystemSchema.options.map((system) => (
               <option key={system} value={system}>

@@ -17,7 +17,11 @@ export function useInviteUser() {
   return useMutation({
     mutationFn: inviteUser,
     meta: { errorsShownInline: true },
-    // The invitation e-mail lands in the outbox.
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['outbox'] }),
+    // The invited person is listed as pending; the e-mail lands in the outbox.
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: ['users'] }),
+        queryClient.invalidateQueries({ queryKey: ['outbox'] }),
+      ]),
   });
 }

@@ -5,11 +5,12 @@ import { ROLES, inviteUserSchema, type InviteUserInput } from '@shared/schemas/a
 import { Button } from '@/components/ui/button';
 import { FormError, SelectField, TextField } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
+import { formatDateTime } from '@/lib/format';
 import { ROLE_LABELS } from '@/lib/permissions';
 import { useInviteUser, type InvitationCreated } from '../api/invite-user';
 
 /** Invites a person by e-mail; shows the link too, for when the e-mail is slow. */
-export function InviteUserForm() {
+export function InviteUserForm({ onClose }: { onClose?: () => void }) {
   const invite = useInviteUser();
   const [created, setCreated] = useState<InvitationCreated | null>(null);
   const [copied, setCopied] = useState(false);
@@ -38,9 +39,9 @@ export function InviteUserForm() {
   const link = created ? new URL(created.link, window.location.origin).toString() : '';
 
   return (
-    <div className="flex flex-col gap-4">
+    <div className="@container flex flex-col gap-4">
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
-        <fieldset disabled={isSubmitting} className="flex flex-col gap-3">
+        <fieldset disabled={isSubmitting} className="grid grid-cols-1 gap-3 @2xl:grid-cols-[1.2fr_1fr_11rem]">
           <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register('email')} />
           <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
           <SelectField label="Role" error={errors.role?.message} {...register('role')}>
@@ -52,16 +53,23 @@ export function InviteUserForm() {
           </SelectField>
         </fieldset>
         <FormError message={errors.root?.server?.message} />
-        <Button type="submit" variant="primary" busy={isSubmitting}>
-          Send invitation
-        </Button>
+        <div className="flex gap-2">
+          <Button type="submit" variant="primary" busy={isSubmitting}>
+            Send invitation
+          </Button>
+          {onClose && (
+            <Button onClick={onClose} disabled={isSubmitting}>
+              {created ? 'Done' : 'Cancel'}
+            </Button>
+          )}
+        </div>
       </form>
       {created && (
         <div role="status" className="rounded-md border border-accent/30 bg-accent-soft/50 px-4 py-3 text-sm">
           <p className="text-ink">
             Invitation sent to <strong className="font-semibold">{created.invitation.email}</strong> as{' '}
             {ROLE_LABELS[created.invitation.role].toLowerCase()}. The link below works once, until{' '}
-            <time dateTime={created.invitation.expiresAt}>{new Date(created.invitation.expiresAt).toLocaleString()}</time>.
+            <time dateTime={created.invitation.expiresAt}>{formatDateTime(created.invitation.expiresAt)}</time>.
           </p>
           <div className="mt-2 flex gap-2">
             <input

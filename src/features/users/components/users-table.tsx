@@ -21,7 +21,7 @@ export function UsersTable({ users, currentUserId, filter }: { users: UserView[]
       column.accessor('name', {
         header: 'Name',
         cell: (info) => (
-          <span className="font-medium text-ink">
+          <span className="font-medium whitespace-nowrap text-ink">
             {info.getValue()}
             {info.row.original.id === currentUserId && <span className="ml-2 text-xs font-normal text-ink-faint">(you)</span>}
           </span>
@@ -60,7 +60,14 @@ export function UsersTable({ users, currentUserId, filter }: { users: UserView[]
       column.accessor('disabled', {
         header: 'Status',
         meta: { width: 'w-24' },
-        cell: (info) => (info.getValue() ? <Badge tone="danger">Disabled</Badge> : <Badge tone="accent">Active</Badge>),
+        cell: (info) =>
+          info.getValue() ? (
+            <Badge tone="danger">Disabled</Badge>
+          ) : info.row.original.pending ? (
+            <Badge tone="neutral">Invited</Badge>
+          ) : (
+            <Badge tone="accent">Active</Badge>
+          ),
       }),
       column.accessor('createdAt', {
         header: 'Joined',
