@@ -19,6 +19,9 @@ import { projectsRoutes } from './modules/projects/projects.routes';
 import { drawingsRoutes } from './modules/drawings/drawings.routes';
 import { modelsRoutes } from './modules/models/models.routes';
 import { localFileStore } from './storage/file-store';
+import { reviewRoutes } from './modules/review/review.routes';
+import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/review/firm-key';
+import { analysisRunsTable, calcSheetsNotWired, type RunSource, type SheetRenderer } from './modules/review/sheet-renderer';
 
 export interface AppDeps {
   config: Config;
@@ -28,6 +31,17 @@ export interface AppDeps {
   /** Where the built client lives; served when present. */
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
+  review?: ReviewDeps;
+}
+
+/** What the check-and-issue routes take from outside; each has a default. */
+export interface ReviewDeps {
+  /** Prints a run's calc sheet; default: not wired yet (issuing answers 503). */
+  renderer?: SheetRenderer;
+  /** Finds analysis runs; default: the analysis_runs table. */
+  runs?: RunSource;
+  /** The firm's Ed25519 key; default: kept in DATA_DIR, or in memory for a :memory: database. */
+  firmKey?: FirmKey;
 }
 
 export interface CreatedApp {
@@ -89,6 +103,21 @@ export function createApp(deps: AppDeps): CreatedApp {
   const uploads = localFileStore(config.uploadsDir);
   app.use('/api', drawingsRoutes(registry, { store: uploads, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
   app.use('/api', modelsRoutes(registry));
+  app.use(
+    '/api',
+    reviewRoutes(registry, {
+      mailer: deps.mailer,
+      publicUrl,
+      // TODO: calcSheetRenderer (modules/review/calc-sheet-renderer.ts) once the runs module
+      // can hand over a run's calc-sheet input.
+      renderer: deps.review?.renderer ?? calcSheetsNotWired,
+      runs: deps.review?.runs ?? analysisRunsTable(deps.sequelize),
+      key: deps.review?.firmKey ?? (config.databaseStorage === ':memory:' ? firmKeyInMemory() : firmKeyLoadOrCreate(config.dataDir)),
+      sheets: localFileStore(path.join(config.dataDir, 'issued-sheets')),
+      maxVerifyBytes: config.maxUploadBytes,
+      log,
+    }),
+  );
   app.use('/api', notFoundHandler);
 
   if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {

@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
-import { createApp, type CreatedApp } from './app';
+import { createApp, type CreatedApp, type ReviewDeps } from './app';
 import { openDatabase } from './db/sequelize';
 import { migrate } from './db/migrate';
 import { initModels } from './db/models';
@@ -33,7 +33,7 @@ function sessionSecretFor(config: Config): string {
 }
 
 /** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
-export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void } = {}): Promise<Services> {
+export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void; review?: ReviewDeps } = {}): Promise<Services> {
   const sequelize = await openDatabase(config.databaseStorage);
   await migrate(sequelize);
   initModels(sequelize);
@@ -49,6 +49,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     sessionSecret: sessionSecretFor(config),
     clientDir: options.clientDir,
     log: options.log,
+    review: options.review,
   });
   return {
     ...created,

@@ -98,6 +98,63 @@ export class TrussModelRecord extends Model<InferAttributes<TrussModelRecord>, I
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** A revision of a truss's calc sheet (review statuses, and what issuing fixed). */
+export class SheetRevision extends Model<InferAttributes<SheetRevision>, InferCreationAttributes<SheetRevision>> {
+  declare id: CreationOptional<number>;
+  declare trussId: number;
+  declare runId: number;
+  declare number: number;
+  declare status: 'draft' | 'in-check' | 'returned' | 'checked' | 'issued' | 'superseded';
+  declare preparedById: number;
+  declare checkedById: CreationOptional<number | null>;
+  declare issuedById: CreationOptional<number | null>;
+  declare preparedByName: CreationOptional<string | null>;
+  declare checkedByName: CreationOptional<string | null>;
+  declare issuedByName: CreationOptional<string | null>;
+  declare submittedAt: CreationOptional<Date | null>;
+  declare checkedAt: CreationOptional<Date | null>;
+  declare issuedAt: CreationOptional<Date | null>;
+  declare supersededAt: CreationOptional<Date | null>;
+  declare supersededById: CreationOptional<number | null>;
+  declare pdfStoredName: CreationOptional<string | null>;
+  declare pdfSize: CreationOptional<number | null>;
+  declare sha256: CreationOptional<string | null>;
+  declare signedRecord: CreationOptional<string | null>;
+  declare signature: CreationOptional<string | null>;
+  declare keyFingerprint: CreationOptional<string | null>;
+  /** Who made the last status change and why; the audit-log trigger copies them. */
+  declare lastActorId: number | null;
+  declare lastNote: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** A line of a sheet revision's audit log, written by a trigger; append-only. */
+export class SheetRevisionEvent extends Model<InferAttributes<SheetRevisionEvent>, InferCreationAttributes<SheetRevisionEvent>> {
+  declare id: CreationOptional<number>;
+  declare revisionId: number;
+  declare fromStatus: string | null;
+  declare toStatus: string;
+  declare actorId: number | null;
+  declare note: string;
+  declare at: Date;
+}
+
+/** A comment on a step of a sheet revision; a thread's replies point at its first comment. */
+export class SheetComment extends Model<InferAttributes<SheetComment>, InferCreationAttributes<SheetComment>> {
+  declare id: CreationOptional<number>;
+  declare revisionId: number;
+  declare trussId: number;
+  declare parentId: number | null;
+  declare anchor: string;
+  declare body: string;
+  declare authorId: number;
+  declare resolvedById: CreationOptional<number | null>;
+  declare resolvedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 const timestamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE };
 
 /** Binds the models to a connection. Tables come from the migrations, never from sync(). */
@@ -203,5 +260,67 @@ export function initModels(sequelize: Sequelize): void {
       ...timestamps,
     },
     { sequelize, tableName: 'truss_models' },
+  );
+
+  initSheetModels(sequelize);
+}
+
+function initSheetModels(sequelize: Sequelize): void {
+  SheetRevision.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      trussId: { type: DataTypes.INTEGER, allowNull: false },
+      runId: { type: DataTypes.INTEGER, allowNull: false },
+      number: { type: DataTypes.INTEGER, allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false },
+      preparedById: { type: DataTypes.INTEGER, allowNull: false },
+      checkedById: { type: DataTypes.INTEGER, allowNull: true },
+      issuedById: { type: DataTypes.INTEGER, allowNull: true },
+      preparedByName: { type: DataTypes.STRING(120), allowNull: true },
+      checkedByName: { type: DataTypes.STRING(120), allowNull: true },
+      issuedByName: { type: DataTypes.STRING(120), allowNull: true },
+      submittedAt: { type: DataTypes.DATE, allowNull: true },
+      checkedAt: { type: DataTypes.DATE, allowNull: true },
+      issuedAt: { type: DataTypes.DATE, allowNull: true },
+      supersededAt: { type: DataTypes.DATE, allowNull: true },
+      supersededById: { type: DataTypes.INTEGER, allowNull: true },
+      pdfStoredName: { type: DataTypes.STRING(80), allowNull: true },
+      pdfSize: { type: DataTypes.INTEGER, allowNull: true },
+      sha256: { type: DataTypes.STRING(64), allowNull: true },
+      signedRecord: { type: DataTypes.TEXT, allowNull: true },
+      signature: { type: DataTypes.STRING(128), allowNull: true },
+      keyFingerprint: { type: DataTypes.STRING(64), allowNull: true },
+      lastActorId: { type: DataTypes.INTEGER, allowNull: true },
+      lastNote: { type: DataTypes.TEXT, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'sheet_revisions' },
+  );
+  SheetRevisionEvent.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      revisionId: { type: DataTypes.INTEGER, allowNull: false },
+      fromStatus: { type: DataTypes.STRING(16), allowNull: true },
+      toStatus: { type: DataTypes.STRING(16), allowNull: false },
+      actorId: { type: DataTypes.INTEGER, allowNull: true },
+      note: { type: DataTypes.TEXT, allowNull: false },
+      at: { type: DataTypes.DATE, allowNull: false },
+    },
+    { sequelize, tableName: 'sheet_revision_events', timestamps: false },
+  );
+  SheetComment.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      revisionId: { type: DataTypes.INTEGER, allowNull: false },
+      trussId: { type: DataTypes.INTEGER, allowNull: false },
+      parentId: { type: DataTypes.INTEGER, allowNull: true },
+      anchor: { type: DataTypes.STRING(200), allowNull: false },
+      body: { type: DataTypes.TEXT, allowNull: false },
+      authorId: { type: DataTypes.INTEGER, allowNull: false },
+      resolvedById: { type: DataTypes.INTEGER, allowNull: true },
+      resolvedAt: { type: DataTypes.DATE, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'sheet_comments' },
   );
 }

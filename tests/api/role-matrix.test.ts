@@ -37,6 +37,19 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/drawings/:id/file': ALL,
   'GET /api/trusses/:id/model': ALL,
   'PUT /api/trusses/:id/model': ['engineer'],
+  'GET /api/trusses/:id/sheets': ALL,
+  'POST /api/trusses/:id/sheets': ['engineer'],
+  'GET /api/sheets/:id': ALL,
+  'POST /api/sheets/:id/submit': ['engineer'],
+  'POST /api/sheets/:id/return': ['reviewer'],
+  'POST /api/sheets/:id/check': ['reviewer'],
+  'POST /api/sheets/:id/issue': ['engineer'],
+  'GET /api/sheets/:id/pdf': ALL,
+  'POST /api/sheets/:id/comments': ['engineer', 'reviewer'],
+  'PATCH /api/sheet-comments/:id': ['engineer', 'reviewer'],
+  'GET /api/archive': ALL,
+  'POST /api/archive/verify': ALL,
+  'GET /api/firm/signing-key': ['admin'],
 };
 
 let services: Services;

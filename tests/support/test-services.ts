@@ -5,10 +5,11 @@ import request from 'supertest';
 import type { Express } from 'express';
 import { loadConfig, type Config } from '../../server/config';
 import { startServices, type Services } from '../../server/bootstrap';
+import type { ReviewDeps } from '../../server/app';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 
 /** A full server on an in-memory SQLite database with the demo data and a real SMTP sink. */
-export async function startTestServices(overrides: Partial<Config> = {}): Promise<Services> {
+export async function startTestServices(overrides: Partial<Config> = {}, options: { review?: ReviewDeps } = {}): Promise<Services> {
   const config: Config = {
     ...loadConfig({ NODE_ENV: 'test' }),
     databaseStorage: ':memory:',
@@ -17,7 +18,7 @@ export async function startTestServices(overrides: Partial<Config> = {}): Promis
     uploadsDir: fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-uploads-')),
     ...overrides,
   };
-  return startServices(config, { log: () => {} });
+  return startServices(config, { log: () => {}, review: options.review });
 }
 
 export const demoEmail = (role: 'drafter' | 'engineer' | 'reviewer' | 'admin') => `${role}@demo.panelpoint.test`;

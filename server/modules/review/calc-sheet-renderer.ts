@@ -1,0 +1,37 @@
+import type { CalcSheetInput } from '../calc-sheets/calc-sheet-view';
+import { buildCalcSheetView } from '../calc-sheets/calc-sheet-view';
+import { renderCalcSheetHtml } from '../calc-sheets/calc-sheet-html';
+import type { SheetPrinter } from '../calc-sheets/sheet-printer';
+import type { SheetRenderer } from './sheet-renderer';
+
+/** A run's calc-sheet input without what the review adds (revision, signers, print time). */
+export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'generatedAt'>;
+
+/**
+ * ADAPTER — the real calc sheet through the calc-sheet module: view builder → Handlebars HTML →
+ * the shared Chromium printer. `loadRunSheet` must come from the runs module (the run's model
+ * snapshot, analysis, takeoff steps, project, firm); it is not wired in app.ts until that
+ * module exports it.
+ *
+ * TODO: the calc-sheet view has prepared-by and checked-by lines but no issued-by line; the
+ * issuer's name and date are printed only once CalcSheetInput grows one.
+ */
+export function calcSheetRenderer(deps: {
+  printer: SheetPrinter;
+  loadRunSheet(runId: number): Promise<RunSheetInput>;
+  now?: () => Date;
+}): SheetRenderer {
+  return {
+    async renderPdf({ runId, revisionLabel, signatures }) {
+      const base = await deps.loadRunSheet(runId);
+      const input: CalcSheetInput = {
+        ...base,
+        revision: revisionLabel,
+        preparedBy: signatures ? { name: signatures.preparedBy.name, date: signatures.preparedBy.date.slice(0, 10) } : undefined,
+        checkedBy: signatures ? { name: signatures.checkedBy.name, date: signatures.checkedBy.date.slice(0, 10) } : undefined,
+        generatedAt: signatures?.issuedBy.date ?? (deps.now ?? (() => new Date()))(),
+      };
+      return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize);
+    },
+  };
+}

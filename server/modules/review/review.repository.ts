@@ -1,0 +1,271 @@
+import { Op, UniqueConstraintError, type WhereOptions } from 'sequelize';
+import type { SheetStatus } from '@shared/schemas/review.schema';
+import { Drawing, Project, SheetComment, SheetRevision, SheetRevisionEvent, Truss, User } from '../../db/models';
+
+/**
+ * The only place the review module talks to Sequelize. Returns plain objects. Status changes
+ * are conditional updates (WHERE status = expected); the database's triggers write the audit
+ * line, supersede earlier issued revisions and refuse any change to an issued one.
+ */
+
+export interface RevisionRow {
+  id: number;
+  trussId: number;
+  runId: number;
+  number: number;
+  status: SheetStatus;
+  preparedById: number;
+  checkedById: number | null;
+  issuedById: number | null;
+  preparedByName: string | null;
+  checkedByName: string | null;
+  issuedByName: string | null;
+  submittedAt: Date | null;
+  checkedAt: Date | null;
+  issuedAt: Date | null;
+  supersededAt: Date | null;
+  supersededById: number | null;
+  pdfStoredName: string | null;
+  pdfSize: number | null;
+  sha256: string | null;
+  signedRecord: string | null;
+  signature: string | null;
+  keyFingerprint: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+export interface EventRow {
+  id: number;
+  revisionId: number;
+  fromStatus: SheetStatus | null;
+  toStatus: SheetStatus;
+  actorId: number | null;
+  note: string;
+  at: Date;
+}
+
+export interface CommentRow {
+  id: number;
+  revisionId: number;
+  trussId: number;
+  parentId: number | null;
+  anchor: string;
+  body: string;
+  authorId: number;
+  resolvedById: number | null;
+  resolvedAt: Date | null;
+  createdAt: Date;
+}
+
+export interface TrussContext {
+  trussId: number;
+  trussName: string;
+  projectId: number;
+  projectName: string;
+  jobNumber: string;
+}
+
+const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(v as string));
+
+function revisionRow(r: SheetRevision): RevisionRow {
+  const p = r.get({ plain: true }) as unknown as RevisionRow;
+  return {
+    ...p,
+    submittedAt: toDate(p.submittedAt),
+    checkedAt: toDate(p.checkedAt),
+    issuedAt: toDate(p.issuedAt),
+    supersededAt: toDate(p.supersededAt),
+    createdAt: new Date(p.createdAt),
+    updatedAt: new Date(p.updatedAt),
+  };
+}
+
+export const reviewRepository = {
+  async findRevision(id: number): Promise<RevisionRow | null> {
+    const r = await SheetRevision.findByPk(id);
+    return r ? revisionRow(r) : null;
+  },
+
+  async listRevisions(where: { trussId?: number; trussIds?: number[]; statuses?: SheetStatus[]; sha256?: string }): Promise<RevisionRow[]> {
+    const w: WhereOptions = {};
+    if (where.trussId !== undefined) Object.assign(w, { trussId: where.trussId });
+    if (where.trussIds !== undefined) Object.assign(w, { trussId: where.trussIds });
+    if (where.statuses !== undefined) Object.assign(w, { status: where.statuses });
+    if (where.sha256 !== undefined) Object.assign(w, { sha256: where.sha256 });
+    const rows = await SheetRevision.findAll({ where: w, order: [['trussId', 'ASC'], ['number', 'DESC']] });
+    return rows.map(revisionRow);
+  },
+
+  /**
+   * A new draft numbered one past the truss's highest. Two engineers starting a revision at
+   * once both read the same highest number; the unique (trussId, number) index refuses the
+   * second insert, which then tries the next number.
+   */
+  async createDraft(input: { trussId: number; runId: number; preparedById: number; note: string }): Promise<RevisionRow> {
+    for (let attempt = 0; ; attempt++) {
+      const highest = (await SheetRevision.max('number', { where: { trussId: input.trussId } })) as number | null;
+      try {
+        const created = await SheetRevision.create({
+          trussId: input.trussId,
+          runId: input.runId,
+          number: (highest ?? 0) + 1,
+          status: 'draft',
+          preparedById: input.preparedById,
+          lastActorId: input.preparedById,
+          lastNote: input.note,
+        });
+        return revisionRow(created);
+      } catch (err) {
+        if (err instanceof UniqueConstraintError && attempt < 5) continue;
+        throw err;
+      }
+    }
+  },
+
+  /**
+   * Moves a revision from `from` to `to` with the given columns, only if it is still at
+   * `from`. Returns false when someone else moved it first (nothing written).
+   */
+  async transition(
+    id: number,
+    from: SheetStatus,
+    to: SheetStatus,
+    actorId: number,
+    note: string,
+    fields: Partial<Omit<RevisionRow, 'id' | 'status' | 'trussId' | 'number' | 'runId' | 'createdAt' | 'updatedAt'>> = {},
+  ): Promise<boolean> {
+    const [count] = await SheetRevision.update(
+      { ...fields, status: to, lastActorId: actorId, lastNote: note },
+      { where: { id, status: from } },
+    );
+    return count === 1;
+  },
+
+  async hasIssuedAfter(trussId: number, number: number): Promise<RevisionRow | null> {
+    const r = await SheetRevision.findOne({
+      where: { trussId, number: { [Op.gt]: number }, status: ['issued', 'superseded'] },
+      order: [['number', 'DESC']],
+    });
+    return r ? revisionRow(r) : null;
+  },
+
+  async events(revisionId: number): Promise<EventRow[]> {
+    const rows = await SheetRevisionEvent.findAll({ where: { revisionId }, order: [['id', 'ASC']] });
+    return rows.map((e) => ({ ...(e.get({ plain: true }) as unknown as EventRow), at: new Date(e.at) }));
+  },
+
+  /** Comments of a truss made on revisions numbered up to `upToNumber`, oldest first. */
+  async commentsUpTo(trussId: number, upToNumber: number): Promise<CommentRow[]> {
+    const revisionIds = (
+      await SheetRevision.findAll({ attributes: ['id'], where: { trussId, number: { [Op.lte]: upToNumber } }, raw: true })
+    ).map((r) => r.id);
+    if (revisionIds.length === 0) return [];
+    const rows = await SheetComment.findAll({ where: { revisionId: revisionIds }, order: [['id', 'ASC']] });
+    return rows.map(commentRow);
+  },
+
+  async openThreadCounts(revisionIds: number[]): Promise<Map<number, number>> {
+    if (revisionIds.length === 0) return new Map();
+    const rows = await SheetComment.findAll({ attributes: ['revisionId'], where: { revisionId: revisionIds, parentId: null, resolvedAt: null }, raw: true });
+    const counts = new Map<number, number>();
+    for (const r of rows) counts.set(r.revisionId, (counts.get(r.revisionId) ?? 0) + 1);
+    return counts;
+  },
+
+  async findComment(id: number): Promise<CommentRow | null> {
+    const c = await SheetComment.findByPk(id);
+    return c ? commentRow(c) : null;
+  },
+
+  async createComment(input: Omit<CommentRow, 'id' | 'resolvedById' | 'resolvedAt' | 'createdAt'>): Promise<CommentRow> {
+    return commentRow(await SheetComment.create(input));
+  },
+
+  async setResolved(id: number, by: { userId: number; at: Date } | null): Promise<void> {
+    await SheetComment.update({ resolvedById: by?.userId ?? null, resolvedAt: by?.at ?? null }, { where: { id } });
+  },
+
+  async trussContext(trussId: number): Promise<TrussContext | null> {
+    const truss = await Truss.findByPk(trussId);
+    if (!truss) return null;
+    const project = await Project.findByPk(truss.projectId);
+    if (!project) return null;
+    return { trussId, trussName: truss.name, projectId: project.id, projectName: project.name, jobNumber: project.jobNumber };
+  },
+
+  async trussContexts(trussIds: number[]): Promise<Map<number, TrussContext>> {
+    const out = new Map<number, TrussContext>();
+    if (trussIds.length === 0) return out;
+    const trusses = await Truss.findAll({ where: { id: trussIds } });
+    const projects = new Map((await Project.findAll({ where: { id: [...new Set(trusses.map((t) => t.projectId))] } })).map((p) => [p.id, p]));
+    for (const t of trusses) {
+      const p = projects.get(t.projectId);
+      if (p) out.set(t.id, { trussId: t.id, trussName: t.name, projectId: p.id, projectName: p.name, jobNumber: p.jobNumber });
+    }
+    return out;
+  },
+
+  async userNames(ids: (number | null)[]): Promise<Map<number, string>> {
+    const wanted = [...new Set(ids.filter((i): i is number => i !== null))];
+    if (wanted.length === 0) return new Map();
+    const rows = await User.findAll({ attributes: ['id', 'name'], where: { id: wanted }, raw: true });
+    return new Map(rows.map((u) => [u.id, u.name]));
+  },
+
+  /** Active accounts (invitation accepted, not disabled) with a role, or with the given ids. */
+  async activeEmails(where: { role?: 'reviewer'; ids?: number[] }): Promise<string[]> {
+    const w: WhereOptions = { disabled: false, passwordHash: { [Op.ne]: null } };
+    if (where.role) Object.assign(w, { role: where.role });
+    if (where.ids) Object.assign(w, { id: where.ids });
+    const rows = await User.findAll({ attributes: ['email'], where: w, order: [['id', 'ASC']], raw: true });
+    return rows.map((u) => u.email);
+  },
+
+  /** Everyone who prepared, checked or issued a revision, or uploaded a drawing, on the project. */
+  async projectPeople(projectId: number): Promise<number[]> {
+    const trussIds = (await Truss.findAll({ attributes: ['id'], where: { projectId }, raw: true })).map((t) => t.id);
+    if (trussIds.length === 0) return [];
+    const revisions = await SheetRevision.findAll({ attributes: ['preparedById', 'checkedById', 'issuedById'], where: { trussId: trussIds }, raw: true });
+    const drawings = await Drawing.findAll({ attributes: ['uploadedById'], where: { trussId: trussIds }, raw: true });
+    const ids = new Set<number>();
+    for (const r of revisions) for (const id of [r.preparedById, r.checkedById, r.issuedById]) if (id) ids.add(id);
+    for (const d of drawings) if (d.uploadedById) ids.add(d.uploadedById);
+    return [...ids];
+  },
+
+  /** Trusses whose job number, project or truss name contain the given texts (case-insensitive). */
+  async trussIdsMatching(filter: { text?: string; jobNumber?: string; project?: string; truss?: string }): Promise<number[]> {
+    // Filtered here rather than with LIKE, whose escaping differs between SQLite and PostgreSQL.
+    const projects = new Map((await Project.findAll({ attributes: ['id', 'name', 'jobNumber'], raw: true })).map((p) => [p.id, p]));
+    const trusses = await Truss.findAll({ attributes: ['id', 'name', 'projectId'], raw: true });
+    const has = (value: string, part?: string) => !part || value.toLowerCase().includes(part.toLowerCase());
+    return trusses
+      .filter((t) => {
+        const p = projects.get(t.projectId);
+        if (!p) return false;
+        return (
+          has(p.jobNumber, filter.jobNumber) &&
+          has(p.name, filter.project) &&
+          has(t.name, filter.truss) &&
+          (!filter.text || [t.name, p.name, p.jobNumber].some((s) => has(s, filter.text)))
+        );
+      })
+      .map((t) => t.id);
+  },
+};
+
+function commentRow(c: SheetComment): CommentRow {
+  return {
+    id: c.id,
+    revisionId: c.revisionId,
+    trussId: c.trussId,
+    parentId: c.parentId,
+    anchor: c.anchor,
+    body: c.body,
+    authorId: c.authorId,
+    resolvedById: c.resolvedById ?? null,
+    resolvedAt: toDate(c.resolvedAt),
+    createdAt: new Date(c.createdAt),
+  };
+}

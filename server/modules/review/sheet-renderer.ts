@@ -1,0 +1,73 @@
+import type { Sequelize } from 'sequelize';
+import { AppError } from '../../errors/app-error';
+
+/**
+ * What the review module needs from the rest of the server, as two small interfaces passed in
+ * from app.ts: something that prints a run's calc sheet to PDF, and something that finds a run.
+ */
+
+/** A signature as the sheet's signature block prints it. */
+export interface SheetSignature {
+  name: string;
+  /** 'Prepared by', 'Checked by', 'Issued by'. */
+  role: string;
+  /** ISO 8601. */
+  date: string;
+}
+
+export interface SheetRenderInput {
+  runId: number;
+  /** Revision letter as printed, e.g. "B". */
+  revisionLabel: string;
+  /** Filled when issuing; null for an unsigned print. */
+  signatures: { preparedBy: SheetSignature; checkedBy: SheetSignature; issuedBy: SheetSignature } | null;
+}
+
+export interface SheetRenderer {
+  /** The calc sheet of a run as PDF bytes. The issuing path stores and hashes exactly these. */
+  renderPdf(input: SheetRenderInput): Promise<Buffer>;
+}
+
+export type RunStatus = 'queued' | 'running' | 'solved' | 'unstable' | 'failed';
+
+export interface RunRef {
+  id: number;
+  trussId: number;
+  status: RunStatus;
+}
+
+export interface RunSource {
+  findRun(runId: number): Promise<RunRef | null>;
+}
+
+/**
+ * Reads the three columns it needs (id, trussId, status) from the runs module's analysis_runs
+ * table (migration 0003), rather than importing that module, so the two stay independent.
+ */
+export function analysisRunsTable(sequelize: Sequelize): RunSource {
+  return {
+    async findRun(runId) {
+      try {
+        const [rows] = await sequelize.query('SELECT id, trussId, status FROM analysis_runs WHERE id = ?', { replacements: [runId] });
+        const row = (rows as { id: number; trussId: number; status: RunStatus }[])[0];
+        return row ? { id: Number(row.id), trussId: Number(row.trussId), status: row.status } : null;
+      } catch (err) {
+        if (/no such table/i.test(String((err as Error).message))) {
+          throw new AppError('runs-unavailable', 'Analysis runs are not available on this server yet, so no sheet revision can be made. Tell your admin.', 503);
+        }
+        throw err;
+      }
+    },
+  };
+}
+
+/**
+ * ADAPTER — stands in until the calc-sheet module exposes "the PDF of run N with this revision
+ * and these signatures" (see calc-sheet-renderer.ts for the wiring once it does). Issuing
+ * refuses with a clear 503 rather than storing anything that is not the real sheet.
+ */
+export const calcSheetsNotWired: SheetRenderer = {
+  async renderPdf() {
+    throw new AppError('sheet-renderer-unavailable', 'Calc sheets cannot be printed on this server yet, so nothing can be issued. Tell your admin.', 503);
+  },
+};

@@ -1,0 +1,246 @@
+import { z } from 'zod';
+
+/**
+ * Check, sign and archive: calc-sheet revisions, their review, step comments, the issued
+ * archive and the verify page. Inputs are zod schemas (server validation and client forms);
+ * views are what the API answers.
+ *
+ * Routes (every write needs the session's X-CSRF-Token):
+ *
+ * | route | who | body | answer |
+ * | --- | --- | --- | --- |
+ * | GET    /api/trusses/:id/sheets     | any role | — | SheetRevisionSummaryView[] (newest first) |
+ * | POST   /api/trusses/:id/sheets     | engineer | NewSheetRevisionInput | 201 SheetRevisionView (draft) |
+ * | GET    /api/sheets/:id             | any role | — | SheetRevisionView |
+ * | POST   /api/sheets/:id/submit      | engineer (its preparer) | SheetTransitionInput | SheetRevisionView (in-check) |
+ * | POST   /api/sheets/:id/return      | reviewer (not its preparer) | SheetTransitionInput | SheetRevisionView (returned) |
+ * | POST   /api/sheets/:id/check       | reviewer (not its preparer) | SheetTransitionInput | SheetRevisionView (checked) |
+ * | POST   /api/sheets/:id/issue       | engineer | SheetTransitionInput | SheetRevisionView (issued) |
+ * | GET    /api/sheets/:id/pdf         | any role | — | the archived PDF bytes (issued or superseded only) |
+ * | POST   /api/sheets/:id/comments    | engineer, reviewer | NewSheetCommentInput | 201 SheetCommentView |
+ * | PATCH  /api/sheet-comments/:id     | engineer, reviewer | SheetCommentResolveInput | SheetCommentView |
+ * | GET    /api/archive                | any role | query: ArchiveQuery | ArchiveEntryView[] |
+ * | POST   /api/archive/verify         | any role | multipart, one PDF in field "file" | SheetVerifyView |
+ * | GET    /api/firm/signing-key       | admin | — | FirmSigningKeyView |
+ *
+ * Refusals answer `{ error: { code, message } }` (shared/api/errors.ts). Codes of this area:
+ * 'sheet-status-conflict' (409, a transition out of order or lost to someone acting at the same
+ * time; the message names the current status), 'not-preparer' (403, only the preparer submits),
+ * 'own-sheet' (403, a reviewer cannot check or return a sheet they prepared), 'sheet-issued'
+ * (409, an issued or superseded revision cannot change), 'open-comments' (409, checking while
+ * comments are unresolved), 'run-not-solved' / 'run-of-other-truss' (409/422, a revision needs a
+ * solved run of its own truss), 'newer-revision-issued' (409), 'not-a-pdf' (400),
+ * 'file-too-large' (413), 'file-missing' (400).
+ */
+
+/** Statuses a sheet revision passes through; `superseded` follows `issued` when a later revision is issued. */
+export const sheetStatusSchema = z.enum(['draft', 'in-check', 'returned', 'checked', 'issued', 'superseded']);
+export type SheetStatus = z.infer<typeof sheetStatusSchema>;
+
+/** Which way a transition goes, as the route names it. */
+export type SheetAction = 'submit' | 'return' | 'check' | 'issue';
+
+const note = z.string().trim().max(2000, 'Keep the note under 2000 characters.');
+
+/** Starts a revision of a truss's calc sheet from one of its analysis runs. */
+export const newSheetRevisionSchema = z.object({
+  runId: z.number({ error: 'Give the analysis run as a number.' }).int().positive('Choose an analysis run.'),
+  note: note.default(''),
+});
+export type NewSheetRevisionInput = z.input<typeof newSheetRevisionSchema>;
+
+/** Body of submit / return / check / issue: an optional note kept in the audit log. */
+export const sheetTransitionSchema = z.object({ note: note.default('') });
+export type SheetTransitionInput = z.input<typeof sheetTransitionSchema>;
+
+/**
+ * A comment on one step of the sheet. `anchor` is the solver's step id as printed on the sheet
+ * (e.g. "case-D/joint-C"); a reply names its thread's first comment in `parentId` and takes
+ * that comment's anchor.
+ */
+export const newSheetCommentSchema = z
+  .object({
+    anchor: z
+      .string()
+      .trim()
+      .min(1, 'Say which step the comment is on.')
+      .max(200)
+      .regex(/^[A-Za-z0-9][A-Za-z0-9._:/-]*$/, 'A step anchor is the step id on the sheet, e.g. "case-D/joint-C".')
+      .optional(),
+    body: z.string().trim().min(1, 'Write the comment.').max(4000, 'Keep a comment under 4000 characters.'),
+    parentId: z.number().int().positive().optional(),
+  })
+  .refine((v) => v.anchor !== undefined || v.parentId !== undefined, {
+    message: 'Give the step anchor for a new comment, or parentId for a reply.',
+    path: ['anchor'],
+  });
+export type NewSheetCommentInput = z.input<typeof newSheetCommentSchema>;
+
+/** Marks a comment thread resolved, or open again. */
+export const sheetCommentResolveSchema = z.object({ resolved: z.boolean({ error: 'Say resolved: true or false.' }) });
+export type SheetCommentResolveInput = z.infer<typeof sheetCommentResolveSchema>;
+
+/** Archive search; every field optional, matched case-insensitively as a part of the text. */
+export const archiveQuerySchema = z.object({
+  /** Matches job number, project name or truss name. */
+  q: z.string().trim().max(200).optional(),
+  jobNumber: z.string().trim().max(40).optional(),
+  project: z.string().trim().max(160).optional(),
+  truss: z.string().trim().max(160).optional(),
+  /** Include superseded revisions (default true). */
+  superseded: z.enum(['include', 'exclude']).default('include'),
+});
+export type ArchiveQuery = z.input<typeof archiveQuerySchema>;
+
+export interface PersonRef {
+  id: number;
+  name: string;
+}
+
+/** One line of the audit log: who moved the revision from which status to which, when, why. */
+export interface SheetEventView {
+  id: number;
+  /** null for the revision's creation. */
+  from: SheetStatus | null;
+  to: SheetStatus;
+  by: PersonRef | null;
+  /** ISO 8601. */
+  at: string;
+  note: string;
+}
+
+export interface SheetCommentView {
+  id: number;
+  /** The revision the comment was made on. */
+  revisionId: number;
+  revisionLabel: string;
+  anchor: string;
+  body: string;
+  author: PersonRef;
+  createdAt: string;
+  /** The thread's first comment; null for a thread's first comment. */
+  parentId: number | null;
+  /** Threads only (replies are never resolved on their own). */
+  resolved: boolean;
+  resolvedBy: PersonRef | null;
+  resolvedAt: string | null;
+  /** Replies, oldest first (empty on replies). */
+  replies: SheetCommentView[];
+}
+
+/** A signature on the sheet: who, in what role, when. */
+export interface SheetSignerView {
+  role: 'prepared' | 'checked' | 'issued';
+  userId: number;
+  name: string;
+  at: string;
+}
+
+/** What issuing fixed: the stored PDF's fingerprint and the firm's signature of the record. */
+export interface SheetIssueView {
+  sha256: string;
+  size: number;
+  issuedAt: string;
+  signers: SheetSignerView[];
+  /** The canonical JSON the firm key signed. */
+  record: string;
+  /** Ed25519 signature of `record`, base64. */
+  signature: string;
+  /** SHA-256 (hex) of the signing public key (SPKI DER). */
+  keyFingerprint: string;
+}
+
+export interface SheetRevisionSummaryView {
+  id: number;
+  projectId: number;
+  trussId: number;
+  runId: number;
+  /** 1, 2, 3 … per truss. */
+  number: number;
+  /** As printed on the sheet: A, B, C … */
+  label: string;
+  status: SheetStatus;
+  preparedBy: PersonRef;
+  checkedBy: PersonRef | null;
+  issuedBy: PersonRef | null;
+  createdAt: string;
+  updatedAt: string;
+  supersededBy: { id: number; label: string } | null;
+  /** Unresolved threads made on this revision. */
+  openCommentCount: number;
+}
+
+export interface SheetRevisionView extends SheetRevisionSummaryView {
+  project: { id: number; name: string; jobNumber: string };
+  truss: { id: number; name: string };
+  /** Audit log, oldest first. */
+  events: SheetEventView[];
+  /**
+   * Comment threads made on this revision and on every earlier revision of the truss, oldest
+   * first, each with the revision it was made on and whether it is resolved.
+   */
+  comments: SheetCommentView[];
+  /** Ids of the unresolved threads among `comments` (a returned revision lists these). */
+  openCommentIds: number[];
+  /** Set once issued. */
+  issue: SheetIssueView | null;
+  /** The app page of this revision (PUBLIC_URL + /sheets/:id), as linked in e-mails. */
+  pageUrl: string;
+}
+
+export interface ArchiveEntryView {
+  sheetId: number;
+  projectId: number;
+  jobNumber: string;
+  projectName: string;
+  trussId: number;
+  trussName: string;
+  number: number;
+  label: string;
+  status: 'issued' | 'superseded';
+  issuedAt: string;
+  sha256: string;
+  size: number;
+  signers: SheetSignerView[];
+  supersededBy: { id: number; label: string } | null;
+}
+
+/**
+ * The verify page's answer. `match` is null when no issued sheet has the upload's SHA-256 (an
+ * altered copy, or not one of ours).
+ */
+export interface SheetVerifyView {
+  sha256: string;
+  size: number;
+  match: ArchiveEntryView | null;
+  /**
+   * 'valid': the firm key's signature verifies over the record rebuilt from the database as it
+   * is now; 'invalid': it does not (the record was changed after issue); null: no match.
+   */
+  signature: 'valid' | 'invalid' | null;
+  /** 'intact' when the archived file still hashes to the recorded SHA-256. */
+  archivedFile: 'intact' | 'altered' | 'missing' | null;
+  /** Plain sentence for the page. */
+  verdict: string;
+}
+
+export interface FirmSigningKeyView {
+  algorithm: 'Ed25519';
+  /** SPKI public key, PEM. */
+  publicKeyPem: string;
+  /** SHA-256 (hex) of the SPKI DER. */
+  fingerprint: string;
+}
+
+/** Revision labels: 1 → A, 26 → Z, 27 → AA (the sheet's revision letter). */
+export function sheetRevisionLabel(n: number): string {
+  if (!Number.isInteger(n) || n < 1) throw new RangeError(`A revision number is a whole number from 1; got ${n}.`);
+  let label = '';
+  let rest = n;
+  while (rest > 0) {
+    const d = (rest - 1) % 26;
+    label = String.fromCharCode(65 + d) + label;
+    rest = Math.floor((rest - 1) / 26);
+  }
+  return label;
+}
