@@ -18,6 +18,9 @@ import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { projectsRoutes } from './modules/projects/projects.routes';
 import { drawingsRoutes } from './modules/drawings/drawings.routes';
 import { modelsRoutes } from './modules/models/models.routes';
+import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
+import { runsRoutes } from './modules/runs/runs.routes';
+import { solvePoolCreate } from './modules/runs/solve-pool';
 import { localFileStore } from './storage/file-store';
 import { reviewRoutes } from './modules/review/review.routes';
 import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/review/firm-key';
@@ -49,6 +52,8 @@ export interface CreatedApp {
   /** Every API route with who may call it. */
   routes: RouteSpec[];
   close(): void;
+  /** Terminates the solver worker threads. */
+  stopWorkers(): Promise<void>;
 }
 
 /** Builds the Express app without listening, so tests can drive it with supertest. */
@@ -103,6 +108,9 @@ export function createApp(deps: AppDeps): CreatedApp {
   const uploads = localFileStore(config.uploadsDir);
   app.use('/api', drawingsRoutes(registry, { store: uploads, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
   app.use('/api', modelsRoutes(registry));
+  app.use('/api', takeoffRoutes(registry));
+  const solvePool = solvePoolCreate();
+  app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
   app.use(
     '/api',
     reviewRoutes(registry, {
@@ -131,5 +139,6 @@ export function createApp(deps: AppDeps): CreatedApp {
     app,
     routes: registry,
     close: () => (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions(),
+    stopWorkers: () => solvePool.close(),
   };
 }

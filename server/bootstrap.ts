@@ -59,6 +59,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     sink,
     async shutdown() {
       created.close();
+      await created.stopWorkers();
       await sink?.close();
       await sequelize.close();
     },

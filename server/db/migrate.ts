@@ -2,12 +2,14 @@ import { Umzug, SequelizeStorage } from 'umzug';
 import type { Sequelize } from 'sequelize';
 import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-drawings-and-models';
+import * as m0003 from './migrations/0003-analysis-runs';
 import * as m0004 from './migrations/0004-sheet-revisions';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
   { name: '0001-initial', ...m0001 },
   { name: '0002-drawings-and-models', ...m0002 },
+  { name: '0003-analysis-runs', ...m0003 },
   { name: '0004-sheet-revisions', ...m0004 },
 ];
 

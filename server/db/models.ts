@@ -263,6 +263,7 @@ export function initModels(sequelize: Sequelize): void {
   );
 
   initSheetModels(sequelize);
+  initRunModels(sequelize);
 }
 
 function initSheetModels(sequelize: Sequelize): void {
@@ -322,5 +323,47 @@ function initSheetModels(sequelize: Sequelize): void {
       ...timestamps,
     },
     { sequelize, tableName: 'sheet_comments' },
+  );
+}
+
+/** An analysis run: an immutable snapshot of a truss model and, once solved, its results. */
+export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreationAttributes<AnalysisRun>> {
+  declare id: CreationOptional<number>;
+  declare trussId: number;
+  declare modelVersion: number;
+  declare status: 'queued' | 'running' | 'solved' | 'unstable' | 'failed';
+  /** JSON texts: RunProgress, TrussModel, { input, result } of the takeoff, TrussAnalysis, summary, error. */
+  declare progress: string;
+  declare model: string;
+  declare takeoff: string | null;
+  declare analysis: string | null;
+  declare summary: string | null;
+  declare error: string | null;
+  declare ranById: number | null;
+  declare startedAt: Date | null;
+  declare finishedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+function initRunModels(sequelize: Sequelize): void {
+  AnalysisRun.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      trussId: { type: DataTypes.INTEGER, allowNull: false },
+      modelVersion: { type: DataTypes.INTEGER, allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false },
+      progress: { type: DataTypes.TEXT, allowNull: false },
+      model: { type: DataTypes.TEXT, allowNull: false },
+      takeoff: { type: DataTypes.TEXT, allowNull: true },
+      analysis: { type: DataTypes.TEXT, allowNull: true },
+      summary: { type: DataTypes.TEXT, allowNull: true },
+      error: { type: DataTypes.TEXT, allowNull: true },
+      ranById: { type: DataTypes.INTEGER, allowNull: true },
+      startedAt: { type: DataTypes.DATE, allowNull: true },
+      finishedAt: { type: DataTypes.DATE, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'analysis_runs' },
   );
 }

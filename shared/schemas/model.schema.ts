@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { combinationSchema, loadCaseSchema, memberSchema, supportSchema } from '@shared/model/truss';
+import { takeoffInputSchema } from '@shared/schemas/run.schema';
 
 /**
  * What an engineer saves: supports, loads, combinations and member properties. Geometry
@@ -12,6 +13,7 @@ export const modelSaveSchema = z.object({
   loadCases: z.array(loadCaseSchema),
   combinations: z.array(combinationSchema),
   members: z.array(memberSchema.pick({ id: true, group: true, E: true, A: true, EA: true, material: true, section: true })),
-  takeoff: z.unknown().optional(),
+  /** The roof takeoff's inputs; null removes it, leaving it out keeps the saved one. */
+  takeoff: takeoffInputSchema.nullable().optional(),
 });
 export type ModelSaveInput = z.infer<typeof modelSaveSchema>;

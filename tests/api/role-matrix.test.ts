@@ -50,6 +50,11 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/archive': ALL,
   'POST /api/archive/verify': ALL,
   'GET /api/firm/signing-key': ['admin'],
+  'POST /api/trusses/:id/takeoff/preview': ['engineer'],
+  'POST /api/trusses/:id/runs': ['engineer'],
+  'GET /api/trusses/:id/runs': ALL,
+  'GET /api/runs/:id': ALL,
+  'GET /api/runs/:id/forces.csv': ALL,
 };
 
 let services: Services;

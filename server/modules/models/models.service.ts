@@ -4,6 +4,7 @@ import type { ModelSaveInput } from '@shared/schemas/model.schema';
 import { AppError, conflict, notFound } from '../../errors/app-error';
 import { TrussModelRecord, User } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
+import { assertTakeoffCases, computeTakeoff, takeoffParseStored } from '../takeoff/takeoff-compute';
 
 async function toView(r: TrussModelRecord): Promise<TrussModelView> {
   const by = r.updatedById ? await User.findByPk(r.updatedById, { attributes: ['name'] }) : null;
@@ -75,6 +76,12 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
     }
     const model = JSON.parse(record.model) as TrussModel;
     assertReferences(model, input);
+    // The takeoff kept or sent must still fit: its cases exist and its purlins sit on top-chord joints.
+    const takeoff = input.takeoff === undefined ? takeoffParseStored(record.takeoff) : input.takeoff;
+    if (takeoff) {
+      assertTakeoffCases(takeoff, input.loadCases);
+      computeTakeoff(model, takeoff);
+    }
     const props = new Map(input.members.map((m) => [m.id, m]));
     const next: TrussModel = {
       joints: model.joints,

@@ -1,0 +1,79 @@
+import { AnalysisRun, TrussModelRecord, User } from '../../db/models';
+
+/** A run row as plain data; the JSON columns stay text so big results are never parsed needlessly. */
+export interface RunRow {
+  id: number;
+  trussId: number;
+  modelVersion: number;
+  status: AnalysisRun['status'];
+  progress: string;
+  model: string;
+  takeoff: string | null;
+  analysis: string | null;
+  summary: string | null;
+  error: string | null;
+  ranById: number | null;
+  ranBy: string;
+  startedAt: Date | null;
+  finishedAt: Date | null;
+  createdAt: Date;
+}
+
+type RunUpdate = Partial<Pick<AnalysisRun, 'status' | 'progress' | 'analysis' | 'summary' | 'error' | 'startedAt' | 'finishedAt'>>;
+
+const LIST_ATTRIBUTES = ['id', 'trussId', 'modelVersion', 'status', 'progress', 'takeoff', 'summary', 'error', 'ranById', 'startedAt', 'finishedAt', 'createdAt'] as const;
+
+async function namesOf(ids: (number | null)[]): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((id): id is number => id !== null))];
+  if (!wanted.length) return new Map();
+  const users = await User.findAll({ where: { id: wanted }, attributes: ['id', 'name'] });
+  return new Map(users.map((u) => [u.id, u.name]));
+}
+
+function toRow(r: AnalysisRun, names: Map<number, string>): RunRow {
+  return {
+    id: r.id,
+    trussId: r.trussId,
+    modelVersion: r.modelVersion,
+    status: r.status,
+    progress: r.progress,
+    model: r.model ?? '',
+    takeoff: r.takeoff ?? null,
+    analysis: r.analysis ?? null,
+    summary: r.summary ?? null,
+    error: r.error ?? null,
+    ranById: r.ranById,
+    ranBy: r.ranById !== null ? (names.get(r.ranById) ?? '') : '',
+    startedAt: r.startedAt ?? null,
+    finishedAt: r.finishedAt ?? null,
+    createdAt: new Date(r.createdAt),
+  };
+}
+
+export async function insertRun(values: Omit<RunRow, 'id' | 'ranBy' | 'createdAt'>): Promise<RunRow> {
+  const created = await AnalysisRun.create(values);
+  return toRow(created, await namesOf([created.ranById]));
+}
+
+export async function updateRun(id: number, values: RunUpdate): Promise<void> {
+  await AnalysisRun.update(values, { where: { id } });
+}
+
+/** A run with its snapshot and results, or null. */
+export async function findRun(id: number): Promise<RunRow | null> {
+  const r = await AnalysisRun.findByPk(id);
+  return r ? toRow(r, await namesOf([r.ranById])) : null;
+}
+
+/** A truss's runs without snapshots or results, newest first. */
+export async function listRuns(trussId: number): Promise<RunRow[]> {
+  const rows = await AnalysisRun.findAll({ where: { trussId }, attributes: [...LIST_ATTRIBUTES], order: [['id', 'DESC']] });
+  const names = await namesOf(rows.map((r) => r.ranById));
+  return rows.map((r) => toRow(r, names));
+}
+
+/** The working model's current version, or null when the truss has no model. */
+export async function currentModelVersion(trussId: number): Promise<number | null> {
+  const record = await TrussModelRecord.findByPk(trussId, { attributes: ['version'] });
+  return record ? record.version : null;
+}

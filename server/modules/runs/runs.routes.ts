@@ -1,0 +1,22 @@
+import { runCreateSchema } from '@shared/schemas/run.schema';
+import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
+import { idParam, validateBody } from '../../middleware/validate';
+import * as runs from './runs.service';
+
+export function runsRoutes(registry: RouteSpec[], deps: runs.RunsDeps) {
+  const routes = new ApiRoutes('/api', registry);
+  routes.add('post', '/trusses/:id/runs', ['engineer'], validateBody(runCreateSchema), async (req, res) => {
+    res.status(202).json(await runs.startRun(idParam(req.params.id, 'That truss'), req.body, req.user!.id, deps));
+  });
+  routes.add('get', '/trusses/:id/runs', ANY_ROLE, async (req, res) => {
+    res.json(await runs.listRuns(idParam(req.params.id, 'That truss')));
+  });
+  routes.add('get', '/runs/:id', ANY_ROLE, async (req, res) => {
+    res.type('application/json').send(await runs.getRunJson(idParam(req.params.id, 'That analysis run')));
+  });
+  routes.add('get', '/runs/:id/forces.csv', ANY_ROLE, async (req, res) => {
+    const { csv, fileName } = await runs.getForcesCsv(idParam(req.params.id, 'That analysis run'));
+    res.attachment(fileName).type('text/csv; charset=utf-8').send(csv);
+  });
+  return routes.router;
+}

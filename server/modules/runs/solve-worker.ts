@@ -1,0 +1,33 @@
+import { parentPort } from 'node:worker_threads';
+import { SolverError, trussSolve, type TrussAnalysis } from '@shared/solver';
+import type { SolveJob, SolveReply, SolveSummary } from './solve-pool';
+
+function summaryOf(analysis: TrussAnalysis): SolveSummary {
+  const c = analysis.classification;
+  const residuals = [...analysis.cases.map((r) => r.residual), ...analysis.combinations.map((r) => r.residual)];
+  return {
+    classification: { kind: c.kind, degree: c.degree, mechanismJoints: c.mechanismJoints, message: c.message },
+    maxResidual: residuals.length ? Math.max(...residuals) : null,
+    caseCount: analysis.cases.length,
+    combinationCount: analysis.combinations.length,
+  };
+}
+
+/** Solves one job. The result goes back as JSON text: one string copy instead of a deep clone. */
+function solve(job: SolveJob): SolveReply {
+  try {
+    const analysis = trussSolve(job.model);
+    return { jobId: job.jobId, type: 'solved', analysisJson: JSON.stringify(analysis), summary: summaryOf(analysis) };
+  } catch (err) {
+    if (err instanceof SolverError) return { jobId: job.jobId, type: 'failed', error: { code: err.code, message: err.message } };
+    const message = err instanceof Error ? err.message : String(err);
+    return { jobId: job.jobId, type: 'failed', error: { code: 'solver-crashed', message: `The solver stopped with an unexpected error (${message}). Tell your admin; the model is unchanged.` } };
+  }
+}
+
+const port = parentPort;
+if (!port) throw new Error('solve-worker.ts runs only as a worker thread (see solve-pool.ts).');
+port.on('message', (job: SolveJob) => {
+  port.postMessage({ jobId: job.jobId, type: 'started' } satisfies SolveReply);
+  port.postMessage(solve(job));
+});

@@ -1,0 +1,80 @@
+import type { LoadCase, TrussModel } from '@shared/model/truss';
+import { takeoffInputSchema, type TakeoffInput } from '@shared/schemas/run.schema';
+import { roofTakeoff, TakeoffError, type RoofTakeoffInput, type RoofTakeoffResult } from '@shared/takeoff';
+import { unitConvert } from '@shared/units';
+import { AppError } from '../../errors/app-error';
+
+/** The shared takeoff's input for a saved takeoff on a truss: joints from the model, q in kPa. */
+export function takeoffRoofInput(model: TrussModel, input: TakeoffInput): RoofTakeoffInput {
+  return {
+    joints: model.joints,
+    topChordJoints: input.topChordJoints,
+    ...(input.purlinJoints ? { purlinJoints: input.purlinJoints } : {}),
+    areaLoads: input.areaLoads.map((l) => ({
+      caseId: l.caseId,
+      q: l.unit === 'psf' ? unitConvert(l.q, 'psf', 'kPa') : l.q,
+      basis: l.basis,
+    })),
+    spacing: input.spacing,
+    trussCount: input.trussCount,
+    trussIndex: input.trussIndex,
+    method: input.method,
+  };
+}
+
+/**
+ * Refuses a takeoff whose area loads write load cases the model does not have. The takeoff
+ * fills existing cases (so combinations can name them); it never invents one.
+ */
+export function assertTakeoffCases(input: TakeoffInput, loadCases: readonly Pick<LoadCase, 'id'>[]): void {
+  const ids = new Set(loadCases.map((c) => c.id));
+  for (const l of input.areaLoads) {
+    if (!ids.has(l.caseId)) {
+      throw new AppError(
+        'unknown-load-case',
+        `The roof takeoff writes load case "${l.caseId}", which the model does not have. Add that load case first, or choose one of: ${[...ids].join(', ') || '(none yet)'}.`,
+        400,
+      );
+    }
+  }
+}
+
+/**
+ * Runs the roof takeoff against the model's joints. A takeoff error (purlin off the top chord,
+ * unknown joint, …) becomes a 400 that keeps the takeoff's code and message.
+ */
+export function computeTakeoff(model: TrussModel, input: TakeoffInput): RoofTakeoffResult {
+  try {
+    return roofTakeoff(takeoffRoofInput(model, input));
+  } catch (err) {
+    if (err instanceof TakeoffError) throw new AppError(err.code, err.message, 400);
+    throw err;
+  }
+}
+
+/**
+ * The model with the takeoff's joint loads put in: each case the takeoff writes has its loads
+ * replaced; every other case stays as saved. The input model is not changed.
+ */
+export function takeoffApply(model: TrussModel, result: RoofTakeoffResult): TrussModel {
+  return {
+    ...model,
+    loadCases: model.loadCases.map((lc) => (lc.id in result.caseLoads ? { ...lc, loads: result.caseLoads[lc.id] } : lc)),
+  };
+}
+
+
+/**
+ * Reads the takeoff kept in a model's `takeoff` column. It was validated when saved; a text
+ * that no longer parses (saved before validation existed) is refused with a way out.
+ */
+export function takeoffParseStored(text: string | null): TakeoffInput | null {
+  if (!text) return null;
+  const parsed = takeoffInputSchema.safeParse(JSON.parse(text));
+  if (parsed.success) return parsed.data;
+  throw new AppError(
+    'saved-takeoff-unreadable',
+    'The roof takeoff saved with this model is not in a form this server reads. Open the takeoff form, check its values and save it again.',
+    400,
+  );
+}
