@@ -441,9 +441,9 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
   const clauses = [...new Set(model.combinations.map((c) => c.clause).filter((c): c is string => !!c))];
   const contents: { anchor: string; title: string }[] = unstable
     ? [
-        { anchor: 'design-basis', title: 'Design basis and caution' },
-        { anchor: 'geometry', title: 'Geometry' },
         { anchor: 'stability', title: 'Stability and determinacy — finding' },
+        { anchor: 'geometry', title: 'Geometry' },
+        { anchor: 'design-basis', title: 'Design basis and caution' },
       ]
     : [
         { anchor: 'design-basis', title: 'Design basis and caution' },

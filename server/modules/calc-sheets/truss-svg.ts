@@ -368,6 +368,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
     ...step.unknowns.map((f) => ({ f, unknown: true })),
   ];
   const labels: string[] = [];
+  const memberDirs = all.filter(({ f }) => f.ref.type === 'member').map(({ f }): [number, number] => [f.cx, -f.cy]);
   const used: [number, number][] = [];
   const place = (x: number, y: number): [number, number] => {
     let py = y;
@@ -410,16 +411,31 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
       const sign = f.value !== null && f.value < 0 ? -1 : 1;
       const dx = ux * sign;
       const dy = uy * sign;
-      const tipX = cx - dx * 9;
-      const tipY = cy - dy * 9;
-      const tailX = tipX - dx * 56;
-      const tailY = tipY - dy * 56;
+      // Draw the arrow on the side of the joint with more room: pushing onto the joint from
+      // outside (body on the −d side) or pulling away from it (body on the +d side).
+      const clearance = (bx: number, by: number) =>
+        Math.min(Math.PI, ...memberDirs.map(([mx, my]) => Math.acos(Math.max(-1, Math.min(1, bx * mx + by * my)))));
+      const push = clearance(-dx, -dy) >= clearance(dx, dy) - 1e-9;
+      const near = 9;
+      const far = 62;
+      const tipD = push ? near : far;
+      const tailD = push ? far : near;
+      const side = push ? -1 : 1;
+      const tipX = cx + side * dx * tipD;
+      const tipY = cy + side * dy * tipD;
+      const tailX = cx + side * dx * tailD;
+      const tailY = cy + side * dy * tailD;
       const colour = f.ref.type === 'load' ? '#1d4ed8' : '#6d28d9';
       out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - dx * 8)}" y2="${f1(tipY - dy * 8)}" stroke="${colour}" stroke-width="2"/>`);
       out.push(arrowHead(tipX, tipY, dx, dy, 10, colour));
-      const [lx, ly] = place(tailX - dx * 6, tailY - dy * 6 + 4);
-      const anchor = dx > 0.3 ? 'end' : dx < -0.3 ? 'start' : 'middle';
-      labels.push(haloText(lx, ly + (dy > 0.5 ? -4 : dy < -0.5 ? 8 : 0), forceLabel(f, 'other', options.formatForce, options.zeroTolerance), `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
+      const endX = cx + side * dx * (far + 8);
+      const endY = cy + side * dy * (far + 8);
+      const [lx, ly] = place(endX, endY + 4);
+      const ax = side * dx;
+      const anchor = ax > 0.3 ? 'start' : ax < -0.3 ? 'end' : 'middle';
+      const ay = side * dy;
+      const text = f.ref.type === 'load' ? `P = ${options.formatForce(Math.abs(f.value ?? 0))}` : forceLabel(f, 'other', options.formatForce, options.zeroTolerance);
+      labels.push(haloText(lx, ly + (ay > 0.5 ? 8 : ay < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
     }
   }
   out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="#fff" stroke="${INK}" stroke-width="2"/>`);

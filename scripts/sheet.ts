@@ -1,0 +1,71 @@
+/**
+ * `npm run -s sheet -- JOB.json OUT.pdf`: writes the calc sheet of a job file (the solve
+ * command's format, see scripts/job.ts) as a PDF, with a demo firm and project in the title block.
+ *
+ * Exit 0 when the PDF was written (also for an unstable truss: its short sheet states the
+ * finding); exit 2 with one line on stderr for bad input or a missing Chromium; exit 1 for an
+ * unexpected failure. The PDF is written to a temporary name and renamed, so a failed print
+ * leaves no file behind.
+ */
+import path from 'node:path';
+import { DxfImportError } from '@shared/dxf-import/index';
+import { SolverError, trussSolve } from '@shared/solver/index';
+import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
+import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
+import { createSheetPrinter, SheetPrintError } from '../server/modules/calc-sheets/sheet-printer';
+import { JobError, jobLoad } from './job';
+
+const USAGE = 'Usage: npm run -s sheet -- JOB.json OUT.pdf';
+
+function oneLine(message: string): string {
+  return message.replace(/\s*\n\s*/g, ' ').trim();
+}
+
+async function main(args: string[]): Promise<void> {
+  const [jobPath, outPath] = args;
+  if (!jobPath || !outPath || args.length > 2) throw new JobError(USAGE);
+  if (!/\.pdf$/i.test(outPath)) throw new JobError(`The output ${outPath} should end in .pdf. ${USAGE}`);
+  const { model } = jobLoad(jobPath);
+  const analysis = trussSolve(model);
+  const paper = process.env.SHEET_PAPER === 'Letter' ? 'Letter' : 'A4';
+  const view = buildCalcSheetView({
+    firm: { name: 'Harrow & Vale Structural (demo)', address: '4 Tanner’s Yard, Northgate', paperSize: paper },
+    project: {
+      name: 'Kestrel Logistics — warehouse roof',
+      jobNumber: 'HV-2417',
+      client: 'Kestrel Logistics (demo)',
+      site: 'Unit 7, Furlong Park (demo)',
+      designBasis: 'Demo project for the calc sheet command. Loads and combinations as given in the job file; member design is outside this sheet.',
+      unitSystem: 'SI',
+    },
+    trussName: path.basename(jobPath, path.extname(jobPath)),
+    subject: `Truss ${path.basename(jobPath, path.extname(jobPath))} — member forces`,
+    revision: 'P1',
+    model,
+    analysis,
+    preparedBy: { name: 'Panelpoint sheet command' },
+    runLabel: path.basename(jobPath),
+    generatedAt: new Date(),
+  });
+  const html = renderCalcSheetHtml(view);
+  const printer = createSheetPrinter({ chromiumPath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium' });
+  try {
+    await printer.printToFile(html, paper, outPath);
+  } finally {
+    await printer.close();
+  }
+}
+
+main(process.argv.slice(2)).catch((e: unknown) => {
+  if (e instanceof JobError || e instanceof SolverError || e instanceof DxfImportError) {
+    const code = e instanceof JobError ? 'bad-job' : e.code;
+    process.stderr.write(`sheet: ${code}: ${oneLine(e.message)}\n`);
+    process.exitCode = 2;
+  } else if (e instanceof SheetPrintError) {
+    process.stderr.write(`sheet: ${e.code}: ${oneLine(e.message)}\n`);
+    process.exitCode = e.code === 'chromium-missing' ? 2 : 1;
+  } else {
+    process.stderr.write(`sheet: unexpected failure: ${oneLine(e instanceof Error ? e.message : String(e))}\n`);
+    process.exitCode = 1;
+  }
+});
