@@ -77,11 +77,11 @@ export function AppShell() {
   return (
     <div className="flex min-h-screen flex-col">
       <header className="border-b border-paper-line bg-paper-raised/70">
-        <div className="mx-auto flex h-14 max-w-6xl items-stretch gap-6 px-6">
+        <div className="mx-auto flex min-h-14 max-w-6xl flex-wrap items-stretch gap-x-6 px-6">
           <NavLink to="/projects" className="flex items-center" aria-label="Panelpoint, projects">
             <Wordmark />
           </NavLink>
-          <nav aria-label="Main" className="flex items-stretch">
+          <nav aria-label="Main" className="flex h-14 items-stretch">
             <NavItem to="/projects">Projects</NavItem>
             {isAdmin(user.role) && (
               <>
@@ -92,10 +92,10 @@ export function AppShell() {
               </>
             )}
           </nav>
-          <div className="ml-auto flex items-center gap-3">
-            <div className="text-right leading-tight">
+          <div className="ml-auto flex h-14 items-center gap-3">
+            <div className="hidden text-right leading-tight sm:block">
               <div className="text-sm font-medium text-ink">{user.name}</div>
-              <div className="text-[11px] text-ink-faint">{user.email}</div>
+              <div className="hidden text-[11px] text-ink-faint lg:block">{user.email}</div>
             </div>
             <Badge tone="accent">{ROLE_LABELS[user.role]}</Badge>
             <Button
