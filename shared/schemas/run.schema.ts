@@ -68,6 +68,15 @@ export const takeoffInputSchema = z
     method: z.enum(['exact', 'tributary'], { error: "Choose 'exact' (continuous purlin) or 'tributary' (tributary length)." }),
   })
   .superRefine((v, ctx) => {
+    const seen = new Set<string>();
+    v.areaLoads.forEach((l, i) => {
+      if (seen.has(l.caseId)) {
+        ctx.addIssue({ code: 'custom', path: ['areaLoads', i, 'caseId'], message: `Load case "${l.caseId}" has two area loads; give each its own case.` });
+      }
+      seen.add(l.caseId);
+    });
+    // A bad count is reported on its own; the index and spacings are checked against a good one.
+    if (!Number.isInteger(v.trussCount) || v.trussCount < 2) return;
     if (v.trussIndex >= v.trussCount) {
       ctx.addIssue({
         code: 'custom',
@@ -82,13 +91,6 @@ export const takeoffInputSchema = z
         message: `${v.trussCount} trusses have ${v.trussCount - 1} spacings, but ${v.spacing.length} were given.`,
       });
     }
-    const seen = new Set<string>();
-    v.areaLoads.forEach((l, i) => {
-      if (seen.has(l.caseId)) {
-        ctx.addIssue({ code: 'custom', path: ['areaLoads', i, 'caseId'], message: `Load case "${l.caseId}" has two area loads; give each its own case.` });
-      }
-      seen.add(l.caseId);
-    });
   });
 export type TakeoffInput = z.infer<typeof takeoffInputSchema>;
 
