@@ -2,18 +2,7 @@
 // "@tarikjabiri/dxf" (writes AC1021, i.e. R2007 flavour) and "dxf-writer" (also AC1021).
 // Expected joints are the coordinates handed to the writers (closed form).
 import { describe, expect, it } from 'vitest';
-import {
-  DxfWriter,
-  HatchBoundaryPaths,
-  HatchPolylineBoundary,
-  HatchPredefinedPatterns,
-  MTextAttachmentPoint,
-  Units,
-  pattern,
-  point3d,
-  vertex,
-} from '@tarikjabiri/dxf';
-import Drawing from 'dxf-writer';
+import { kingPostInches, pitchedTrussMm } from './fixtures/dxf/writer-drawings';
 import { dxfImport, dxfLayers, dxfParse, type DxfImportResult, type DxfReportKind } from '@shared/dxf-import';
 
 function entries(r: DxfImportResult, kind: DxfReportKind) {
@@ -26,40 +15,6 @@ function jointAt(r: DxfImportResult, x: number, y: number, eps = 1e-9) {
 }
 function hasMember(r: DxfImportResult, a: string, b: string) {
   return r.members.some((m) => (m.from === a && m.to === b) || (m.from === b && m.to === a));
-}
-
-/**
- * Pitched truss, span 8000 mm, rise 2000 mm, written with @tarikjabiri/dxf: bottom chord one
- * LINE, top chord one LWPOLYLINE over the apex, webs from blocks (nested, one mirrored by
- * x-scale −1, one rotated 90°), an MTEXT tag, and a hatch, circle and dimension on DIMENSIONS.
- */
-function pitchedTrussMm(): string {
-  const d = new DxfWriter();
-  d.setUnits(Units.Millimeters);
-  d.addLayer('CHORDS', 1);
-  d.addLayer('WEBS', 2);
-  d.addLayer('DIMENSIONS', 3);
-  const half = d.addBlock('HALFWEB');
-  half.addLine(point3d(0, 0), point3d(0, 1000));
-  half.addLine(point3d(0, 1000), point3d(2000, 0));
-  const mirrored = d.addBlock('HALFWEB_M');
-  mirrored.addInsert('HALFWEB', point3d(0, 0), { scaleFactor: { x: -1, y: 1, z: 1 } });
-  const kp = d.addBlock('KINGPOST');
-  kp.addLine(point3d(0, 0), point3d(2000, 0));
-  d.addLine(point3d(0, 0), point3d(8000, 0), { layerName: 'CHORDS' });
-  d.addLWPolyline([{ point: { x: 0, y: 0 } }, { point: { x: 4000, y: 2000 } }, { point: { x: 8000, y: 0 } }], { layerName: 'CHORDS' });
-  d.addInsert('HALFWEB', point3d(2000, 0), { layerName: 'WEBS' });
-  d.addInsert('HALFWEB_M', point3d(6000, 0), { layerName: 'WEBS' });
-  d.addInsert('KINGPOST', point3d(4000, 0), { layerName: 'WEBS', rotationAngle: 90 });
-  d.addMText(point3d(4000, 2150), 200, 'K', { layerName: 'DIMENSIONS', attachmentPoint: MTextAttachmentPoint.BottomCenter });
-  const boundary = new HatchPolylineBoundary();
-  for (const [x, y] of [[0, -500], [1000, -500], [1000, -1000], [0, -1000]]) boundary.add(vertex(x, y));
-  const paths = new HatchBoundaryPaths();
-  paths.addPolylineBoundary(boundary);
-  d.addHatch(paths, pattern({ name: HatchPredefinedPatterns.ANSI31 }), { layerName: 'DIMENSIONS' });
-  d.addCircle(point3d(4000, -800), 200, { layerName: 'DIMENSIONS' });
-  d.addLinearDim(point3d(0, 0), point3d(8000, 0), { offset: -1500, layerName: 'DIMENSIONS' });
-  return d.stringify();
 }
 
 describe('pitched truss in millimetres written by @tarikjabiri/dxf (AC1021)', () => {
@@ -104,23 +59,6 @@ describe('pitched truss in millimetres written by @tarikjabiri/dxf (AC1021)', ()
     expect(layers.find((l) => l.name === 'WEBS')!.segments).toBe(5);
   });
 });
-
-/** King-post truss, span 288 in, rise 48 in, written with dxf-writer: closed polyline outline, king post, text tags. */
-function kingPostInches(): string {
-  const w = new Drawing();
-  w.setUnits('Inches');
-  w.addLayer('TRUSS', Drawing.ACI.RED, 'CONTINUOUS');
-  w.addLayer('TAGS', Drawing.ACI.GREEN, 'CONTINUOUS');
-  w.setActiveLayer('TRUSS');
-  w.drawPolyline([[0, 0], [288, 0], [144, 48]], true);
-  w.drawLine(144, 0, 144, 48);
-  w.setActiveLayer('TAGS');
-  w.drawText(-10, -12, 6, 0, 'P');
-  w.drawText(282, -12, 6, 0, 'Q');
-  w.drawText(141, 52, 6, 0, 'R');
-  w.drawCircle(144, -40, 4);
-  return w.toDxfString();
-}
 
 describe('king-post truss in inches written by dxf-writer (AC1021)', () => {
   const r = dxfImport(dxfParse(kingPostInches()));

@@ -228,6 +228,7 @@ function scanGroups(lines: string[]): {
   let entityLayer = '0';
   let lw90 = -1;
   let lw10 = 0;
+  let lwInterrupted = -1; // line of a foreign group after an LWPOLYLINE vertex
   let polylineLine = -1; // line of an open POLYLINE awaiting SEQEND
   let blockLine = -1; // line of a BLOCK whose name (group 2) is still missing
 
@@ -268,6 +269,10 @@ function scanGroups(lines: string[]): {
         throw new DxfImportError('malformed', `The POLYLINE at line ${lineNo(polylineLine)} is not closed by a SEQEND before line ${lineNo(i)}. The file is damaged; save it again from your CAD program and upload that.`);
       }
       if (value === 'SEQEND') polylineLine = -1;
+      // dxf-parser 1.1 loops forever on any other group 0 inside these two tables
+      if (tableRecordWord && value !== tableRecordWord && value !== 'ENDTAB') {
+        throw new DxfImportError('malformed', `The ${tableRecordWord} table holds a "${clip(value)}" record at line ${lineNo(i)} before its ENDTAB. The file is damaged; save it again from your CAD program and upload that.`);
+      }
       if (blockLine >= 0) {
         throw new DxfImportError('malformed', `The block defined at line ${lineNo(blockLine)} has no name (group 2). The file is damaged; save it again from your CAD program and upload that.`);
       }
@@ -298,8 +303,6 @@ function scanGroups(lines: string[]): {
         } else if (value === 'ENDTAB') {
           tableName = null;
           tableRecordWord = null;
-        } else if (tableRecordWord && value !== tableRecordWord) {
-          throw new DxfImportError('malformed', `The ${tableRecordWord} table holds a "${clip(value)}" record at line ${lineNo(i)}. The file is damaged; save it again from your CAD program and upload that.`);
         }
       } else if (section === 'ENTITIES' || section === 'BLOCKS') {
         if (value === 'BLOCK' && section === 'BLOCKS') blockLine = i;
@@ -309,6 +312,7 @@ function scanGroups(lines: string[]): {
         entityLayer = '0';
         lw90 = -1;
         lw10 = 0;
+        lwInterrupted = -1;
       }
     } else if (section === 'HEADER') {
       if (code === 9) headerVar = raw.trim();
@@ -316,9 +320,20 @@ function scanGroups(lines: string[]): {
     } else if (entityType !== null) {
       if (code === 8) entityLayer = raw.trim();
       if (entityType === 'LWPOLYLINE') {
+        // dxf-parser 1.1 reads the vertex list until a group it does not expect, then steps
+        // back: a vertex x (10) without its y (20) makes it loop forever, and a foreign group
+        // between vertices makes it drop the vertices before it.
+        if (prevCode === 10 && code !== 20) {
+          throw new DxfImportError('malformed', `A vertex of the LWPOLYLINE at line ${lineNo(entityLine)} has an x (line ${lineNo(i - 2)}) but no y after it. The file is damaged; save it again from your CAD program and upload that.`);
+        }
         if (code === 90) lw90 = parseInt(raw, 10);
-        else if (code === 10) lw10++;
-        else if (code === 91) drop.push(i);
+        else if (code === 10) {
+          if (lwInterrupted >= 0) {
+            throw new DxfImportError('malformed', `The vertex list of the LWPOLYLINE at line ${lineNo(entityLine)} is interrupted by an unexpected group at line ${lineNo(lwInterrupted)}. The file is damaged; save it again from your CAD program and upload that.`);
+          }
+          lw10++;
+        } else if (code === 91) drop.push(i);
+        else if (lw10 > 0 && code !== 20 && code !== 30 && code !== 40 && code !== 41 && code !== 42) lwInterrupted = i;
       }
     }
     if (blockLine >= 0 && code === 2) blockLine = -1;
