@@ -1,19 +1,17 @@
 import { createBrowserRouter, Navigate } from 'react-router-dom';
 import { AppShell, RequireAdmin, RequireSession } from './app-shell';
-import { RouteError, NotFoundRoute } from './routes/route-error';
+import { RouteError, NotFoundRoute, PageLoading } from './routes/route-error';
 import { SignInRoute } from './routes/sign-in';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectRoute } from './routes/project';
-import { TrussRoute } from './routes/truss';
-import { UsersRoute } from './routes/admin/users';
-import { OutboxRoute } from './routes/admin/outbox';
-import { FirmRoute } from './routes/admin/firm';
 
 export function createAppRouter() {
   return createBrowserRouter([
     {
       errorElement: <RouteError />,
+      // Shown while a lazily loaded page's code arrives on first load.
+      hydrateFallbackElement: <PageLoading />,
       children: [
         { path: '/sign-in', element: <SignInRoute /> },
         { path: '/invite/:token', element: <AcceptInvitationRoute /> },
@@ -30,15 +28,19 @@ export function createAppRouter() {
                 { index: true, element: <Navigate to="/projects" replace /> },
                 { path: '/projects', element: <ProjectsRoute /> },
                 { path: '/projects/:projectId', element: <ProjectRoute /> },
-                { path: '/trusses/:trussId', element: <TrussRoute /> },
+                // The truss page will carry the drawing, loads and solver: loaded when first opened.
+                { path: '/trusses/:trussId', lazy: async () => ({ Component: (await import('./routes/truss')).TrussRoute }) },
+                { path: '/sheets/:sheetId', lazy: async () => ({ Component: (await import('./routes/sheet')).SheetRoute }) },
+                { path: '/archive', lazy: async () => ({ Component: (await import('./routes/archive')).ArchiveRoute }) },
+                { path: '/verify', lazy: async () => ({ Component: (await import('./routes/verify')).VerifyRoute }) },
                 {
                   path: '/admin',
                   element: <RequireAdmin />,
                   children: [
                     { index: true, element: <Navigate to="/admin/users" replace /> },
-                    { path: 'users', element: <UsersRoute /> },
-                    { path: 'outbox', element: <OutboxRoute /> },
-                    { path: 'firm', element: <FirmRoute /> },
+                    { path: 'users', lazy: async () => ({ Component: (await import('./routes/admin/users')).UsersRoute }) },
+                    { path: 'outbox', lazy: async () => ({ Component: (await import('./routes/admin/outbox')).OutboxRoute }) },
+                    { path: 'firm', lazy: async () => ({ Component: (await import('./routes/admin/firm')).FirmRoute }) },
                   ],
                 },
                 { path: '*', element: <NotFoundRoute /> },

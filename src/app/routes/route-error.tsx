@@ -1,5 +1,5 @@
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router-dom';
-import { EmptyState } from '@/components/ui/states';
+import { EmptyState, LoadingState } from '@/components/ui/states';
 import { Wordmark } from '@/components/ui/wordmark';
 
 /** What a page that broke shows instead of a stack trace. */
@@ -31,5 +31,13 @@ export function NotFoundRoute() {
         Go to the projects
       </Link>
     </EmptyState>
+  );
+}
+
+export function PageLoading() {
+  return (
+    <div className="mx-auto max-w-lg px-6 py-16">
+      <LoadingState label="Opening Panelpoint…" />
+    </div>
   );
 }
