@@ -4,6 +4,7 @@ import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import { FORCES_CSV_COLUMNS, type RunSummaryView, type RunView, type TakeoffInput } from '@shared/schemas/run.schema';
 import type { LoadCase, Support } from '@shared/model/truss';
 import { TrussModelRecord } from '../../server/db/models';
+import { csvField } from '../../server/modules/runs/forces-csv';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
@@ -175,6 +176,16 @@ describe('analysis runs', () => {
       new RegExp(`^combination,"Strength, 1\\.4 ""D""",${lm.tag},.*,9\\.333,T,$`),
     );
     expect(lines.find((l) => l.startsWith(`envelope,governing,${MB.LT.tag},`))).toMatch(/,-11\.667,C,"Strength, 1\.4 ""D"""$/);
+  });
+
+  it('when a CSV text field could run as a spreadsheet formula, then it is defused; numbers stay numbers', () => {
+    // RFC 4180 quoting, plus the formula-injection rule of the OWASP "CSV Injection" page (from memory).
+    expect(csvField('=1+2')).toBe("'=1+2");
+    expect(csvField('@SUM(A1)')).toBe("'@SUM(A1)");
+    expect(csvField('-2+3, "x"')).toBe(`"'-2+3, ""x"""`);
+    expect(csvField('line\nbreak')).toBe('"line\nbreak"');
+    expect(csvField(-8.333)).toBe('-8.333');
+    expect(csvField('plain')).toBe('plain');
   });
 
   it('when the supports let the truss slide (two rollers), then the run is stored unstable with the finding and no forces', async () => {
