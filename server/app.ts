@@ -24,7 +24,11 @@ import { solvePoolCreate } from './modules/runs/solve-pool';
 import { localFileStore } from './storage/file-store';
 import { reviewRoutes } from './modules/review/review.routes';
 import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/review/firm-key';
-import { analysisRunsTable, calcSheetsNotWired, type RunSource, type SheetRenderer } from './modules/review/sheet-renderer';
+import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/review/sheet-renderer';
+import { calcSheetRenderer } from './modules/review/calc-sheet-renderer';
+import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
+import { runSheetsRoutes } from './modules/run-sheets/run-sheets.routes';
+import { loadRunSheet } from './modules/run-sheets/run-sheets.service';
 
 export interface AppDeps {
   config: Config;
@@ -35,11 +39,13 @@ export interface AppDeps {
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
   review?: ReviewDeps;
+  /** Prints calc sheets; default: one shared Chromium through puppeteer-core. */
+  printer?: SheetPrinter;
 }
 
 /** What the check-and-issue routes take from outside; each has a default. */
 export interface ReviewDeps {
-  /** Prints a run's calc sheet; default: not wired yet (issuing answers 503). */
+  /** Prints a run's calc sheet; default: the real calc sheet through the app's printer. */
   renderer?: SheetRenderer;
   /** Finds analysis runs; default: the analysis_runs table. */
   runs?: RunSource;
@@ -51,9 +57,8 @@ export interface CreatedApp {
   app: Express;
   /** Every API route with who may call it. */
   routes: RouteSpec[];
-  close(): void;
-  /** Terminates the solver worker threads. */
-  stopWorkers(): Promise<void>;
+  /** Stops the session sweeper, the solver workers and the sheet printer's browser. */
+  close(): Promise<void>;
 }
 
 /** Builds the Express app without listening, so tests can drive it with supertest. */
@@ -111,14 +116,15 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', takeoffRoutes(registry));
   const solvePool = solvePoolCreate();
   app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
+  // One Chromium for the app, started on the first print and shared by every request.
+  const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
+  app.use('/api', runSheetsRoutes(registry, { printer, publicUrl }));
   app.use(
     '/api',
     reviewRoutes(registry, {
       mailer: deps.mailer,
       publicUrl,
-      // TODO: calcSheetRenderer (modules/review/calc-sheet-renderer.ts) once the runs module
-      // can hand over a run's calc-sheet input.
-      renderer: deps.review?.renderer ?? calcSheetsNotWired,
+      renderer: deps.review?.renderer ?? calcSheetRenderer({ printer, loadRunSheet }),
       runs: deps.review?.runs ?? analysisRunsTable(deps.sequelize),
       key: deps.review?.firmKey ?? (config.databaseStorage === ':memory:' ? firmKeyInMemory() : firmKeyLoadOrCreate(config.dataDir)),
       sheets: localFileStore(path.join(config.dataDir, 'issued-sheets')),
@@ -138,7 +144,10 @@ export function createApp(deps: AppDeps): CreatedApp {
   return {
     app,
     routes: registry,
-    close: () => (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions(),
-    stopWorkers: () => solvePool.close(),
+    async close() {
+      (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
+      await solvePool.close();
+      if (!deps.printer) await printer.close();
+    },
   };
 }

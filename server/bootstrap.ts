@@ -58,8 +58,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     mailer,
     sink,
     async shutdown() {
-      created.close();
-      await created.stopWorkers();
+      await created.close();
       await sink?.close();
       await sequelize.close();
     },

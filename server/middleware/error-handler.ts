@@ -54,6 +54,11 @@ function toAppError(err: unknown): AppError | null {
   if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported') {
     return new AppError('unsupported-encoding', 'The request body uses an encoding the server does not read. Send UTF-8 JSON.', 415);
   }
+  // calc-sheet printing
+  if (e && (e as Error).name === 'SheetPrintError') {
+    const status = e.code === 'print-timeout' ? 504 : 503;
+    return new AppError(e.code as string, (e as Error).message, status);
+  }
   // multer failures
   if (e?.code === 'LIMIT_FILE_SIZE') {
     return new AppError('file-too-large', 'The file is larger than the upload limit. Send a smaller file or ask your admin to raise MAX_UPLOAD_MB.', 413);

@@ -96,7 +96,7 @@ describe('sign-in rate limit', () => {
     const blocked = await tab.agent.post('/api/session').set('X-CSRF-Token', tab.csrf).send({ email: demoEmail('engineer'), password: 'panelpoint-demo' });
     expect(blocked.status).toBe(429);
     expect(blocked.body.error.code).toBe('too-many-attempts');
-    limited.close();
+    await limited.close();
   });
 });
 

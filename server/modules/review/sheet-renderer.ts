@@ -60,14 +60,3 @@ export function analysisRunsTable(sequelize: Sequelize): RunSource {
     },
   };
 }
-
-/**
- * ADAPTER — stands in until the calc-sheet module exposes "the PDF of run N with this revision
- * and these signatures" (see calc-sheet-renderer.ts for the wiring once it does). Issuing
- * refuses with a clear 503 rather than storing anything that is not the real sheet.
- */
-export const calcSheetsNotWired: SheetRenderer = {
-  async renderPdf() {
-    throw new AppError('sheet-renderer-unavailable', 'Calc sheets cannot be printed on this server yet, so nothing can be issued. Tell your admin.', 503);
-  },
-};

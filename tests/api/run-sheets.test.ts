@@ -1,0 +1,127 @@
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Services } from '../../server/bootstrap';
+import type { TrussModelView } from '@shared/schemas/drawing.schema';
+import type { RunView } from '@shared/schemas/run.schema';
+import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+
+/**
+ * The demo truss T1 (12 m span, 3 m rise, six 2 m panels, diagonals from the upper joints
+ * down toward mid-span) with 10 kN at each of the five upper panel points, pinned at the left
+ * bearing and on a roller at the right.
+ *
+ * Expected values by hand (method of joints, tension positive):
+ *   reactions R = 5 × 10 / 2 = 25 kN at each bearing (symmetry, ΣFy = 0);
+ *   at the left bearing the top chord rises 1 in 2, so its vertical component balances R:
+ *   N_top = −R·√5 = −55.90 kN (C) and the bottom chord takes its horizontal part, +2R = +50.00 kN (T).
+ */
+let services: Services;
+let engineer: Tab;
+let reviewer: Tab;
+let run: RunView;
+
+const text = (pdf: Buffer) => {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-sheet-'));
+  const file = path.join(dir, 'sheet.pdf');
+  fs.writeFileSync(file, pdf);
+  try {
+    return execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' });
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+};
+const binary = (res: import('supertest').Test) =>
+  res.buffer(true).parse((r, cb) => {
+    const chunks: Buffer[] = [];
+    r.on('data', (c: Buffer) => chunks.push(c));
+    r.on('end', () => cb(null, Buffer.concat(chunks)));
+  });
+
+beforeAll(async () => {
+  services = await startTestServices();
+  engineer = await signIn(services.app, demoEmail('engineer'));
+  reviewer = await signIn(services.app, demoEmail('reviewer'));
+  const current: TrussModelView = (await engineer.agent.get('/api/trusses/1/model').expect(200)).body;
+  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
+  const saved = await engineer.agent
+    .put('/api/trusses/1/model')
+    .set('X-CSRF-Token', engineer.csrf)
+    .send({
+      version: current.version,
+      supports: [
+        { joint: at(0, 0), kind: 'pin' },
+        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
+      ],
+      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
+      combinations: [],
+      members: [],
+    });
+  expect(saved.status).toBe(200);
+  const started = await engineer.agent.post('/api/trusses/1/runs').set('X-CSRF-Token', engineer.csrf).send({});
+  expect(started.status).toBe(202);
+  for (let i = 0; i < 400; i++) {
+    run = (await engineer.agent.get(`/api/runs/${started.body.id}`)).body;
+    if (run.status !== 'queued' && run.status !== 'running') break;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  expect(run.status).toBe('solved');
+}, 60_000);
+
+afterAll(async () => {
+  await services.shutdown();
+});
+
+describe('calc sheet of an analysis run', () => {
+  it('when a reviewer opens the preview, then it is the sheet HTML with the caution and the run named', async () => {
+    const res = await reviewer.agent.get(`/api/runs/${run.id}/sheet`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/html/);
+    expect(res.text).toMatch(/reviewed by a licensed/i);
+    expect(res.text).toContain('HV-2417');
+    expect(res.text).toContain(`Run ${run.id}`);
+  });
+
+  it('when the PDF is downloaded, then its text carries the hand-computed reactions and chord forces', async () => {
+    const res = await binary(reviewer.agent.get(`/api/runs/${run.id}/sheet.pdf`));
+    expect(res.status).toBe(200);
+    const pdf = res.body as Buffer;
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+    const t = text(pdf);
+    expect(t).toMatch(/25\.00/);
+    expect(t).toMatch(/55\.90/);
+    expect(t).toMatch(/50\.00/);
+  }, 60_000);
+
+  it('when a revision is checked and issued, then the issued PDF is the real sheet with both signers and it verifies', async () => {
+    const created = await engineer.agent.post('/api/trusses/1/sheets').set('X-CSRF-Token', engineer.csrf).send({ runId: run.id });
+    expect(created.status).toBe(201);
+    const id = created.body.id;
+    const preview = await reviewer.agent.get(`/api/sheets/${id}/preview`);
+    expect(preview.status).toBe(200);
+    expect(preview.text).toContain('Eli Marsh');
+
+    await engineer.agent.post(`/api/sheets/${id}/submit`).set('X-CSRF-Token', engineer.csrf).send({}).expect(200);
+    await reviewer.agent.post(`/api/sheets/${id}/check`).set('X-CSRF-Token', reviewer.csrf).send({}).expect(200);
+    const issued = await engineer.agent.post(`/api/sheets/${id}/issue`).set('X-CSRF-Token', engineer.csrf).send({});
+    expect(issued.status).toBe(200);
+    expect(issued.body.status).toBe('issued');
+
+    const pdf = (await binary(reviewer.agent.get(`/api/sheets/${id}/pdf`))).body as Buffer;
+    const t = text(pdf);
+    expect(t).toContain('Eli Marsh');
+    expect(t).toContain('Rosa Quint');
+    expect(t).toMatch(/55\.90/);
+
+    const verified = await reviewer.agent.post('/api/archive/verify').set('X-CSRF-Token', reviewer.csrf).attach('file', pdf, 'issued.pdf');
+    expect(verified.status).toBe(200);
+    expect(verified.body.match.sheetId).toBe(id);
+    expect(verified.body.signature).toBe('valid');
+  }, 90_000);
+
+  it('when the run does not exist, then 404 and no browser work', async () => {
+    expect((await reviewer.agent.get('/api/runs/99999/sheet.pdf')).status).toBe(404);
+  });
+});
