@@ -1,5 +1,6 @@
 import type { PreparedModel } from './prepare';
-import { sparseEliminate, type SparseRow } from './sparse';
+import { equilibriumRank } from './rank';
+import type { SparseRow } from './sparse';
 import type { Classification, DeterminacyKind } from './types';
 
 /**
@@ -70,7 +71,7 @@ function reactionDiagnosis(pm: PreparedModel): string | null {
 
 /**
  * Stability and determinacy: the count m + r against 2j and the rank of the joint-equilibrium
- * matrix (sparse elimination, see sparse.ts). A model is stable only with rank 2j; then
+ * matrix (structural peel plus sparse elimination of what is left, see rank.ts). A model is stable only with rank 2j; then
  * m + r = 2j is determinate and m + r > 2j indeterminate to degree m + r − 2j. For an unstable
  * model the joints that can move without any member changing length are named.
  */
@@ -80,21 +81,14 @@ export function trussClassify(pm: PreparedModel): Classification {
   const j = pm.jointIds.length;
   const degree = m + r - 2 * j;
   const rows = equilibriumRows(pm);
-  const first = sparseEliminate(m + r, rows);
+  const first = equilibriumRank(pm, rows, false);
   const rank = first.rank;
   let kind: DeterminacyKind;
   let mechanismJoints: string[] = [];
   let message: string;
   if (rank < 2 * j) {
     kind = 'unstable';
-    const tracked = sparseEliminate(m + r, rows, { track: true });
-    const moving = new Set<number>();
-    for (const combo of tracked.nullCombinations) {
-      let max = 0;
-      for (const v of combo.values()) max = Math.max(max, Math.abs(v));
-      for (const [row, v] of combo) if (Math.abs(v) > 1e-6 * max) moving.add(row >> 1);
-    }
-    const order = [...moving].sort((p, q) => p - q);
+    const order = equilibriumRank(pm, rows, true).mechanismJoints;
     mechanismJoints = order.map((i) => pm.jointIds[i]);
     const tags = order.map((i) => pm.jointTags[i]);
     const parts: string[] = [];

@@ -203,11 +203,15 @@ export function jointsSolve(pm: PreparedModel, lc: PreparedCase, zeroForce: Zero
   const memberForceOn = (e: number, j: number, value: number | null): JointForce => {
     const mb = pm.members[e];
     const sgn = mb.a === j ? 1 : -1;
-    return { ref: memberRef(pm, e), symbol: mb.symbol, label: mb.tag, cx: sgn * mb.cx, cy: sgn * mb.cy, value, ...(value !== null && fromM[e] ? { from: fromM[e] } : {}) };
+    const f: JointForce = { ref: memberRef(pm, e), symbol: mb.symbol, label: mb.tag, cx: sgn * mb.cx, cy: sgn * mb.cy, value };
+    if (value !== null && fromM[e]) f.from = fromM[e];
+    return f;
   };
   const reactionForce = (k: number, value: number | null): JointForce => {
     const rc = pm.reactions[k];
-    return { ref: reactionRef(pm, k), symbol: rc.symbol, label: rc.label, cx: rc.dx, cy: rc.dy, value, ...(value !== null && fromR[k] ? { from: fromR[k] } : {}) };
+    const f: JointForce = { ref: reactionRef(pm, k), symbol: rc.symbol, label: rc.label, cx: rc.dx, cy: rc.dy, value };
+    if (value !== null && fromR[k]) f.from = fromR[k];
+    return f;
   };
   const loadForces = (j: number): JointForce[] => {
     const out: JointForce[] = [];
@@ -218,9 +222,11 @@ export function jointsSolve(pm: PreparedModel, lc: PreparedCase, zeroForce: Zero
   const equationsOf = (known: JointForce[], unknowns: JointForce[]): [EquilibriumEquation, EquilibriumEquation] => {
     const fx: ForceTerm[] = [];
     const fy: ForceTerm[] = [];
-    for (const f of [...unknowns, ...known]) {
-      if (f.cx !== 0) fx.push({ ref: f.ref, symbol: f.symbol, label: f.label, coefficient: f.cx, value: f.value });
-      if (f.cy !== 0) fy.push({ ref: f.ref, symbol: f.symbol, label: f.label, coefficient: f.cy, value: f.value });
+    for (const list of [unknowns, known]) {
+      for (const f of list) {
+        if (f.cx !== 0) fx.push({ ref: f.ref, symbol: f.symbol, label: f.label, coefficient: f.cx, value: f.value });
+        if (f.cy !== 0) fy.push({ ref: f.ref, symbol: f.symbol, label: f.label, coefficient: f.cy, value: f.value });
+      }
     }
     return [
       { kind: 'sum-fx', terms: fx },

@@ -30,21 +30,28 @@ export function mirrorFind(pm: PreparedModel, withStiffness: boolean): MirrorMap
     maxX = Math.max(maxX, pm.x[j]);
   }
   const axisX = (minX + maxX) / 2;
+  let minY = Infinity;
+  for (let j = 0; j < n; j++) minY = Math.min(minY, pm.y[j]);
   const tol = MIRROR_TOLERANCE * Math.max(pm.extent, 1e-3);
-  const cell = (v: number) => Math.round(v / (tol * 4));
-  const grid = new Map<string, number[]>();
+  // Grid of cells 4·tol wide over coordinates relative to the lower-left corner; numeric keys.
+  const cellX = (v: number) => Math.round((v - minX) / (tol * 4));
+  const cellY = (v: number) => Math.round((v - minY) / (tol * 4));
+  const key = (cx: number, cy: number) => cx * 4_194_304 + cy;
+  const grid = new Map<number, number[]>();
   for (let j = 0; j < n; j++) {
-    const key = `${cell(pm.x[j])},${cell(pm.y[j])}`;
-    (grid.get(key) ?? grid.set(key, []).get(key)!).push(j);
+    const k = key(cellX(pm.x[j]), cellY(pm.y[j]));
+    const list = grid.get(k);
+    if (list) list.push(j);
+    else grid.set(k, [j]);
   }
   const jointMirror = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
     const mx = 2 * axisX - pm.x[j];
     const my = pm.y[j];
-    const cx = cell(mx);
-    const cy = cell(my);
+    const cx = cellX(mx);
+    const cy = cellY(my);
     search: for (let a = -1; a <= 1; a++) for (let b = -1; b <= 1; b++) {
-      for (const k of grid.get(`${cx + a},${cy + b}`) ?? []) {
+      for (const k of grid.get(key(cx + a, cy + b)) ?? []) {
         if (Math.abs(pm.x[k] - mx) <= tol && Math.abs(pm.y[k] - my) <= tol) {
           jointMirror[j] = k;
           break search;
