@@ -1,0 +1,117 @@
+import { Link, useParams } from 'react-router-dom';
+import { PageHeader, Panel } from '@/components/ui/page-header';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { sheetPdfUrl, sheetPreviewUrl, useSheet } from '@/features/sheets/api/get-sheet';
+import { SheetActions } from '@/features/sheets/components/sheet-actions';
+import { SheetAuditLog } from '@/features/sheets/components/sheet-audit-log';
+import { SheetIssueRecord } from '@/features/sheets/components/sheet-issue-record';
+import { SheetReview } from '@/features/sheets/components/sheet-review';
+import { SheetSigners } from '@/features/sheets/components/sheet-signers';
+import { SheetStatusBadge } from '@/features/sheets/components/sheet-status-badge';
+import { useCurrentUser } from '../current-user';
+
+export function SheetRoute() {
+  const sheetId = Number(useParams().sheetId);
+  if (!Number.isInteger(sheetId) || sheetId <= 0) {
+    return <EmptyState>This is not a calc sheet address. Open the sheet from its truss or from the archive.</EmptyState>;
+  }
+  return <SheetRouteLoaded sheetId={sheetId} />;
+}
+
+function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
+  const user = useCurrentUser();
+  const sheet = useSheet(sheetId);
+
+  if (sheet.isPending) return <LoadingState label="Loading the calc sheet…" />;
+  if (sheet.isError) {
+    return (
+      <div>
+        <ErrorState title="The calc sheet could not be loaded" error={sheet.error} onRetry={() => void sheet.refetch()} />
+        <Link to="/archive" className="text-sm font-medium text-accent hover:underline">
+          Go to the archive
+        </Link>
+      </div>
+    );
+  }
+
+  const s = sheet.data;
+  const archived = s.status === 'issued' || s.status === 'superseded';
+  return (
+    <div>
+      <PageHeader
+        eyebrow={
+          <span className="normal-case">
+            <Link to={`/projects/${s.project.id}`} className="hover:text-accent">
+              {s.project.jobNumber} {s.project.name}
+            </Link>
+            {' · '}
+            <Link to={`/trusses/${s.truss.id}`} className="hover:text-accent">
+              {s.truss.name}
+            </Link>
+          </span>
+        }
+        title={
+          <span className="inline-flex flex-wrap items-center gap-3">
+            Calc sheet, revision {s.label}
+            <SheetStatusBadge status={s.status} />
+          </span>
+        }
+        description={<SheetSigners sheet={s} />}
+        actions={
+          <div className="flex flex-col items-end gap-2">
+            <div className="flex gap-2">
+              {archived && (
+                <a
+                  href={sheetPdfUrl(s.id)}
+                  download
+                  className="inline-flex h-9 items-center rounded-md border border-accent bg-accent px-4 text-sm font-medium text-paper-raised hover:bg-accent-hover"
+                >
+                  Download issued PDF
+                </a>
+              )}
+              <a
+                href={sheetPreviewUrl(s.id)}
+                target="_blank"
+                rel="noreferrer"
+                className="inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
+              >
+                Open sheet in a new tab
+              </a>
+            </div>
+            <SheetActions sheet={s} user={user} />
+          </div>
+        }
+      />
+
+      {s.supersededBy && (
+        <p className="mb-4 rounded-md border border-paper-line bg-paper-sunk px-4 py-2.5 text-sm text-ink-soft">
+          Superseded by{' '}
+          <Link to={`/sheets/${s.supersededBy.id}`} className="font-medium text-accent hover:underline">
+            revision {s.supersededBy.label}
+          </Link>
+          . This revision stays in the archive as it was issued.
+        </p>
+      )}
+
+      <SheetReview key={s.id} sheet={s} user={user} />
+
+      <div className="mt-6 grid items-start gap-6 lg:grid-cols-2">
+        <Panel title="Audit log">
+          <SheetAuditLog events={s.events} />
+        </Panel>
+        {s.issue ? (
+          <Panel title="Issued record">
+            <SheetIssueRecord issue={s.issue} />
+          </Panel>
+        ) : (
+          <Panel title="Revision">
+            <p className="text-sm text-ink-soft">
+              Made from analysis run {s.runId}. When it is issued, the PDF is stored with its SHA-256 fingerprint and the
+              record is signed with the firm’s key.
+            </p>
+          </Panel>
+        )}
+      </div>
+    </div>
+  );
+}

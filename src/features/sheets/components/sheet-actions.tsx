@@ -1,0 +1,97 @@
+import { useState } from 'react';
+import type { UserView } from '@shared/schemas/auth.schema';
+import type { SheetAction, SheetRevisionView } from '@shared/schemas/review.schema';
+import { Button } from '@/components/ui/button';
+import { FormError, TextareaField } from '@/components/ui/field';
+import { errorMessage } from '@/lib/api-client';
+import { useTransitionSheet } from '../api/transition-sheet';
+import { SHEET_ACTION_LABELS, sheetActionsFor } from '../utils/sheet-actions';
+
+const CONFIRM_TEXT: Record<SheetAction, string> = {
+  submit: 'The reviewers get an e-mail asking them to check this revision. You can no longer change it while it is in check.',
+  return: 'The preparer gets an e-mail with your note and the open comments. They revise the model and start a new revision.',
+  check: 'You confirm the revision as checked; your name and today’s date go into its signature block.',
+  issue: 'Panelpoint prints the final PDF with the signature block filled, stores it with its SHA-256 fingerprint and signs the record with the firm’s key. An issued revision can never change.',
+};
+
+/** The buttons for the moves this person may make, each confirmed with an optional note for the audit log. */
+export function SheetActions({ sheet, user }: { sheet: SheetRevisionView; user: Pick<UserView, 'id' | 'role'> }) {
+  const actions = sheetActionsFor(user, sheet);
+  const [pending, setPending] = useState<SheetAction | null>(null);
+  const [note, setNote] = useState('');
+  const [noteError, setNoteError] = useState<string>();
+  const transition = useTransitionSheet();
+  const openCount = sheet.openCommentIds.length;
+
+  if (actions.length === 0) return null;
+
+  const start = (action: SheetAction) => {
+    transition.reset();
+    setNoteError(undefined);
+    setPending(action);
+  };
+  const confirm = () => {
+    if (!pending) return;
+    if (pending === 'return' && !note.trim()) {
+      setNoteError('Say why it goes back: the preparer reads this first.');
+      return;
+    }
+    transition.mutate(
+      { sheetId: sheet.id, action: pending, note: note.trim() },
+      {
+        onSuccess: () => {
+          setPending(null);
+          setNote('');
+        },
+      },
+    );
+  };
+
+  return (
+    <div className="flex flex-col items-end gap-2">
+      <div className="flex flex-wrap justify-end gap-2">
+        {actions.map((action) => (
+          <Button
+            key={action}
+            variant={action === 'return' ? 'danger' : 'primary'}
+            onClick={() => start(action)}
+            disabled={action === 'check' && openCount > 0}
+            title={action === 'check' && openCount > 0 ? `Resolve the ${openCount} open comment thread(s) first, or return it.` : undefined}
+            aria-pressed={pending === action}
+          >
+            {SHEET_ACTION_LABELS[action]}
+          </Button>
+        ))}
+      </div>
+      {actions.includes('check') && openCount > 0 && (
+        <p className="text-xs text-ink-soft">
+          {openCount} comment thread{openCount === 1 ? ' is' : 's are'} still open: resolve {openCount === 1 ? 'it' : 'them'} before marking it checked, or return it.
+        </p>
+      )}
+      {pending && (
+        <div className="w-full max-w-md rounded-md border border-paper-line bg-paper-raised p-4 text-left shadow-sm">
+          <p className="mb-3 text-sm text-ink-soft">{CONFIRM_TEXT[pending]}</p>
+          <TextareaField
+            label={pending === 'return' ? 'Why it goes back' : 'Note for the audit log (optional)'}
+            rows={3}
+            value={note}
+            maxLength={2000}
+            error={noteError}
+            onChange={(e) => setNote(e.target.value)}
+          />
+          <div className="mt-3 flex flex-col gap-3">
+            <FormError message={transition.isError ? errorMessage(transition.error) : undefined} />
+            <div className="flex justify-end gap-2">
+              <Button variant="quiet" onClick={() => setPending(null)} disabled={transition.isPending}>
+                Cancel
+              </Button>
+              <Button variant={pending === 'return' ? 'danger' : 'primary'} busy={transition.isPending} onClick={confirm}>
+                {SHEET_ACTION_LABELS[pending]}
+              </Button>
+            </div>
+          </div>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,145 @@
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { stepAnchorAt, stepAnchorsIn } from '../utils/step-anchor';
+
+/** A request to bring one step into view; `seq` makes a second click on the same step scroll again. */
+export interface StepFocus {
+  anchor: string;
+  seq: number;
+}
+
+interface SheetPreviewProps {
+  src: string;
+  /** Steps that carry threads: anchor → open thread count (0 when all are resolved). */
+  commented: ReadonlyMap<string, number>;
+  selected: string | null;
+  focus: StepFocus | null;
+  /** A click on a step; absent when the person may not comment. */
+  onPickStep?: (anchor: string) => void;
+  /** The sheet's anchors in document order, once it has loaded. */
+  onAnchors?: (anchors: string[]) => void;
+}
+
+// Marks drawn into the sheet's own document: which steps can be clicked, carry threads, are chosen.
+const PREVIEW_STYLE = `
+  [data-pp-pickable] .step { cursor: pointer; }
+  [data-pp-pickable] .step:hover { outline: 2px solid rgba(18, 96, 90, 0.28); outline-offset: 3px; }
+  [data-pp-threads] { position: relative; box-shadow: -5px 0 0 -1px #8a8d90; }
+  [data-pp-threads][data-pp-open] { box-shadow: -5px 0 0 -1px #a33a2b; }
+  [data-pp-threads]::after {
+    content: attr(data-pp-threads); position: absolute; top: 0; right: 0; padding: 1px 5px;
+    font: 600 10px/1.4 Inter, system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
+  }
+  [data-pp-threads][data-pp-open]::after { color: #a33a2b; background: #faeeec; }
+  [data-pp-selected] { outline: 2px solid #12605a !important; outline-offset: 3px; background-color: rgba(217, 235, 232, 0.35); }
+  @keyframes pp-flash { from { background-color: rgba(217, 235, 232, 0.9); } to { background-color: transparent; } }
+  [data-pp-flash] { animation: pp-flash 1.4s ease-out; }
+`;
+
+function threadLabel(open: number): string {
+  return open > 0 ? `${open} open` : 'resolved';
+}
+
+type LoadState = { kind: 'loading' } | { kind: 'ready' } | { kind: 'missing'; message: string };
+
+/**
+ * The revision's calc sheet, in a same-origin frame, as the PDF will print it. Clicking a step
+ * picks its anchor for a comment; steps with threads carry a mark in the margin.
+ */
+export function SheetPreview({ src, commented, selected, focus, onPickStep, onAnchors }: SheetPreviewProps) {
+  const frame = useRef<HTMLIFrameElement>(null);
+  const [doc, setDoc] = useState<Document | null>(null);
+  const [state, setState] = useState<LoadState>({ kind: 'loading' });
+  const pick = useRef(onPickStep);
+  pick.current = onPickStep;
+
+  const handleLoad = useCallback(() => {
+    const loaded = frame.current?.contentDocument;
+    if (!loaded) return;
+    // An error answer (JSON) or an empty page means no preview for this revision.
+    if (loaded.contentType !== 'text/html' || !loaded.querySelector('[id]')) {
+      let message = 'The calc sheet preview is not available for this revision yet.';
+      try {
+        const body = JSON.parse(loaded.body?.textContent ?? '') as { error?: { message?: string } };
+        if (body.error?.message) message = body.error.message;
+      } catch {
+        // Not JSON: keep the plain sentence.
+      }
+      setDoc(null);
+      setState({ kind: 'missing', message });
+      return;
+    }
+    const style = loaded.createElement('style');
+    style.textContent = PREVIEW_STYLE;
+    loaded.head.append(style);
+    loaded.addEventListener('click', (event) => {
+      const target = event.target as Element | null;
+      // In-sheet links would move the frame away from the sheet's top; the page scrolls instead.
+      if (target?.closest('a[href^="#"]')) event.preventDefault();
+      if (!pick.current) return;
+      const anchor = stepAnchorAt(target);
+      if (anchor) pick.current(anchor);
+    });
+    setDoc(loaded);
+    setState({ kind: 'ready' });
+    onAnchors?.(stepAnchorsIn(loaded));
+  }, [onAnchors]);
+
+  useEffect(() => {
+    if (!doc) return;
+    if (onPickStep) doc.body.setAttribute('data-pp-pickable', '');
+    else doc.body.removeAttribute('data-pp-pickable');
+  }, [doc, onPickStep]);
+
+  useEffect(() => {
+    if (!doc) return;
+    for (const el of doc.querySelectorAll('[data-pp-threads]')) {
+      el.removeAttribute('data-pp-threads');
+      el.removeAttribute('data-pp-open');
+    }
+    for (const [anchor, open] of commented) {
+      const el = doc.getElementById(anchor);
+      if (!el) continue;
+      el.setAttribute('data-pp-threads', threadLabel(open));
+      if (open > 0) el.setAttribute('data-pp-open', '');
+    }
+  }, [doc, commented]);
+
+  useEffect(() => {
+    if (!doc) return;
+    for (const el of doc.querySelectorAll('[data-pp-selected]')) el.removeAttribute('data-pp-selected');
+    if (selected) doc.getElementById(selected)?.setAttribute('data-pp-selected', '');
+  }, [doc, selected]);
+
+  useEffect(() => {
+    if (!doc || !focus) return;
+    const el = doc.getElementById(focus.anchor);
+    if (!el) return;
+    el.scrollIntoView({ block: 'start', behavior: 'smooth' });
+    el.removeAttribute('data-pp-flash');
+    void el.getBoundingClientRect();
+    el.setAttribute('data-pp-flash', '');
+  }, [doc, focus]);
+
+  return (
+    <div className="relative h-[78vh] min-h-[28rem] overflow-hidden rounded-lg border border-paper-line bg-paper-sunk">
+      <iframe
+        ref={frame}
+        src={src}
+        title="Calc sheet preview"
+        onLoad={handleLoad}
+        className={`size-full ${state.kind === 'missing' ? 'invisible' : ''}`}
+      />
+      {state.kind === 'loading' && (
+        <div role="status" className="absolute inset-0 flex items-center justify-center gap-3 text-sm text-ink-soft">
+          <span aria-hidden className="size-4 animate-spin rounded-full border-2 border-accent border-t-transparent" />
+          Laying out the calc sheet…
+        </div>
+      )}
+      {state.kind === 'missing' && (
+        <div className="absolute inset-0 flex items-center justify-center p-8">
+          <p className="max-w-sm text-center text-sm text-ink-soft">{state.message}</p>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,141 @@
+import { useCallback, useMemo, useState } from 'react';
+import type { UserView } from '@shared/schemas/auth.schema';
+import type { SheetCommentView, SheetRevisionView } from '@shared/schemas/review.schema';
+import { useTrussSheets } from '../api/get-truss-sheets';
+import { sheetPreviewUrl } from '../api/get-sheet';
+import { groupCommentsByStep, openThreadsOf } from '../utils/comment-groups';
+import { canCommentOnSheet, isSheetFrozen } from '../utils/sheet-actions';
+import { CommentComposer, CommentThreads } from './comment-threads';
+import { SheetPreview, type StepFocus } from './sheet-preview';
+
+/**
+ * Reading and commenting: the sheet as it prints on the left, its comment threads by step on the
+ * right. A click on a step opens a comment box for it; a click on a thread shows its step.
+ */
+export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: Pick<UserView, 'id' | 'role'> }) {
+  const [selected, setSelected] = useState<string | null>(null);
+  const [focus, setFocus] = useState<StepFocus | null>(null);
+  const [stepOrder, setStepOrder] = useState<string[]>([]);
+  const [show, setShow] = useState<'all' | 'open'>('all');
+  const siblings = useTrussSheets(sheet.trussId);
+  const canComment = canCommentOnSheet(user, sheet.status);
+
+  const groups = useMemo(() => groupCommentsByStep(sheet.comments, stepOrder, show), [sheet.comments, stepOrder, show]);
+  const commented = useMemo(() => {
+    const marks = new Map<string, number>();
+    for (const group of groupCommentsByStep(sheet.comments)) marks.set(group.anchor, group.openCount);
+    return marks;
+  }, [sheet.comments]);
+  const openThreads = useMemo(() => openThreadsOf(sheet.comments, sheet.openCommentIds), [sheet.comments, sheet.openCommentIds]);
+
+  // A thread's own revision decides whether it can still be resolved: issued ones stay as they were.
+  const statusOf = useMemo(() => new Map((siblings.data ?? []).map((r) => [r.id, r.status])), [siblings.data]);
+  const canResolve = useCallback(
+    (thread: SheetCommentView) => {
+      if (user.role !== 'engineer' && user.role !== 'reviewer') return false;
+      const status = thread.revisionId === sheet.id ? sheet.status : statusOf.get(thread.revisionId);
+      return status !== undefined && !isSheetFrozen(status);
+    },
+    [user.role, sheet.id, sheet.status, statusOf],
+  );
+
+  const focusStep = useCallback((anchor: string) => {
+    setSelected(anchor);
+    setFocus((prev) => ({ anchor, seq: (prev?.seq ?? 0) + 1 }));
+  }, []);
+  const pickStep = useCallback((anchor: string) => setSelected(anchor), []);
+
+  return (
+    <div className="flex flex-col gap-4">
+      {sheet.status === 'returned' && openThreads.length > 0 && (
+        <section className="rounded-lg border border-danger/40 bg-danger/5 px-5 py-4" aria-label="Open comments">
+          <h2 className="text-sm font-semibold text-danger">
+            Returned with {openThreads.length} open comment{openThreads.length === 1 ? '' : 's'}
+          </h2>
+          <p className="mt-0.5 text-xs text-ink-soft">
+            Answer each in the model, run the analysis again and start a new revision from the truss page; mark them resolved there.
+          </p>
+          <ul className="mt-3 flex flex-col gap-1.5">
+            {openThreads.map((t) => (
+              <li key={t.id}>
+                <button type="button" onClick={() => focusStep(t.anchor)} className="group flex w-full gap-3 text-left text-[13px]">
+                  <span className="w-40 shrink-0 truncate font-mono text-xs leading-5 text-danger group-hover:underline">{t.anchor}</span>
+                  <span className="min-w-0 flex-1 text-ink">
+                    {t.body.split('\n')[0]} <span className="text-ink-faint">— {t.author.name}</span>
+                  </span>
+                </button>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+
+      <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <SheetPreview
+          src={sheetPreviewUrl(sheet.id)}
+          commented={commented}
+          selected={selected}
+          focus={focus}
+          onPickStep={canComment ? pickStep : undefined}
+          onAnchors={setStepOrder}
+        />
+
+        <aside className="flex max-h-[78vh] flex-col overflow-hidden rounded-lg border border-paper-line bg-paper-raised" aria-label="Comments">
+          <div className="flex items-center justify-between gap-2 border-b border-paper-line px-4 py-2.5">
+            <h2 className="text-sm font-semibold text-ink">Comments</h2>
+            <div role="group" aria-label="Which threads" className="flex rounded-md border border-paper-line p-0.5 text-[11px]">
+              {(['all', 'open'] as const).map((option) => (
+                <button
+                  key={option}
+                  type="button"
+                  aria-pressed={show === option}
+                  onClick={() => setShow(option)}
+                  className={`rounded px-2 py-0.5 ${show === option ? 'bg-paper-sunk font-semibold text-ink' : 'text-ink-soft hover:text-ink'}`}
+                >
+                  {option === 'all' ? 'All' : `Open (${sheet.comments.filter((c) => !c.resolved).length})`}
+                </button>
+              ))}
+            </div>
+          </div>
+          <div className="flex-1 overflow-y-auto px-4 py-3">
+            {canComment &&
+              (selected ? (
+                <div className="-mx-1 mb-4 rounded-md border border-accent/40 bg-accent-soft/40 pt-2">
+                  <p className="px-3 pb-1.5 text-[11px] text-ink-soft">
+                    New comment on <span className="font-mono font-semibold text-accent">{selected}</span>
+                  </p>
+                  <CommentComposer
+                    key={selected}
+                    sheetId={sheet.id}
+                    anchor={selected}
+                    placeholder="What should the preparer look at here?"
+                    submitLabel="Comment"
+                    onDone={() => setSelected(null)}
+                  />
+                </div>
+              ) : (
+                <p className="mb-4 rounded-md border border-dashed border-paper-line px-3 py-2 text-xs text-ink-soft">
+                  Click a step on the sheet to comment on it.
+                </p>
+              ))}
+            {groups.length === 0 ? (
+              <p className="py-6 text-center text-xs text-ink-faint">
+                {show === 'open' ? 'No open threads.' : 'No comments on this sheet yet.'}
+              </p>
+            ) : (
+              <CommentThreads
+                groups={groups}
+                sheetId={sheet.id}
+                trussId={sheet.trussId}
+                currentLabel={sheet.label}
+                canReply={canComment}
+                canResolve={canResolve}
+                onFocusStep={focusStep}
+              />
+            )}
+          </div>
+        </aside>
+      </div>
+    </div>
+  );
+}
