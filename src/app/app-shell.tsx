@@ -83,6 +83,8 @@ export function AppShell() {
           </NavLink>
           <nav aria-label="Main" className="flex h-14 items-stretch">
             <NavItem to="/projects">Projects</NavItem>
+            <NavItem to="/archive">Archive</NavItem>
+            <NavItem to="/verify">Verify</NavItem>
             {isAdmin(user.role) && (
               <>
                 <span aria-hidden className="mx-2 my-4 w-px bg-paper-line" />

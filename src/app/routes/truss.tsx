@@ -2,8 +2,10 @@ import { Link, useParams } from 'react-router-dom';
 import { Panel } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { useProject } from '@/features/projects/api/get-project';
+import { TrussSheets } from '@/features/sheets/components/truss-sheets';
 import { useTruss } from '@/features/trusses/api/get-truss';
 import { TrussPage } from '@/features/trusses/components/truss-page';
+import { useCurrentUser } from '../current-user';
 
 export function TrussRoute() {
   const trussId = Number(useParams().trussId);
@@ -14,6 +16,7 @@ export function TrussRoute() {
 }
 
 function TrussRouteLoaded({ trussId }: { trussId: number }) {
+  const user = useCurrentUser();
   const truss = useTruss(trussId);
   const project = useProject(truss.data?.projectId ?? 0, { enabled: truss.isSuccess });
 
@@ -35,6 +38,7 @@ function TrussRouteLoaded({ trussId }: { trussId: number }) {
       <Panel title="Drawing">
         <EmptyState>The drawing import arrives next: upload the truss’s DXF here to see its joints and members.</EmptyState>
       </Panel>
+      <TrussSheets trussId={trussId} user={user} />
     </TrussPage>
   );
 }

@@ -2,6 +2,7 @@ import { PageHeader, Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useFirm } from '@/features/firm/api/get-firm';
 import { FirmForm } from '@/features/firm/components/firm-form';
+import { SigningKey } from '@/features/firm/components/signing-key';
 import { isAdmin } from '@/lib/permissions';
 import { useCurrentUser } from '../../current-user';
 
@@ -16,9 +17,14 @@ export function FirmRoute() {
       ) : firm.isError ? (
         <ErrorState title="The firm’s details could not be loaded" error={firm.error} onRetry={() => void firm.refetch()} />
       ) : (
-        <Panel title="Title block">
-          <FirmForm firm={firm.data} editable={isAdmin(user.role)} />
-        </Panel>
+        <div className="flex flex-col gap-6">
+          <Panel title="Title block">
+            <FirmForm firm={firm.data} editable={isAdmin(user.role)} />
+          </Panel>
+          <Panel title="Signing key">
+            <SigningKey />
+          </Panel>
+        </div>
       )}
     </div>
   );
