@@ -20,3 +20,8 @@ export function canAddTrusses(role: Role | undefined): boolean {
 export function isAdmin(role: Role | undefined): boolean {
   return role === 'admin';
 }
+
+/** Drafters and engineers send drawings and re-import them; reviewers and admins read them. */
+export function canUploadDrawings(role: Role | undefined): boolean {
+  return role === 'drafter' || role === 'engineer';
+}

@@ -1,10 +1,12 @@
 import { Link, useParams } from 'react-router-dom';
-import { Panel } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { DrawingSection } from '@/features/drawings/components/drawing-section';
 import { useProject } from '@/features/projects/api/get-project';
 import { TrussSheets } from '@/features/sheets/components/truss-sheets';
 import { useTruss } from '@/features/trusses/api/get-truss';
 import { TrussPage } from '@/features/trusses/components/truss-page';
+import { TrussTabs, type TrussTab } from '@/features/trusses/components/truss-tabs';
+import { canUploadDrawings } from '@/lib/permissions';
 import { useCurrentUser } from '../current-user';
 
 export function TrussRoute() {
@@ -33,12 +35,18 @@ function TrussRouteLoaded({ trussId }: { trussId: number }) {
   }
 
   const projectLabel = project.data ? `${project.data.jobNumber} ${project.data.name}` : undefined;
+  // Each feature of the truss page is one tab; later ones (loads, analysis) go beside the drawing.
+  const tabs: TrussTab[] = [
+    {
+      id: 'drawing',
+      label: 'Drawing',
+      content: <DrawingSection trussId={trussId} mayUpload={canUploadDrawings(user.role)} unitSystem={project.data?.unitSystem} />,
+    },
+    { id: 'sheets', label: 'Calc sheets', content: <TrussSheets trussId={trussId} user={user} /> },
+  ];
   return (
     <TrussPage truss={truss.data} projectLabel={projectLabel}>
-      <Panel title="Drawing">
-        <EmptyState>The drawing import arrives next: upload the truss’s DXF here to see its joints and members.</EmptyState>
-      </Panel>
-      <TrussSheets trussId={trussId} user={user} />
+      <TrussTabs tabs={tabs} />
     </TrussPage>
   );
 }
