@@ -1,0 +1,150 @@
+/**
+ * `npm run bench:sheet`: calc sheets for parallel-chord trusses of 10, 50 and 200 joints (one load
+ * case and two combinations). Prints, per size: pages, time to HTML (view + templates), time to
+ * PDF with the browser warm (median of 3), and peak memory of this process and of Chromium.
+ * Target (issue 6): the 50-joint sheet prints in under 3 s with the browser warm on 2 cores.
+ */
+import fs from 'node:fs';
+import os from 'node:os';
+import { trussSolve } from '@shared/solver';
+import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
+import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
+import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
+import { createSheetPrinter } from '../server/modules/calc-sheets/sheet-printer';
+
+const SIZES = [
+  { joints: 10, panels: 4 },
+  { joints: 50, panels: 24 },
+  { joints: 200, panels: 99 },
+];
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+/** Peak resident memory (VmHWM, MiB) summed over a process and all its descendants (Linux). */
+function treePeakMiB(rootPid: number | null): number {
+  if (!rootPid) return 0;
+  const parent = new Map<number, number>();
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
+      const ppid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      parent.set(Number(entry), ppid);
+    } catch {
+      // process ended while listing
+    }
+  }
+  const inTree = (pid: number): boolean => {
+    for (let p: number | undefined = pid, hops = 0; p && hops < 20; p = parent.get(p), hops++) if (p === rootPid) return true;
+    return false;
+  };
+  let kib = 0;
+  for (const pid of parent.keys()) {
+    if (!inTree(pid)) continue;
+    try {
+      const m = /VmHWM:\s+(\d+) kB/.exec(fs.readFileSync(`/proc/${pid}/status`, 'utf8'));
+      kib += m ? Number(m[1]) : 0;
+    } catch {
+      // ended
+    }
+  }
+  return kib / 1024;
+}
+
+/** CPU seconds (user + system) used so far by a process and all its descendants (Linux). */
+function treeCpuSeconds(rootPid: number | null): number {
+  if (!rootPid) return 0;
+  const parent = new Map<number, number>();
+  const cpu = new Map<number, number>();
+  const tick = 100; // USER_HZ on Linux
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
+      const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      parent.set(Number(entry), Number(f[1]));
+      cpu.set(Number(entry), (Number(f[11]) + Number(f[12])) / tick);
+    } catch {
+      // ended
+    }
+  }
+  let total = 0;
+  for (const [pid, c] of cpu) {
+    for (let p: number | undefined = pid, hops = 0; p && hops < 20; p = parent.get(p), hops++) {
+      if (p === rootPid) {
+        total += c;
+        break;
+      }
+    }
+  }
+  return total;
+}
+
+function pageCount(pdf: Buffer): number {
+  return (pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? []).length;
+}
+
+async function main() {
+  const printer = createSheetPrinter({ chromiumPath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', timeoutMs: 600_000 });
+  console.log(`calc sheet bench — ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+  // Warm the browser and the template/font caches once.
+  const warm = modelFromSketch(parallelChordSketch('pratt', 8, 3, 3, 10));
+  const warmInput = {
+    firm: { name: 'Harrow & Vale Structural (demo)', address: '4 Tanner’s Yard, Northgate', paperSize: 'A4' as const },
+    project: { name: 'Kestrel Logistics — warehouse roof', jobNumber: 'HV-2417', unitSystem: 'SI' as const },
+    revision: 'P1',
+    generatedAt: new Date(),
+  };
+  await printer.print(renderCalcSheetHtml(buildCalcSheetView({ ...warmInput, trussName: 'warm', subject: 'warm', model: warm, analysis: trussSolve(warm) })), 'A4');
+  console.log('Wall times depend on what else runs on the machine; CPU seconds (Chromium and this process) per print do not.');
+  console.log('joints  members  pages  HTML (ms)  HTML (KiB)  PDF warm wall (ms, median of 3)  PDF CPU (s)  PDF (KiB)  node peak (MiB)  chromium peak (MiB)');
+  for (const size of SIZES) {
+    const sketch = parallelChordSketch('pratt', size.panels, 3, 3, 10);
+    sketch.cases!.push({ id: 'S', loads: sketch.cases![0].loads.map(([j]) => [j, 0, -6] as [string, number, number]) });
+    sketch.combinations = [
+      { name: 'LRFD-2', factors: { D: 1.2, S: 0.5 }, clause: 'ASCE/SEI 7-16 §2.3.1 (2)' },
+      { name: 'LRFD-3', factors: { D: 1.2, S: 1.6 }, clause: 'ASCE/SEI 7-16 §2.3.1 (3)' },
+    ];
+    const model = modelFromSketch(sketch);
+    const analysis = trussSolve(model);
+    const t0 = performance.now();
+    const html = renderCalcSheetHtml(buildCalcSheetView({ ...warmInput, trussName: `P${size.joints}`, subject: `Truss P${size.joints}`, model, analysis }));
+    const htmlMs = performance.now() - t0;
+    const times: number[] = [];
+    const cpus: number[] = [];
+    let pdf = Buffer.alloc(0);
+    for (let i = 0; i < 3; i++) {
+      const c0 = treeCpuSeconds(printer.browserPid());
+      const n0 = process.cpuUsage();
+      const t = performance.now();
+      pdf = await printer.print(html, 'A4');
+      times.push(performance.now() - t);
+      const n1 = process.cpuUsage(n0);
+      cpus.push(treeCpuSeconds(printer.browserPid()) - c0 + (n1.user + n1.system) / 1e6);
+    }
+    const nodePeak = Number(/VmHWM:\s+(\d+) kB/.exec(fs.readFileSync('/proc/self/status', 'utf8'))?.[1] ?? 0) / 1024;
+    console.log(
+      [
+        String(model.joints.length).padStart(6),
+        String(model.members.length).padStart(8),
+        String(pageCount(pdf)).padStart(6),
+        htmlMs.toFixed(0).padStart(10),
+        (html.length / 1024).toFixed(0).padStart(11),
+        median(times).toFixed(0).padStart(32),
+        median(cpus).toFixed(2).padStart(12),
+        (pdf.length / 1024).toFixed(0).padStart(10),
+        nodePeak.toFixed(0).padStart(16),
+        treePeakMiB(printer.browserPid()).toFixed(0).padStart(20),
+      ].join(' '),
+    );
+  }
+  await printer.close();
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});
