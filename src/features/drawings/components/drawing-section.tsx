@@ -49,7 +49,7 @@ export function DrawingSection({ trussId, mayUpload, unitSystem }: DrawingSectio
       drawing.status === 'imported' ? 'success' : 'error',
       drawing.status === 'imported'
         ? `Version ${drawing.version} imported: ${drawing.jointCount} joints, ${drawing.memberCount} members.`
-        : `Version ${drawing.version} is stored but needs import options: ${drawing.error?.message ?? 'see the drawing tab.'}`,
+        : `Version ${drawing.version} is stored but did not import: set its options and re-import.`,
     );
   };
 
@@ -174,7 +174,7 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
               <h3 className="mt-5 mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Layers</h3>
               <LayerList layers={drawing.layers} result={result} colours={colours} hidden={hiddenLayers} onToggle={toggleLayer} />
             </div>
-            <aside className="min-w-0 lg:max-h-[46rem] lg:overflow-y-auto lg:pr-1">
+            <aside className="min-w-0">
               <h3 className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Import report</h3>
               <ImportReport entries={result.report} selected={selectedEntry} onSelect={chooseEntry} />
             </aside>

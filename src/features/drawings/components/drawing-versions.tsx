@@ -51,7 +51,7 @@ export function DrawingVersions({ versions, selectedId, onSelect }: DrawingVersi
                     {formatBytes(v.size)} · {v.uploadedBy || 'unknown'} · {formatDateTime(v.createdAt)}
                   </span>
                 </td>
-                <td className="py-1.5 pr-3">{v.status === 'imported' ? <Badge tone="accent">Imported</Badge> : <Badge tone="danger">Needs options</Badge>}</td>
+                <td className="py-1.5 pr-3 whitespace-nowrap">{v.status === 'imported' ? <Badge tone="accent">Imported</Badge> : <Badge tone="danger">Needs options</Badge>}</td>
                 <td className="figures py-1.5 pr-3 text-right">{v.status === 'imported' ? v.jointCount : '—'}</td>
                 <td className="figures py-1.5 pr-3 text-right">{v.status === 'imported' ? v.memberCount : '—'}</td>
                 <td className="py-1.5 pr-3 font-mono text-[11px] text-ink-soft" title={`SHA-256 ${v.sha256}`}>
