@@ -9,7 +9,7 @@ const job = (name: string) => path.join('tests', 'fixtures', 'jobs', name);
 
 async function solve(name: string): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run('npx', ['tsx', 'scripts/solve.ts', job(name)], { cwd: root });
+    const { stdout, stderr } = await run(process.execPath, ['--import', 'tsx', 'scripts/solve.ts', job(name)], { cwd: root });
     return { code: 0, stdout, stderr };
   } catch (e) {
     const err = e as { code: number; stdout: string; stderr: string };
