@@ -45,7 +45,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
               {s.project.jobNumber} {s.project.name}
             </Link>
             {' · '}
-            <Link to={`/trusses/${s.truss.id}`} className="hover:text-accent">
+            <Link to={`/trusses/${s.truss.id}?tab=sheets`} className="hover:text-accent">
               {s.truss.name}
             </Link>
           </span>
@@ -58,28 +58,25 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
         }
         description={<SheetSigners sheet={s} />}
         actions={
-          <div className="flex flex-col items-end gap-2">
-            <div className="flex gap-2">
-              {archived && (
-                <a
-                  href={sheetPdfUrl(s.id)}
-                  download
-                  className="inline-flex h-9 items-center rounded-md border border-accent bg-accent px-4 text-sm font-medium text-paper-raised hover:bg-accent-hover"
-                >
-                  Download issued PDF
-                </a>
-              )}
+          <SheetActions sheet={s} user={user}>
+            <a
+              href={sheetPreviewUrl(s.id)}
+              target="_blank"
+              rel="noreferrer"
+              className="inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
+            >
+              Open sheet in a new tab
+            </a>
+            {archived && (
               <a
-                href={sheetPreviewUrl(s.id)}
-                target="_blank"
-                rel="noreferrer"
-                className="inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
+                href={sheetPdfUrl(s.id)}
+                download
+                className="inline-flex h-9 items-center rounded-md border border-accent bg-accent px-4 text-sm font-medium text-paper-raised hover:bg-accent-hover"
               >
-                Open sheet in a new tab
+                Download issued PDF
               </a>
-            </div>
-            <SheetActions sheet={s} user={user} />
-          </div>
+            )}
+          </SheetActions>
         }
       />
 

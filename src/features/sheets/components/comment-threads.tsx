@@ -63,9 +63,8 @@ function Thread({ thread, sheetId, trussId, currentLabel, canReply, canResolve, 
       <div className="flex items-center gap-2 border-b border-paper-line/70 px-3 py-1.5 text-[11px]">
         <span className={`font-semibold ${thread.resolved ? 'text-accent' : 'text-danger'}`}>{thread.resolved ? 'Resolved' : 'Open'}</span>
         <span className="text-ink-faint">·</span>
-        <span className={earlier ? 'font-medium text-ink-soft' : 'text-ink-faint'}>
-          made on rev. {thread.revisionLabel}
-          {earlier ? ' (earlier)' : ''}
+        <span className={earlier ? 'font-medium text-ink-soft' : 'text-ink-faint'} title={`Made on revision ${thread.revisionLabel}`}>
+          {earlier ? `from rev. ${thread.revisionLabel}` : `rev. ${thread.revisionLabel}`}
         </span>
         {canResolve(thread) && (
           <Button

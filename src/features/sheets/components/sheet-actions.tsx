@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { UserView } from '@shared/schemas/auth.schema';
 import type { SheetAction, SheetRevisionView } from '@shared/schemas/review.schema';
 import { Button } from '@/components/ui/button';
@@ -14,8 +14,11 @@ const CONFIRM_TEXT: Record<SheetAction, string> = {
   issue: 'Panelpoint prints the final PDF with the signature block filled, stores it with its SHA-256 fingerprint and signs the record with the firm’s key. An issued revision can never change.',
 };
 
-/** The buttons for the moves this person may make, each confirmed with an optional note for the audit log. */
-export function SheetActions({ sheet, user }: { sheet: SheetRevisionView; user: Pick<UserView, 'id' | 'role'> }) {
+/**
+ * The buttons for the moves this person may make, each confirmed with an optional note for the
+ * audit log; `children` (links such as the PDF) sit in the same row before them.
+ */
+export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionView; user: Pick<UserView, 'id' | 'role'>; children?: ReactNode }) {
   const actions = sheetActionsFor(user, sheet);
   const [pending, setPending] = useState<SheetAction | null>(null);
   const [note, setNote] = useState('');
@@ -23,7 +26,7 @@ export function SheetActions({ sheet, user }: { sheet: SheetRevisionView; user: 
   const transition = useTransitionSheet();
   const openCount = sheet.openCommentIds.length;
 
-  if (actions.length === 0) return null;
+  if (actions.length === 0) return <div className="flex flex-wrap justify-end gap-2">{children}</div>;
 
   const start = (action: SheetAction) => {
     transition.reset();
@@ -50,6 +53,7 @@ export function SheetActions({ sheet, user }: { sheet: SheetRevisionView; user: 
   return (
     <div className="flex flex-col items-end gap-2">
       <div className="flex flex-wrap justify-end gap-2">
+        {children}
         {actions.map((action) => (
           <Button
             key={action}

@@ -26,7 +26,7 @@ const PREVIEW_STYLE = `
   [data-pp-threads] { position: relative; box-shadow: -5px 0 0 -1px #8a8d90; }
   [data-pp-threads][data-pp-open] { box-shadow: -5px 0 0 -1px #a33a2b; }
   [data-pp-threads]::after {
-    content: attr(data-pp-threads); position: absolute; top: 0; right: 0; padding: 1px 5px;
+    content: attr(data-pp-threads); position: absolute; top: 0; right: calc(100% + 9px); padding: 1px 5px; white-space: nowrap;
     font: 600 10px/1.4 Inter, system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
   }
   [data-pp-threads][data-pp-open]::after { color: #a33a2b; background: #faeeec; }
@@ -130,8 +130,8 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
         className={`size-full ${state.kind === 'missing' ? 'invisible' : ''}`}
       />
       {state.kind === 'loading' && (
-        <div role="status" className="absolute inset-0 flex items-center justify-center gap-3 text-sm text-ink-soft">
-          <span aria-hidden className="size-4 animate-spin rounded-full border-2 border-accent border-t-transparent" />
+        <div role="status" className="absolute top-3 left-3 flex items-center gap-2 rounded-md border border-paper-line bg-paper-raised px-3 py-1.5 text-xs text-ink-soft shadow-sm">
+          <span aria-hidden className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent" />
           Laying out the calc sheet…
         </div>
       )}

@@ -1,4 +1,5 @@
 import { useCallback, useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
 import type { UserView } from '@shared/schemas/auth.schema';
 import type { SheetCommentView, SheetRevisionView } from '@shared/schemas/review.schema';
 import { useTrussSheets } from '../api/get-truss-sheets';
@@ -13,7 +14,9 @@ import { SheetPreview, type StepFocus } from './sheet-preview';
  * right. A click on a step opens a comment box for it; a click on a thread shows its step.
  */
 export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: Pick<UserView, 'id' | 'role'> }) {
+  // The step shown as chosen on the sheet, and the step a new comment is being written on.
   const [selected, setSelected] = useState<string | null>(null);
+  const [writingOn, setWritingOn] = useState<string | null>(null);
   const [focus, setFocus] = useState<StepFocus | null>(null);
   const [stepOrder, setStepOrder] = useState<string[]>([]);
   const [show, setShow] = useState<'all' | 'open'>('all');
@@ -43,7 +46,10 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
     setSelected(anchor);
     setFocus((prev) => ({ anchor, seq: (prev?.seq ?? 0) + 1 }));
   }, []);
-  const pickStep = useCallback((anchor: string) => setSelected(anchor), []);
+  const pickStep = useCallback((anchor: string) => {
+    setSelected(anchor);
+    setWritingOn(anchor);
+  }, []);
 
   return (
     <div className="flex flex-col gap-4">
@@ -53,7 +59,11 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
             Returned with {openThreads.length} open comment{openThreads.length === 1 ? '' : 's'}
           </h2>
           <p className="mt-0.5 text-xs text-ink-soft">
-            Answer each in the model, run the analysis again and start a new revision from the truss page; mark them resolved there.
+            Answer each in the model, run the analysis again and start a new revision from{' '}
+            <Link to={`/trusses/${sheet.trussId}?tab=sheets`} className="font-medium text-accent hover:underline">
+              the truss page
+            </Link>
+            ; mark them resolved there.
           </p>
           <ul className="mt-3 flex flex-col gap-1.5">
             {openThreads.map((t) => (
@@ -99,18 +109,21 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
           </div>
           <div className="flex-1 overflow-y-auto px-4 py-3">
             {canComment &&
-              (selected ? (
+              (writingOn ? (
                 <div className="-mx-1 mb-4 rounded-md border border-accent/40 bg-accent-soft/40 pt-2">
                   <p className="px-3 pb-1.5 text-[11px] text-ink-soft">
-                    New comment on <span className="font-mono font-semibold text-accent">{selected}</span>
+                    New comment on <span className="font-mono font-semibold text-accent">{writingOn}</span>
                   </p>
                   <CommentComposer
-                    key={selected}
+                    key={writingOn}
                     sheetId={sheet.id}
-                    anchor={selected}
+                    anchor={writingOn}
                     placeholder="What should the preparer look at here?"
                     submitLabel="Comment"
-                    onDone={() => setSelected(null)}
+                    onDone={() => {
+                      setWritingOn(null);
+                      setSelected(null);
+                    }}
                   />
                 </div>
               ) : (
