@@ -30,16 +30,84 @@ export interface HealResult {
   pieces: number[][];
 }
 
+/**
+ * Open-addressing hash from a grid cell (gx, gy) to an int (the head of a linked list).
+ * Typed arrays and small-integer keys keep it free of allocation, which a Map keyed by
+ * gx·ny + gy is not once keys pass 2³⁰ (they become heap numbers).
+ */
+class CellHash {
+  kx: Int32Array;
+  ky: Int32Array;
+  val: Int32Array;
+  mask: number;
+  size = 0;
+
+  constructor(expected: number) {
+    let cap = 16;
+    while (cap < 2 * expected) cap *= 2;
+    this.kx = new Int32Array(cap);
+    this.ky = new Int32Array(cap);
+    this.val = new Int32Array(cap).fill(-1);
+    this.mask = cap - 1;
+  }
+
+  private slot(gx: number, gy: number): number {
+    // murmur3-style finaliser over both coordinates, so neighbouring cells spread out
+    let h = Math.imul(gx, 0x9e3779b1) ^ gy;
+    h ^= h >>> 16;
+    h = Math.imul(h, 0x85ebca6b);
+    h ^= h >>> 13;
+    h = Math.imul(h, 0xc2b2ae35);
+    h ^= h >>> 16;
+    h &= this.mask;
+    while (this.val[h] !== -1 && (this.kx[h] !== gx || this.ky[h] !== gy)) h = (h + 1) & this.mask;
+    return h;
+  }
+
+  get(gx: number, gy: number): number {
+    return this.val[this.slot(gx, gy)];
+  }
+
+  set(gx: number, gy: number, v: number): void {
+    let h = this.slot(gx, gy);
+    if (this.val[h] === -1) {
+      if (2 * (this.size + 1) > this.val.length) {
+        this.grow();
+        h = this.slot(gx, gy);
+      }
+      this.size++;
+      this.kx[h] = gx;
+      this.ky[h] = gy;
+    }
+    this.val[h] = v;
+  }
+
+  private grow(): void {
+    const { kx, ky, val } = this;
+    const cap = val.length * 2;
+    this.kx = new Int32Array(cap);
+    this.ky = new Int32Array(cap);
+    this.val = new Int32Array(cap).fill(-1);
+    this.mask = cap - 1;
+    for (let i = 0; i < val.length; i++) {
+      if (val[i] === -1) continue;
+      const h = this.slot(kx[i], ky[i]);
+      this.kx[h] = kx[i];
+      this.ky[h] = ky[i];
+      this.val[h] = val[i];
+    }
+  }
+}
+
+/** Members per grid cell, as linked lists of entries. */
 interface Buckets {
   cell: number;
   ox: number;
   oy: number;
-  ny: number;
-  map: Map<number, number[]>;
-}
-
-function keyOf(b: Buckets, gx: number, gy: number): number {
-  return gx * b.ny + gy;
+  heads: CellHash;
+  member: Int32Array;
+  next: Int32Array;
+  count: number;
 }
 
 /** Calls `visit(gx, gy)` for every grid cell the segment passes through (column sweep). */
@@ -78,18 +146,30 @@ function forCellsOfSegment(b: Buckets, x1: number, y1: number, x2: number, y2: n
   }
 }
 
-function gridOfMembers(j: Float64Array, m: Int32Array, count: number, cell: number, ox: number, oy: number, ny: number): Buckets {
-  const b: Buckets = { cell, ox, oy, ny, map: new Map() };
+function gridOfMembers(j: Float64Array, m: Int32Array, count: number, cell: number, ox: number, oy: number): Buckets {
+  const b: Buckets = { cell, ox, oy, heads: new CellHash(2 * count), member: new Int32Array(Math.max(16, 3 * count)), next: new Int32Array(Math.max(16, 3 * count)), count: 0 };
+  let current = 0;
+  const visit = (gx: number, gy: number) => {
+    const head = b.heads.get(gx, gy);
+    if (head !== -1 && b.member[head] === current) return;
+    if (b.count === b.member.length) {
+      const mm = new Int32Array(2 * b.count);
+      mm.set(b.member);
+      b.member = mm;
+      const nn = new Int32Array(2 * b.count);
+      nn.set(b.next);
+      b.next = nn;
+    }
+    b.member[b.count] = current;
+    b.next[b.count] = head;
+    b.heads.set(gx, gy, b.count);
+    b.count++;
+  };
   for (let i = 0; i < count; i++) {
     const a = m[2 * i];
     const e = m[2 * i + 1];
-    forCellsOfSegment(b, j[2 * a], j[2 * a + 1], j[2 * e], j[2 * e + 1], (gx, gy) => {
-      const k = keyOf(b, gx, gy);
-      const list = b.map.get(k);
-      if (list) {
-        if (list[list.length - 1] !== i) list.push(i);
-      } else b.map.set(k, [i]);
-    });
+    current = i;
+    forCellsOfSegment(b, j[2 * a], j[2 * a + 1], j[2 * e], j[2 * e + 1], visit);
   }
   return b;
 }
@@ -139,8 +219,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   // ---- 1. cluster endpoints within tol (grid of cell ≥ tol, 3×3 neighbourhood)
   const P = 2 * n;
   const pcell = Math.max(tol, span / 2 ** 24);
-  const pny = Math.floor((maxY - minY + 2 * tol) / pcell) + 3;
-  const head = new Map<number, number>();
+  const head = new CellHash(P);
   const next = new Int32Array(P).fill(-1);
   const parent = new Int32Array(P);
   const tol2 = tol * tol;
@@ -152,8 +231,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     const gy = Math.floor((y - oy) / pcell);
     for (let ix = gx - 1; ix <= gx + 1; ix++) {
       for (let iy = gy - 1; iy <= gy + 1; iy++) {
-        let q = head.get(ix * pny + iy);
-        while (q !== undefined && q >= 0) {
+        let q = head.get(ix, iy);
+        while (q >= 0) {
           const ddx = seg[2 * q] - x;
           const ddy = seg[2 * q + 1] - y;
           if (ddx * ddx + ddy * ddy <= tol2) union(parent, k, q);
@@ -161,10 +240,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         }
       }
     }
-    const key = gx * pny + gy;
-    const h = head.get(key);
-    next[k] = h === undefined ? -1 : h;
-    head.set(key, k);
+    next[k] = head.get(gx, gy);
+    head.set(gx, gy, k);
   }
   // clusters → joints (counting sort of points by root)
   const jointOfRoot = new Int32Array(P).fill(-1);
@@ -225,7 +302,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   let M = 0;
   const zeroLength = { count: 0, points: [] as number[] };
   const duplicates = { count: 0, members: [] as number[], points: [] as number[] };
-  const pairIndex = new Map<number, number>();
+  let pairIndex = new CellHash(n);
   for (let i = 0; i < n; i++) {
     const a = pointJoint[2 * i];
     const b = pointJoint[2 * i + 1];
@@ -234,15 +311,16 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       zeroLength.points.push(joints[2 * a], joints[2 * a + 1]);
       continue;
     }
-    const key = a < b ? a * J + b : b * J + a;
-    const seen = pairIndex.get(key);
-    if (seen !== undefined) {
+    const lo = a < b ? a : b;
+    const hi = a < b ? b : a;
+    const seen = pairIndex.get(lo, hi);
+    if (seen !== -1) {
       duplicates.count++;
       duplicates.members.push(seen);
       duplicates.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
       continue;
     }
-    pairIndex.set(key, M);
+    pairIndex.set(lo, hi, M);
     members[2 * M] = a;
     members[2 * M + 1] = b;
     memberSource[M] = i;
@@ -256,18 +334,19 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   for (let i = 0; i < M; i++) {
     const a = members[2 * i];
     const b = members[2 * i + 1];
-    lens[i] = Math.hypot(joints[2 * b] - joints[2 * a], joints[2 * b + 1] - joints[2 * a + 1]);
+    const dx = joints[2 * b] - joints[2 * a];
+    const dy = joints[2 * b + 1] - joints[2 * a + 1];
+    lens[i] = Math.sqrt(dx * dx + dy * dy);
     total += lens[i];
   }
   const median = M > 0 ? quickMedian(lens.slice()) : tol;
   const mcell = Math.max(median, total / (8 * Math.max(1, M)), 4 * tol, span / 2 ** 22);
-  const mny = Math.floor((maxY - minY + 2 * tol) / mcell) + 3;
 
   // ---- 4. split members at joints lying on their interior
   const splits = { members: 0, cuts: 0, joints: [] as number[], pieces: [] as number[] };
   const overlaps = { count: 0, members: [] as number[], points: [] as number[] };
   {
-    const grid = gridOfMembers(joints, members, M, mcell, ox, oy, mny);
+    const grid = gridOfMembers(joints, members, M, mcell, ox, oy);
     const stamp = new Int32Array(M).fill(-1);
     // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
     const isEnd = new Uint8Array(J);
@@ -285,9 +364,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       const gyb = Math.floor((y + tol - oy) / mcell);
       for (let gx = gxa; gx <= gxb; gx++) {
         for (let gy = gya; gy <= gyb; gy++) {
-          const list = grid.map.get(gx * mny + gy);
-          if (!list) continue;
-          for (const i of list) {
+          for (let e = grid.heads.get(gx, gy); e >= 0; e = grid.next[e]) {
+            const i = grid.member[e];
             if (stamp[i] === j) continue;
             stamp[i] = j;
             const a = members[2 * i];
@@ -348,7 +426,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       }
       // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
       // so they survive
-      pairIndex.clear();
+      pairIndex = new CellHash(Q);
       const keep = new Int32Array(Q).fill(-1);
       let K = 0;
       const out = new Int32Array(2 * Q);
@@ -356,16 +434,17 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       for (let q = 0; q < Q; q++) {
         const a = pieces[2 * q];
         const b = pieces[2 * q + 1];
-        const key = a < b ? a * J + b : b * J + a;
-        const seen = pairIndex.get(key);
-        if (seen !== undefined) {
+        const lo = a < b ? a : b;
+        const hi = a < b ? b : a;
+        const seen = pairIndex.get(lo, hi);
+        if (seen !== -1) {
           overlaps.count++;
           overlaps.members.push(seen);
           overlaps.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
           keep[q] = seen;
           continue;
         }
-        pairIndex.set(key, K);
+        pairIndex.set(lo, hi, K);
         keep[q] = K;
         out[2 * K] = a;
         out[2 * K + 1] = b;
@@ -393,9 +472,13 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   // ---- 6. crossings away from joints
   const crossings: HealResult['crossings'] = [];
   {
-    const grid = gridOfMembers(joints, members, M, mcell, ox, oy, mny);
+    const grid = gridOfMembers(joints, members, M, mcell, ox, oy);
     const found = new Set<number>();
-    for (const list of grid.map.values()) {
+    const list: number[] = [];
+    for (let slot = 0; slot < grid.heads.val.length; slot++) {
+      if (grid.heads.val[slot] === -1) continue;
+      list.length = 0;
+      for (let e = grid.heads.val[slot]; e >= 0; e = grid.next[e]) list.push(grid.member[e]);
       const L = list.length;
       if (L < 2) continue;
       for (let p = 0; p < L; p++) {
@@ -417,12 +500,15 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
           const cy = joints[2 * a2 + 1];
           const sx = joints[2 * b2] - cx;
           const sy = joints[2 * b2 + 1] - cy;
+          // bounding boxes first: most pairs sharing a cell do not overlap at all
+          if (Math.max(cx, cx + sx) < Math.min(ax, bx) || Math.min(cx, cx + sx) > Math.max(ax, bx)) continue;
+          if (Math.max(cy, cy + sy) < Math.min(ay, by) || Math.min(cy, cy + sy) > Math.max(ay, by)) continue;
           const den = rx * sy - ry * sx;
           if (den === 0) continue;
           const t = ((cx - ax) * sy - (cy - ay) * sx) / den;
           const u = ((cx - ax) * ry - (cy - ay) * rx) / den;
-          const li = Math.hypot(rx, ry);
-          const lk = Math.hypot(sx, sy);
+          const li = Math.sqrt(rx * rx + ry * ry);
+          const lk = Math.sqrt(sx * sx + sy * sy);
           if (t * li <= tol || (1 - t) * li <= tol || u * lk <= tol || (1 - u) * lk <= tol) continue;
           const lo = i < k ? i : k;
           const hi = i < k ? k : i;

@@ -114,7 +114,10 @@ function entityWords(type: string, n: number): string {
   return `${n} ${type} ${n === 1 ? 'entity' : 'entities'}`;
 }
 
-/** Default tolerance: 1/10 000 of the diagonal, rounded down to 1, 2 or 5 × 10ⁿ m (common practice, no source). */
+/**
+ * Default tolerance: 1/10 000 of the drawing's diagonal, but at most 1/1 000 of the typical
+ * (median) segment length, rounded down to 1, 2 or 5 × 10ⁿ m (common practice, no source).
+ */
 function defaultTolerance(diagonal: number): number {
   const raw = diagonal / 10_000;
   const p = Math.pow(10, Math.floor(Math.log10(raw)));
@@ -316,15 +319,18 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     throw new DxfImportError('no-lines', `Every line on the chosen layers has zero length (they all sit at one point). Draw the truss members as lines and upload again.`);
   }
   const tolSource: 'default' | 'option' = o.tolerance !== undefined ? 'option' : 'default';
-  const tol = o.tolerance ?? defaultTolerance(diagonal);
+  const lens = new Float64Array(n);
+  let nLens = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = seg[4 * i + 2] - seg[4 * i];
+    const dy = seg[4 * i + 3] - seg[4 * i + 1];
+    const L = Math.sqrt(dx * dx + dy * dy);
+    if (L > 0) lens[nLens++] = L;
+  }
+  const sortedLens = lens.subarray(0, nLens).sort();
+  const typical = sortedLens[nLens >> 1];
+  const tol = o.tolerance ?? defaultTolerance(Math.min(diagonal, 10 * typical));
   {
-    const lens: number[] = [];
-    for (let i = 0; i < n; i++) {
-      const L = Math.hypot(seg[4 * i + 2] - seg[4 * i], seg[4 * i + 3] - seg[4 * i + 1]);
-      if (L > 0) lens.push(L);
-    }
-    lens.sort((a, b) => a - b);
-    const typical = lens[lens.length >> 1];
     if (tolSource === 'option' && tol > typical / 2) {
       throw new DxfImportError('tolerance-too-large', `The tolerance of ${formatLength(tol)} is more than half the typical member length (${formatLength(typical)}), so it would join joints that should stay apart. Choose a smaller tolerance and import again.`);
     }
@@ -335,7 +341,9 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     count: 1,
     message:
       tolSource === 'default'
-        ? `joined endpoints closer than ${formatLength(tol)} (the default: 1/10 000 of the drawing's ${formatLength(diagonal)} diagonal)`
+        ? diagonal <= 10 * typical
+          ? `joined endpoints closer than ${formatLength(tol)} (the default: 1/10 000 of the drawing's ${formatLength(diagonal)} diagonal)`
+          : `joined endpoints closer than ${formatLength(tol)} (the default: 1/1 000 of the typical ${formatLength(typical)} segment)`
         : `joined endpoints closer than ${formatLength(tol)}, as chosen`,
   });
 

@@ -281,7 +281,8 @@ function scanGroups(lines: string[]): {
         break;
       }
       if (value === 'SECTION') {
-        const next = i + 2 < nLines ? parseCode(lines[i + 2]) : NaN;
+        if (i + 3 >= nLines) break; // cut off right after SECTION: reported as truncated below
+        const next = parseCode(lines[i + 2]);
         if (next !== 2) {
           throw new DxfImportError('malformed', `The SECTION at line ${lineNo(i)} has no name (group 2) after it. The file is damaged; save it again from your CAD program and upload that.`);
         }
