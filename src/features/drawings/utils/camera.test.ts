@@ -58,11 +58,18 @@ describe('camera maths (checks are closed-form: linear maps and their inverses, 
     expect(cameraPan({ cx: 0, cy: 0, scale: 30 }, 60, 30)).toEqual({ cx: -2, cy: 1, scale: 30 });
   });
 
-  it('when a small place is revealed, then it is centred at the present zoom', () => {
+  it('when the place to reveal is already in view, then the view does not move', () => {
     const camera = { cx: 0, cy: 0, scale: 60 };
-    const revealed = cameraReveal(camera, size, { minX: 2.5, minY: 0.8, maxX: 2.7, maxY: 1.0 });
+    // x 2.5…2.7 m → 550…562 px, y 0.8…1.0 m → 140…152 px: inside 800 × 400 less 36 px.
+    expect(cameraReveal(camera, size, { minX: 2.5, minY: 0.8, maxX: 2.7, maxY: 1.0 })).toBe(camera);
+  });
+
+  it('when a small place outside the view is revealed, then it is centred at the present zoom', () => {
+    const camera = { cx: 0, cy: 0, scale: 60 };
+    // x 7.5 m → 850 px: beyond the 800 px viewport.
+    const revealed = cameraReveal(camera, size, { minX: 7.5, minY: 0.8, maxX: 7.7, maxY: 1.0 });
     expect(revealed.scale).toBe(60);
-    expect(revealed.cx).toBeCloseTo(2.6, 12);
+    expect(revealed.cx).toBeCloseTo(7.6, 12);
     expect(revealed.cy).toBeCloseTo(0.9, 12);
   });
 

@@ -83,10 +83,17 @@ export function cameraPan(camera: Camera, dx: number, dy: number): Camera {
 }
 
 /**
- * Brings a box into view: centred at the present zoom when it fits there, otherwise zoomed
- * out just enough to fit it (never zoomed in, so the reader keeps their place).
+ * Brings a box into view with as little movement as possible: left as it is when the box is
+ * already inside the viewport (less the padding), centred at the present zoom when it fits
+ * there, otherwise zoomed out just enough to fit it (never zoomed in, so the reader keeps
+ * their place).
  */
 export function cameraReveal(camera: Camera, size: ViewportSize, box: DxfExtent, padding = CAMERA_FIT_PADDING): Camera {
+  const topLeft = cameraToScreen(camera, size, { x: box.minX, y: box.maxY });
+  const bottomRight = cameraToScreen(camera, size, { x: box.maxX, y: box.minY });
+  const inside =
+    topLeft.x >= padding && topLeft.y >= padding && bottomRight.x <= size.width - padding && bottomRight.y <= size.height - padding;
+  if (inside) return camera;
   const fitted = cameraFit(box, size, padding);
   return {
     cx: fitted.cx,
