@@ -99,6 +99,9 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
         {s.issue ? (
           <Panel title="Issued record">
             <SheetIssueRecord issue={s.issue} />
+            <p className="mt-3 text-xs text-ink-faint">
+              The sheet above is laid out again from the analysis run for reading; the downloaded PDF is the record as issued.
+            </p>
           </Panel>
         ) : (
           <Panel title="Revision">

@@ -51,7 +51,7 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
   };
 
   return (
-    <div className="flex flex-col items-end gap-2">
+    <div className="relative flex flex-col items-end gap-2">
       <div className="flex flex-wrap justify-end gap-2">
         {children}
         {actions.map((action) => (
@@ -73,7 +73,7 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
         </p>
       )}
       {pending && (
-        <div className="w-full max-w-md rounded-md border border-paper-line bg-paper-raised p-4 text-left shadow-sm">
+        <div className="absolute top-11 right-0 z-20 w-[26rem] max-w-[90vw] rounded-md border border-paper-line bg-paper-raised p-4 text-left shadow-lg">
           <p className="mb-3 text-sm text-ink-soft">{CONFIRM_TEXT[pending]}</p>
           <TextareaField
             label={pending === 'return' ? 'Why it goes back' : 'Note for the audit log (optional)'}
@@ -85,6 +85,11 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
           />
           <div className="mt-3 flex flex-col gap-3">
             <FormError message={transition.isError ? errorMessage(transition.error) : undefined} />
+            {transition.isPending && pending === 'issue' && (
+              <p role="status" className="text-xs text-ink-soft">
+                Printing the PDF and signing the record; this can take several seconds.
+              </p>
+            )}
             <div className="flex justify-end gap-2">
               <Button variant="quiet" onClick={() => setPending(null)} disabled={transition.isPending}>
                 Cancel

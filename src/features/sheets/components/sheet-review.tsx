@@ -35,7 +35,8 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
   const statusOf = useMemo(() => new Map((siblings.data ?? []).map((r) => [r.id, r.status])), [siblings.data]);
   const canResolve = useCallback(
     (thread: SheetCommentView) => {
-      if (user.role !== 'engineer' && user.role !== 'reviewer') return false;
+      // Nothing on an issued page changes, not even threads of earlier revisions.
+      if ((user.role !== 'engineer' && user.role !== 'reviewer') || isSheetFrozen(sheet.status)) return false;
       const status = thread.revisionId === sheet.id ? sheet.status : statusOf.get(thread.revisionId);
       return status !== undefined && !isSheetFrozen(status);
     },
@@ -82,6 +83,8 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
 
       <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <SheetPreview
+          // The sheet's title block follows the revision's moves: lay it out again after each.
+          key={sheet.updatedAt}
           src={sheetPreviewUrl(sheet.id)}
           commented={commented}
           selected={selected}
