@@ -6,6 +6,8 @@ import { TrussSheets } from '@/features/sheets/components/truss-sheets';
 import { useTruss } from '@/features/trusses/api/get-truss';
 import { TrussPage } from '@/features/trusses/components/truss-page';
 import { TrussTabs, type TrussTab } from '@/features/trusses/components/truss-tabs';
+import { ModelWorkspace } from '@/features/workspace/components/model-editor';
+import { RunsWorkspace } from '@/features/workspace/components/runs-section';
 import { canUploadDrawings } from '@/lib/permissions';
 import { useCurrentUser } from '../current-user';
 
@@ -41,6 +43,13 @@ function TrussRouteLoaded({ trussId }: { trussId: number }) {
       id: 'drawing',
       label: 'Drawing',
       content: <DrawingSection trussId={trussId} mayUpload={canUploadDrawings(user.role)} unitSystem={project.data?.unitSystem} />,
+    },
+    // Engineers edit the model and run it; everyone else reads (the server enforces both).
+    { id: 'model', label: 'Model & loads', content: <ModelWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} /> },
+    {
+      id: 'runs',
+      label: 'Runs & results',
+      content: <RunsWorkspace trussId={trussId} mayRun={user.role === 'engineer'} unitSystem={project.data?.unitSystem === 'US' ? 'us' : 'si'} />,
     },
     { id: 'sheets', label: 'Calc sheets', content: <TrussSheets trussId={trussId} user={user} /> },
   ];

@@ -1,0 +1,282 @@
+import { useState } from 'react';
+import { useFieldArray, useWatch } from 'react-hook-form';
+import { loadCategorySchema, type Joint, type LoadCategory } from '@shared/model/truss';
+import { Button } from '@/components/ui/button';
+import { CATEGORY_LABELS } from '../utils/model-draft';
+import { fieldErrorText } from '../utils/field-error';
+import { draftActions, type DraftForm } from './draft-actions';
+import { CELL_INPUT, TH, TH_RIGHT } from './supports-table';
+
+interface LoadsSectionProps {
+  form: DraftForm;
+  joints: readonly Joint[];
+  mayEdit: boolean;
+  /** Cases the saved roof takeoff writes: their joint loads are replaced when a run starts. */
+  takeoffCases: ReadonlySet<string>;
+}
+
+const border = (error?: string) => (error ? 'border-danger' : 'border-paper-line');
+
+/** Load cases with their category, and every joint load in one table for exact entry and bulk edits. */
+export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSectionProps) {
+  const actions = draftActions(form);
+  const caseArray = useFieldArray({ control: form.control, name: 'loadCases' });
+  const loadArray = useFieldArray({ control: form.control, name: 'loads' });
+  const cases = useWatch({ control: form.control, name: 'loadCases' }) ?? [];
+  const loads = useWatch({ control: form.control, name: 'loads' }) ?? [];
+  const [newCategory, setNewCategory] = useState<LoadCategory>('dead');
+  const [selected, setSelected] = useState<Set<number>>(new Set());
+  const [bulkFy, setBulkFy] = useState('');
+  const [caseFilter, setCaseFilter] = useState('');
+  const errors = form.formState.errors;
+  const tags = new Map(joints.map((j) => [j.id, j.tag]));
+
+  const visible = loadArray.fields.map((f, i) => ({ f, i })).filter(({ i }) => !caseFilter || loads[i]?.caseId === caseFilter);
+  const allSelected = visible.length > 0 && visible.every(({ i }) => selected.has(i));
+  const toggle = (i: number) =>
+    setSelected((s) => {
+      const next = new Set(s);
+      if (next.has(i)) next.delete(i);
+      else next.add(i);
+      return next;
+    });
+
+  const applyFy = () => {
+    const v = Number(bulkFy);
+    if (bulkFy.trim() === '' || !Number.isFinite(v)) return;
+    for (const i of selected) form.setValue(`loads.${i}.fy`, v, { shouldDirty: true });
+  };
+  const moveTo = (caseId: string) => {
+    for (const i of selected) form.setValue(`loads.${i}.caseId`, caseId, { shouldDirty: true });
+  };
+
+  return (
+    <div className="flex flex-col gap-6">
+      <section aria-labelledby="load-cases-title">
+        <h3 id="load-cases-title" className="mb-2 text-sm font-semibold text-ink">
+          Load cases
+        </h3>
+        <table className="w-full border-collapse text-[13px]">
+          <thead>
+            <tr className="border-b border-paper-line">
+              <th className={TH}>Id</th>
+              <th className={TH}>Name</th>
+              <th className={TH}>Category</th>
+              <th className={TH_RIGHT}>Joint loads</th>
+              <th className={TH}>
+                <span className="sr-only">Remove</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {caseArray.fields.length === 0 && (
+              <tr>
+                <td colSpan={5} className="px-2 py-4 text-center text-sm text-ink-soft">
+                  No load cases yet. Add one below, or let the roof takeoff add its cases.
+                </td>
+              </tr>
+            )}
+            {caseArray.fields.map((field, i) => {
+              const c = cases[i];
+              const count = loads.filter((l) => l.caseId === c?.id).length;
+              const nameError = fieldErrorText(errors.loadCases?.[i]?.name?.message);
+              return (
+                <tr key={field.id} className="border-b border-paper-line/70 align-top">
+                  <td className="px-2 py-2 font-medium text-ink">{c?.id}</td>
+                  <td className="px-2 py-1">
+                    <input aria-label={`Load case ${c?.id}: name`} className={`${CELL_INPUT} ${border(nameError)}`} {...form.register(`loadCases.${i}.name`)} />
+                    {nameError && <p className="mt-0.5 text-xs text-danger">{nameError}</p>}
+                  </td>
+                  <td className="px-2 py-1">
+                    <select aria-label={`Load case ${c?.id}: category`} className={`${CELL_INPUT} ${border()}`} {...form.register(`loadCases.${i}.category`)}>
+                      {loadCategorySchema.options.map((cat) => (
+                        <option key={cat} value={cat}>
+                          {CATEGORY_LABELS[cat]}
+                        </option>
+                      ))}
+                    </select>
+                  </td>
+                  <td className="figures px-2 py-2 text-right text-ink-soft">
+                    {count}
+                    {c && takeoffCases.has(c.id) && <span className="ml-2 text-[11px] text-accent">from the roof takeoff</span>}
+                  </td>
+                  <td className="w-16 px-2 py-1 text-right">
+                    {mayEdit && c && (
+                      <button type="button" className="py-1.5 text-xs text-danger hover:underline" onClick={() => actions.removeCase(c.id)}>
+                        Remove
+                      </button>
+                    )}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {mayEdit && (
+          <div className="mt-2 flex items-center gap-2">
+            <select aria-label="Category of the new load case" className={`${CELL_INPUT} ${border()} w-40`} value={newCategory} onChange={(e) => setNewCategory(e.target.value as LoadCategory)}>
+              {loadCategorySchema.options.map((cat) => (
+                <option key={cat} value={cat}>
+                  {CATEGORY_LABELS[cat]}
+                </option>
+              ))}
+            </select>
+            <Button size="sm" onClick={() => actions.addCase(newCategory)}>
+              Add load case
+            </Button>
+          </div>
+        )}
+      </section>
+
+      <section aria-labelledby="joint-loads-title">
+        <div className="mb-2 flex flex-wrap items-end justify-between gap-2">
+          <h3 id="joint-loads-title" className="text-sm font-semibold text-ink">
+            Joint loads <span className="font-normal text-ink-faint">kN; +x right, +y up (gravity loads have Fy &lt; 0)</span>
+          </h3>
+          <select aria-label="Show the loads of" className={`${CELL_INPUT} ${border()} w-48`} value={caseFilter} onChange={(e) => setCaseFilter(e.target.value)}>
+            <option value="">All load cases</option>
+            {cases.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.id} — {c.name}
+              </option>
+            ))}
+          </select>
+        </div>
+
+        {mayEdit && selected.size > 0 && (
+          <div className="mb-2 flex flex-wrap items-center gap-2 rounded-md border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs text-ink">
+            <span className="font-medium">{selected.size} selected</span>
+            <label className="flex items-center gap-1">
+              Fy
+              <input type="number" step="any" aria-label="Fy for the selected loads, kN" className={`${CELL_INPUT} ${border()} w-24 text-right`} value={bulkFy} onChange={(e) => setBulkFy(e.target.value)} />
+              kN
+            </label>
+            <Button size="sm" onClick={applyFy}>
+              Set Fy
+            </Button>
+            <select aria-label="Move the selected loads to case" className={`${CELL_INPUT} ${border()} w-44`} value="" onChange={(e) => e.target.value && moveTo(e.target.value)}>
+              <option value="">Move to case…</option>
+              {cases.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.id} — {c.name}
+                </option>
+              ))}
+            </select>
+            <Button
+              size="sm"
+              variant="danger"
+              onClick={() => {
+                actions.removeLoads(selected);
+                setSelected(new Set());
+              }}
+            >
+              Remove selected
+            </Button>
+          </div>
+        )}
+
+        <table className="w-full border-collapse text-[13px]">
+          <thead>
+            <tr className="border-b border-paper-line">
+              <th className={`${TH} w-8`}>
+                {mayEdit && (
+                  <input
+                    type="checkbox"
+                    className="accent-accent"
+                    aria-label="Select all loads shown"
+                    checked={allSelected}
+                    onChange={() => setSelected(allSelected ? new Set() : new Set(visible.map(({ i }) => i)))}
+                  />
+                )}
+              </th>
+              <th className={TH}>Case</th>
+              <th className={TH}>Joint</th>
+              <th className={TH_RIGHT}>Fx (kN)</th>
+              <th className={TH_RIGHT}>Fy (kN)</th>
+              <th className={TH}>Note</th>
+              <th className={TH}>
+                <span className="sr-only">Remove</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {visible.length === 0 && (
+              <tr>
+                <td colSpan={7} className="px-2 py-4 text-center text-sm text-ink-soft">
+                  No joint loads{caseFilter ? ' in this case' : ''}. Click a joint on the drawing, add a row, or use the roof takeoff.
+                </td>
+              </tr>
+            )}
+            {visible.map(({ f, i }) => {
+              const e = errors.loads?.[i];
+              const fxError = fieldErrorText(e?.fx?.message);
+              const fyError = fieldErrorText(e?.fy?.message);
+              const caseError = fieldErrorText(e?.caseId?.message);
+              return (
+                <tr key={f.id} className={`border-b border-paper-line/70 align-top ${selected.has(i) ? 'bg-accent-soft/40' : ''}`}>
+                  <td className="px-2 py-2">
+                    {mayEdit && <input type="checkbox" className="accent-accent" aria-label={`Select load ${i + 1}`} checked={selected.has(i)} onChange={() => toggle(i)} />}
+                  </td>
+                  <td className="px-2 py-1">
+                    <select aria-label={`Load ${i + 1}: case`} className={`${CELL_INPUT} ${border(caseError)}`} {...form.register(`loads.${i}.caseId`)}>
+                      {cases.map((c) => (
+                        <option key={c.id} value={c.id}>
+                          {c.id}
+                        </option>
+                      ))}
+                    </select>
+                    {caseError && <p className="mt-0.5 text-xs text-danger">{caseError}</p>}
+                  </td>
+                  <td className="px-2 py-1">
+                    <select aria-label={`Load ${i + 1}: joint`} className={`${CELL_INPUT} ${border()}`} {...form.register(`loads.${i}.joint`)}>
+                      {joints.map((j) => (
+                        <option key={j.id} value={j.id}>
+                          {tags.get(j.id)}
+                        </option>
+                      ))}
+                    </select>
+                  </td>
+                  <td className="w-28 px-2 py-1">
+                    <input type="number" step="any" aria-label={`Load ${i + 1}: Fx, kN`} className={`${CELL_INPUT} ${border(fxError)} text-right`} {...form.register(`loads.${i}.fx`, { valueAsNumber: true })} />
+                    {fxError && <p className="mt-0.5 text-xs text-danger">{fxError}</p>}
+                  </td>
+                  <td className="w-28 px-2 py-1">
+                    <input type="number" step="any" aria-label={`Load ${i + 1}: Fy, kN`} className={`${CELL_INPUT} ${border(fyError)} text-right`} {...form.register(`loads.${i}.fy`, { valueAsNumber: true })} />
+                    {fyError && <p className="mt-0.5 text-xs text-danger">{fyError}</p>}
+                  </td>
+                  <td className="px-2 py-1">
+                    <input aria-label={`Load ${i + 1}: note`} className={`${CELL_INPUT} ${border()}`} {...form.register(`loads.${i}.note`)} />
+                  </td>
+                  <td className="w-16 px-2 py-1 text-right">
+                    {mayEdit && (
+                      <button
+                        type="button"
+                        className="py-1.5 text-xs text-danger hover:underline"
+                        onClick={() => {
+                          loadArray.remove(i);
+                          setSelected(new Set());
+                        }}
+                      >
+                        Remove
+                      </button>
+                    )}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {mayEdit && cases.length > 0 && joints.length > 0 && (
+          <Button size="sm" className="mt-2" onClick={() => loadArray.append({ caseId: caseFilter || cases[0]!.id, joint: joints[0]!.id, fx: 0, fy: 0 })}>
+            Add joint load
+          </Button>
+        )}
+        {[...takeoffCases].some((id) => cases.some((c) => c.id === id)) && (
+          <p className="mt-2 text-xs text-ink-soft">
+            Loads of the cases marked “from the roof takeoff” are recomputed from the takeoff when a run starts; edit the takeoff, not these rows.
+          </p>
+        )}
+      </section>
+    </div>
+  );
+}

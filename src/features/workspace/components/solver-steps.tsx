@@ -1,0 +1,62 @@
+import { useEffect, useRef } from 'react';
+import { stepToKatex, type SolverStep } from '@shared/solver';
+import { stepJoints } from '../utils/run-results';
+import { Tex } from './tex';
+
+interface SolverStepsProps {
+  steps: SolverStep[];
+  /** The step picked (by clicking it or its joint on the diagram). */
+  activeStep: string | null;
+  onActivate: (step: SolverStep) => void;
+  onHover: (joints: string[] | null) => void;
+}
+
+const KIND_LABEL: Partial<Record<SolverStep['kind'], string>> = {
+  determinacy: 'Stability and determinacy',
+  'zero-force': 'Zero-force member',
+  reaction: 'Support reactions',
+  joint: 'Method of joints',
+  simultaneous: 'Solved together',
+  'stiffness-members': 'Direct stiffness',
+  'stiffness-assembly': 'Direct stiffness',
+  'stiffness-displacements': 'Direct stiffness',
+  'stiffness-forces': 'Direct stiffness',
+  check: 'Equilibrium check',
+};
+
+/** The solver's steps typeset with KaTeX; each step with joints lights them on the diagram. */
+export function SolverSteps({ steps, activeStep, onActivate, onHover }: SolverStepsProps) {
+  const listRef = useRef<HTMLOListElement>(null);
+  useEffect(() => {
+    if (!activeStep) return;
+    listRef.current?.querySelector(`[data-step="${CSS.escape(activeStep)}"]`)?.scrollIntoView({ block: 'nearest', behavior: 'smooth' });
+  }, [activeStep]);
+
+  return (
+    <ol ref={listRef} className="flex flex-col gap-2">
+      {steps.map((step) => {
+        const joints = stepJoints(step);
+        const active = step.id === activeStep;
+        return (
+          <li
+            key={step.id}
+            data-step={step.id}
+            id={`step-${step.id}`}
+            className={`rounded-md border px-3 py-2 transition-colors ${active ? 'border-accent bg-accent-soft/40' : 'border-paper-line bg-paper-raised'} ${joints.length ? 'cursor-pointer hover:border-accent/50' : ''}`}
+            onMouseEnter={() => joints.length && onHover(joints)}
+            onMouseLeave={() => onHover(null)}
+            onClick={() => joints.length && onActivate(step)}
+          >
+            <p className="flex items-baseline justify-between gap-2 text-xs">
+              <span className="font-semibold text-ink">{step.title}</span>
+              <span className="text-ink-faint">{KIND_LABEL[step.kind]}</span>
+            </p>
+            {stepToKatex(step).map((line, i) => (
+              <Tex key={i} source={line} />
+            ))}
+          </li>
+        );
+      })}
+    </ol>
+  );
+}
