@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { caseSteps, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import type { RunView } from '@shared/schemas/run.schema';
 import type { UnitSystemId } from '@shared/units';
@@ -25,12 +25,16 @@ import { TrussSvg, type JointArrow } from './truss-svg';
 const LINK = 'inline-flex h-8 items-center rounded-md border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
 const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
 
-/** A small number written so it can be read: 3.6 × 10⁻¹⁵ rather than 0.000. */
-function smallKn(v: number): string {
+/** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000. */
+function smallKn(v: number): ReactNode {
   if (v === 0) return '0 kN';
   if (Math.abs(v) >= 0.001) return `${v.toFixed(4)} kN`;
   const [m, e] = v.toExponential(1).split('e');
-  return `${m} × 10^${Number(e)} kN`;
+  return (
+    <>
+      {m} × 10<sup>{Number(e).toString().replace('-', '\u2212')}</sup> kN
+    </>
+  );
 }
 
 /** One run: its status, the classification, and for a solved run the forces, diagram and steps. */
@@ -296,10 +300,25 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
 
           <Panel title={caseResult ? `Joint by joint — load case ${caseResult.caseId} (${caseResult.method === 'stiffness' ? 'direct stiffness method' : 'method of joints'})` : 'Joint by joint'}>
             {caseResult ? (
-              <>
-                <p className="mb-3 text-xs text-ink-soft">Point at a step to see its joint on the diagram; click a joint on the diagram to find its step.</p>
+              <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+                <div className="lg:sticky lg:top-2 lg:self-start">
+                  <TrussSvg
+                    label="Joints of the steps: point at a step to see its joint"
+                    height={300}
+                    joints={model.joints}
+                    members={model.members}
+                    supports={model.supports}
+                    memberLook={(m) => {
+                      const s = forceStroke(result?.forces[m.id] ?? 0, largest);
+                      return { colour: s.colour, width: Math.min(s.width, 3), dash: s.dash };
+                    }}
+                    highlightJoints={highlighted}
+                    onJointClick={onJointClick}
+                  />
+                  <p className="mt-2 text-xs text-ink-soft">Point at a step to see its joint here; click a joint to find its step.</p>
+                </div>
                 <SolverSteps steps={steps} activeStep={activeStep?.id ?? null} onActivate={setActiveStep} onHover={setHoverJoints} />
-              </>
+              </div>
             ) : (
               <p className="text-sm text-ink-soft">The equations are written per load case: choose a load case above to read them. Combinations add the cases’ forces with their factors.</p>
             )}
