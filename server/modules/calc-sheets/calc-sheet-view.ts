@@ -156,6 +156,15 @@ export function katexHtml(source: string, display = true): string {
   return katex.renderToString(source, { displayMode: display, output: 'html', throwOnError: true, strict: 'ignore' });
 }
 
+/**
+ * Typesets one equation of a step in display style but as inline math, so that a long equation
+ * (a moment sum over many joints) breaks after a relation or an operator instead of running off
+ * the page. KaTeX breaks inline math only there.
+ */
+function equationHtml(source: string): string {
+  return katex.renderToString(`\\displaystyle ${source}`, { displayMode: false, output: 'html', throwOnError: true, strict: 'ignore' });
+}
+
 interface Formatters {
   system: UnitSystemId;
   unit(q: Quantity): string;
@@ -197,7 +206,7 @@ function isoMinute(at: Date | string): string {
 }
 
 function stepView(step: SolverStep, fmt: Formatters): StepView {
-  const lines = stepToKatex(step, { decimals: 3 }).map((src) => katexHtml(src));
+  const lines = stepToKatex(step, { decimals: 3 }).map((src) => equationHtml(src));
   const view: StepView = { id: step.id, title: step.title, lines };
   if (step.kind === 'joint') {
     view.svg = jointFbdSvg(step, { formatForce: (kN) => fmt.qty(kN, 'force'), zeroTolerance: fmt.zeroTol });
@@ -424,7 +433,7 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
         r.maxTensionCombo && r.maxTension > zeroTol ? r.maxTensionCombo : '',
         r.maxCompression < -zeroTol ? fmt.num(r.maxCompression, 'force') : '—',
         r.maxCompressionCombo && r.maxCompression < -zeroTol ? r.maxCompressionCombo : '',
-        fmt.member(r.governingForce),
+        forceSenseOf(r.governingForce, zeroTol) === '0' ? fmt.memberNum(0) : `${fmt.memberNum(r.governingForce)} ${fmt.sense(r.governingForce)}`,
         r.governing ?? '—',
       ],
     })),

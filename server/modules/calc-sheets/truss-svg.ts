@@ -195,8 +195,8 @@ export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions)
   const loads = (options.loads ?? []).filter((l) => Math.hypot(l.fx, l.fy) > 1e-12);
   const many = model.joints.length > 60;
   const font = many ? 11 : 15;
-  const top = loads.length ? 78 : 34;
-  const frame = frameFit(ext, [top, dims ? 96 : 40, dims ? 112 : 56, 46], 380);
+  const room = loads.length ? 84 : 0;
+  const frame = frameFit(ext, [34 + room, dims ? 96 : 40, (dims ? 112 : 56) + room, 46], 380);
   const byId = new Map(model.joints.map((j) => [j.id, j]));
   const out: string[] = [svgOpen(frame, options.label, 'truss-drawing')];
 
@@ -225,9 +225,11 @@ export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions)
     const cy = frame.y(j.y);
     out.push(`<circle cx="${f1(cx)}" cy="${f1(cy)}" r="${many ? 2.6 : 3.8}" fill="#fff" stroke="${INK}" stroke-width="1.6"/>`);
     const supported = model.supports.some((s) => s.joint === j.id);
-    const dx = ox * (font + 2);
+    const loaded = loads.some((l) => l.joint === j.id);
+    // A loaded joint's arrow runs along the open side: its tag moves beside the arrow instead.
+    const dx = loaded ? font * 0.55 : ox * (font + 2);
     const dy = supported && oy < 0.3 ? -(font + 4) : -oy * (font + 2);
-    const anchor = Math.abs(dx) < font * 0.4 ? 'middle' : dx > 0 ? 'start' : 'end';
+    const anchor = loaded ? 'start' : Math.abs(dx) < font * 0.4 ? 'middle' : dx > 0 ? 'start' : 'end';
     out.push(haloText(cx + dx, cy + dy + font * 0.35, j.tag, `text-anchor="${anchor}" font-size="${font}" font-weight="600" fill="${INK}"`));
   }
 
@@ -240,13 +242,31 @@ export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions)
       const ux = l.fx / mag;
       const uy = -l.fy / mag; // view axes
       const len = 26 + 34 * (mag / maxLoad);
-      const tipX = frame.x(j.x) - ux * 6;
-      const tipY = frame.y(j.y) - uy * 6;
-      const tailX = tipX - ux * len;
-      const tailY = tipY - uy * len;
+      // Directions (view axes) of the members at the joint: the arrow goes on the side with room,
+      // onto the joint from outside (push) or hanging from it (pull).
+      const dirs: [number, number][] = [];
+      for (const m of model.members) {
+        const other = m.from === j.id ? m.to : m.to === j.id ? m.from : null;
+        const o = other ? byId.get(other) : undefined;
+        if (!o) continue;
+        const L = Math.hypot(o.x - j.x, o.y - j.y) || 1;
+        dirs.push([(o.x - j.x) / L, -(o.y - j.y) / L]);
+      }
+      const clearance = (bx: number, by: number) => Math.min(Math.PI, ...dirs.map(([mx, my]) => Math.acos(Math.max(-1, Math.min(1, bx * mx + by * my)))));
+      const push = clearance(-ux, -uy) >= clearance(ux, uy) - 1e-9;
+      const jx = frame.x(j.x);
+      const jy = frame.y(j.y);
+      const side = push ? -1 : 1;
+      const near = push ? 6 : 8;
+      const tipX = push ? jx - ux * near : jx + ux * (near + len);
+      const tipY = push ? jy - uy * near : jy + uy * (near + len);
+      const tailX = push ? tipX - ux * len : jx + ux * near;
+      const tailY = push ? tipY - uy * len : jy + uy * near;
       out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - ux * 8)}" y2="${f1(tipY - uy * 8)}" stroke="#1d4ed8" stroke-width="1.8"/>`);
       out.push(arrowHead(tipX, tipY, ux, uy, 10, '#1d4ed8'));
-      out.push(haloText(tailX - ux * 4, tailY - uy * 4 - 3, options.formatForce(mag), `text-anchor="middle" font-size="${font * 0.8}" fill="#1d4ed8" class="tnum"`));
+      const endX = jx + side * ux * (near + len + 6);
+      const endY = jy + side * uy * (near + len + 6);
+      out.push(haloText(endX, endY + (side * uy > 0.5 ? font * 0.8 : side * uy < -0.5 ? -3 : font * 0.3), options.formatForce(mag), `text-anchor="middle" font-size="${font * 0.8}" fill="#1d4ed8" class="tnum"`));
     }
   }
 
