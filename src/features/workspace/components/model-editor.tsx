@@ -96,6 +96,9 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
   const [selectedMembers, setSelectedMembers] = useState<Set<string>>(new Set());
   const [shownCase, setShownCase] = useState<string>('');
   const hasEdits = form.formState.isDirty || restored;
+  // The save reads the version here: "save mine over theirs" changes it and saves at once.
+  const versionRef = useRef(baseVersion);
+  versionRef.current = baseVersion;
 
   // Edits survive a look at another tab; a reload or closing the page asks first.
   const latest = useRef({ hasEdits, baseVersion });
@@ -136,7 +139,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
   const submit = form.handleSubmit(async (draft) => {
     setSaveError(null);
     try {
-      const saved = await save.mutateAsync({ trussId, input: draftToSaveInput(draft, baseVersion) });
+      const saved = await save.mutateAsync({ trussId, input: draftToSaveInput(draft, versionRef.current) });
       loadView(saved);
     } catch (error) {
       if (error instanceof ApiError && error.status === 409) {
@@ -264,10 +267,10 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               disabled={!conflict.theirs}
               onClick={() => {
                 if (!conflict.theirs) return;
+                versionRef.current = conflict.theirs.version;
                 setBaseVersion(conflict.theirs.version);
                 setConflict(null);
-                // The version changes with the state; save on the next tick so the new one is sent.
-                setTimeout(() => void submit(), 0);
+                void submit();
               }}
             >
               Save mine over theirs

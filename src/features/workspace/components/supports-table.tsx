@@ -5,7 +5,7 @@ import { fieldErrorText } from '../utils/field-error';
 import type { DraftForm } from './draft-actions';
 
 export const CELL_INPUT =
-  'h-8 w-full rounded border bg-paper-raised px-2 text-[13px] focus:border-accent focus:outline-none disabled:bg-transparent disabled:border-transparent';
+  'h-8 w-full rounded border bg-paper-raised px-2 text-[13px] focus:border-accent focus:outline-none disabled:bg-transparent disabled:border-transparent disabled:appearance-none';
 const border = (error?: string) => (error ? 'border-danger' : 'border-paper-line');
 export const TH = 'px-2 py-1.5 text-left text-[11px] font-semibold tracking-wide text-ink-soft uppercase whitespace-nowrap';
 export const TH_RIGHT = `${TH} text-right`;
