@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
 import { numberFormat } from '@shared/units';
+import { roofTakeoff } from '@shared/takeoff';
 import { buildCalcSheetView, type CalcSheetInput } from '../server/modules/calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml, cssString } from '../server/modules/calc-sheets/calc-sheet-html';
 
@@ -107,5 +108,29 @@ describe('calc sheet view', () => {
     const html = renderCalcSheetHtml(view);
     expect(html).not.toMatch(/Member forces, case/);
     expect(html).toMatch(/Unstable/);
+  });
+
+  it('when the loads come from a roof takeoff, then every takeoff step is typeset under its own anchor with the purlin line load', () => {
+    const base = input();
+    const top = base.model.joints.filter((j) => j.tag.startsWith('U'));
+    const takeoff = roofTakeoff({
+      joints: base.model.joints,
+      topChordJoints: top.map((j) => j.id),
+      areaLoads: [{ caseId: 'D', q: 0.9, basis: 'plan' }],
+      spacing: 4.5,
+      trussCount: 8,
+      trussIndex: 1,
+      method: 'exact',
+    });
+    const view = buildCalcSheetView(input({ takeoffSteps: takeoff.steps }));
+    expect(view.takeoff.map((s) => s.id)).toEqual(takeoff.steps.map((s) => s.id));
+    expect(view.takeoff.every((s) => s.lines.length === 1 && s.lines[0].includes('class="katex"'))).toBe(true);
+    const html = renderCalcSheetHtml(view);
+    for (const s of takeoff.steps) expect(html).toContain(`id="${s.id}"`);
+    // An interior purlin takes half of each 3 m panel on plan: b = 3 m, w = q·b = 0.9 × 3 = 2.70 kN/m
+    // (tributary width, common practice, no source).
+    const line = view.takeoff.find((s) => s.id === takeoff.steps.find((t) => t.kind === 'line-load' && t.jointTag === 'U3')?.id);
+    expect(line?.lines[0]).toContain('2.70');
+    expect(view.numbers.takeoff).toBe('4');
   });
 });

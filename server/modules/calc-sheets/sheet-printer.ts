@@ -103,17 +103,21 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
   const timeoutMs = options.timeoutMs ?? 60_000;
   let browser: Browser | null = null;
   let launching: Promise<Browser> | null = null;
-  let profileDir: string | null = null;
+  // Every profile folder this printer made; removed when its browser goes and again on close.
+  const profiles = new Set<string>();
   let closed = false;
   let queue: Promise<unknown> = Promise.resolve();
 
-  const dropProfile = (dir: string | null) => {
-    if (dir) fs.rm(dir, { recursive: true, force: true }, () => {});
+  const dropProfile = (dir: string) => {
+    fs.rm(dir, { recursive: true, force: true, maxRetries: 3, retryDelay: 100 }, (err) => {
+      if (!err) profiles.delete(dir);
+    });
   };
 
   async function launch(): Promise<Browser> {
     assertExecutable(chromiumPath);
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-chromium-'));
+    profiles.add(dir);
     try {
       const b = await puppeteer.launch({
         executablePath: chromiumPath,
@@ -124,7 +128,6 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
         handleSIGHUP: false,
         timeout: 30_000,
       });
-      profileDir = dir;
       b.on('disconnected', () => {
         if (browser === b) browser = null;
         dropProfile(dir);
@@ -243,7 +246,8 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
       const b = browser ?? (launching ? await launching.catch(() => null) : null);
       browser = null;
       if (b) await b.close().catch(() => killBrowser(b));
-      dropProfile(profileDir);
+      for (const dir of profiles) fs.rmSync(dir, { recursive: true, force: true, maxRetries: 3, retryDelay: 100 });
+      profiles.clear();
     },
   };
 }
