@@ -31,26 +31,30 @@ export interface HealResult {
 }
 
 /**
- * Open-addressing hash from a grid cell (gx, gy) to an int (the head of a linked list).
+ * Open-addressing hash from a grid cell (gx, gy), or any pair of int32s, to an int ≥ 0.
  * Typed arrays and small-integer keys keep it free of allocation, which a Map keyed by
- * gx·ny + gy is not once keys pass 2³⁰ (they become heap numbers).
+ * gx·ny + gy is not once keys pass 2³⁰ (they become heap numbers). Each slot holds its key
+ * and value side by side (gx, gy, value, unused), so a probe touches one cache line.
  */
 class CellHash {
-  kx: Int32Array;
-  ky: Int32Array;
-  val: Int32Array;
+  slots: Int32Array;
   mask: number;
   size = 0;
 
   constructor(expected: number) {
     let cap = 16;
     while (cap < 2 * expected) cap *= 2;
-    this.kx = new Int32Array(cap);
-    this.ky = new Int32Array(cap);
-    this.val = new Int32Array(cap).fill(-1);
+    this.slots = CellHash.empty(cap);
     this.mask = cap - 1;
   }
 
+  private static empty(cap: number): Int32Array {
+    const t = new Int32Array(4 * cap);
+    for (let i = 2; i < t.length; i += 4) t[i] = -1;
+    return t;
+  }
+
+  /** Slot index ×4 holding (gx, gy), or the empty slot where it would go. */
   private slot(gx: number, gy: number): number {
     // murmur3-style finaliser over both coordinates, so neighbouring cells spread out
     let h = Math.imul(gx, 0x9e3779b1) ^ gy;
@@ -59,59 +63,138 @@ class CellHash {
     h ^= h >>> 13;
     h = Math.imul(h, 0xc2b2ae35);
     h ^= h >>> 16;
-    h &= this.mask;
-    while (this.val[h] !== -1 && (this.kx[h] !== gx || this.ky[h] !== gy)) h = (h + 1) & this.mask;
-    return h;
+    const t = this.slots;
+    const mask = this.mask;
+    h &= mask;
+    while (t[4 * h + 2] !== -1 && (t[4 * h] !== gx || t[4 * h + 1] !== gy)) h = (h + 1) & mask;
+    return 4 * h;
   }
 
+  /** The value stored for (gx, gy), or −1. */
   get(gx: number, gy: number): number {
-    return this.val[this.slot(gx, gy)];
+    return this.slots[this.slot(gx, gy) + 2];
   }
 
-  set(gx: number, gy: number, v: number): void {
-    let h = this.slot(gx, gy);
-    if (this.val[h] === -1) {
-      if (2 * (this.size + 1) > this.val.length) {
-        this.grow();
-        h = this.slot(gx, gy);
-      }
-      this.size++;
-      this.kx[h] = gx;
-      this.ky[h] = gy;
+  /** The value of (gx, gy); when absent, stores `fresh` (≥ 0) and returns it. */
+  intern(gx: number, gy: number, fresh: number): number {
+    let s = this.slot(gx, gy);
+    const v = this.slots[s + 2];
+    if (v !== -1) return v;
+    if (2 * (this.size + 1) > this.mask + 1) {
+      this.grow();
+      s = this.slot(gx, gy);
     }
-    this.val[h] = v;
+    this.size++;
+    this.slots[s] = gx;
+    this.slots[s + 1] = gy;
+    this.slots[s + 2] = fresh;
+    return fresh;
   }
 
   private grow(): void {
-    const { kx, ky, val } = this;
-    const cap = val.length * 2;
-    this.kx = new Int32Array(cap);
-    this.ky = new Int32Array(cap);
-    this.val = new Int32Array(cap).fill(-1);
+    const old = this.slots;
+    const cap = 2 * (this.mask + 1);
+    this.slots = CellHash.empty(cap);
     this.mask = cap - 1;
-    for (let i = 0; i < val.length; i++) {
-      if (val[i] === -1) continue;
-      const h = this.slot(kx[i], ky[i]);
-      this.kx[h] = kx[i];
-      this.ky[h] = ky[i];
-      this.val[h] = val[i];
+    for (let i = 0; i < old.length; i += 4) {
+      if (old[i + 2] === -1) continue;
+      const s = this.slot(old[i], old[i + 1]);
+      this.slots[s] = old[i];
+      this.slots[s + 1] = old[i + 1];
+      this.slots[s + 2] = old[i + 2];
     }
   }
 }
 
-/** Members per grid cell, as linked lists of entries. */
-interface Buckets {
-  cell: number;
-  ox: number;
-  oy: number;
-  heads: CellHash;
-  member: Int32Array;
-  next: Int32Array;
-  count: number;
+/** Int list on a doubling typed array (no boxed numbers, no per-item allocation). */
+class IntList {
+  data: Int32Array;
+  length = 0;
+
+  constructor(capacity: number) {
+    this.data = new Int32Array(Math.max(16, capacity));
+  }
+
+  push(v: number): void {
+    if (this.length === this.data.length) {
+      const bigger = new Int32Array(2 * this.length);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    this.data[this.length++] = v;
+  }
 }
 
-/** Calls `visit(gx, gy)` for every grid cell the segment passes through (column sweep). */
-function forCellsOfSegment(b: Buckets, x1: number, y1: number, x2: number, y2: number, visit: (gx: number, gy: number) => void): void {
+/** Float list on a doubling typed array. */
+class FloatList {
+  data: Float64Array;
+  length = 0;
+
+  constructor(capacity: number) {
+    this.data = new Float64Array(Math.max(16, capacity));
+  }
+
+  push(v: number): void {
+    if (this.length === this.data.length) {
+      const bigger = new Float64Array(2 * this.length);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    this.data[this.length++] = v;
+  }
+}
+
+/**
+ * Points grouped by grid cell, in compressed rows: cell c (dense id, `ids` maps (gx, gy) to it)
+ * holds points items[start[c] … start[c+1]), ascending. One hash probe per point and a counting
+ * sort, instead of a probe per point and neighbour cell.
+ */
+interface PointCells {
+  ids: CellHash;
+  count: number;
+  gx: Int32Array;
+  gy: Int32Array;
+  start: Int32Array;
+  items: Int32Array;
+}
+
+/** Groups points (interleaved x, y) by cells of size `cell` from origin (ox, oy); `take` filters. */
+function pointCells(xy: Float64Array, n: number, take: Uint8Array | null, cell: number, ox: number, oy: number): PointCells {
+  const ids = new CellHash(n);
+  const cellOf = new Int32Array(n);
+  const gxs = new Int32Array(n);
+  const gys = new Int32Array(n);
+  let C = 0;
+  for (let k = 0; k < n; k++) {
+    if (take !== null && take[k] === 0) {
+      cellOf[k] = -1;
+      continue;
+    }
+    const gx = Math.floor((xy[2 * k] - ox) / cell);
+    const gy = Math.floor((xy[2 * k + 1] - oy) / cell);
+    const c = ids.intern(gx, gy, C);
+    if (c === C) {
+      gxs[C] = gx;
+      gys[C] = gy;
+      C++;
+    }
+    cellOf[k] = c;
+  }
+  const start = new Int32Array(C + 1);
+  for (let k = 0; k < n; k++) if (cellOf[k] >= 0) start[cellOf[k] + 1]++;
+  for (let c = 0; c < C; c++) start[c + 1] += start[c];
+  const fill = start.slice(0, C);
+  const items = new Int32Array(start[C]);
+  for (let k = 0; k < n; k++) if (cellOf[k] >= 0) items[fill[cellOf[k]]++] = k;
+  return { ids, count: C, gx: gxs, gy: gys, start, items };
+}
+
+/**
+ * Appends to `out`, as gx, gy pairs, every grid cell that comes within `pad` of the segment:
+ * a sweep over the columns it spans, each taking the rows covered by its piece in that column
+ * (widened by `pad`). Each cell once, so callers need no duplicate check.
+ */
+function segmentCells(out: IntList, cell: number, ox: number, oy: number, x1: number, y1: number, x2: number, y2: number, pad: number): void {
   if (x2 < x1) {
     let t = x1;
     x1 = x2;
@@ -120,58 +203,26 @@ function forCellsOfSegment(b: Buckets, x1: number, y1: number, x2: number, y2: n
     y1 = y2;
     y2 = t;
   }
-  const c = b.cell;
-  const eps = c * 1e-9;
-  const gxa = Math.floor((x1 - b.ox) / c);
-  const gxb = Math.floor((x2 - b.ox) / c);
+  const gxa = Math.floor((x1 - pad - ox) / cell);
+  const gxb = Math.floor((x2 + pad - ox) / cell);
   const dx = x2 - x1;
   const slope = dx > 0 ? (y2 - y1) / dx : 0;
   for (let gx = gxa; gx <= gxb; gx++) {
-    let ya: number;
-    let yb: number;
-    if (gxa === gxb || dx <= 0) {
-      ya = y1;
-      yb = y2;
-    } else {
-      const xa = Math.max(x1, b.ox + gx * c);
-      const xb = Math.min(x2, b.ox + (gx + 1) * c);
+    let ya = y1;
+    let yb = y2;
+    if (dx > 0) {
+      const xa = Math.max(x1, ox + gx * cell - pad);
+      const xb = Math.min(x2, ox + (gx + 1) * cell + pad);
       ya = y1 + (xa - x1) * slope;
       yb = y1 + (xb - x1) * slope;
     }
-    const lo = Math.min(ya, yb) - eps;
-    const hi = Math.max(ya, yb) + eps;
-    const gya = Math.floor((lo - b.oy) / c);
-    const gyb = Math.floor((hi - b.oy) / c);
-    for (let gy = gya; gy <= gyb; gy++) visit(gx, gy);
-  }
-}
-
-function gridOfMembers(j: Float64Array, m: Int32Array, count: number, cell: number, ox: number, oy: number): Buckets {
-  const b: Buckets = { cell, ox, oy, heads: new CellHash(2 * count), member: new Int32Array(Math.max(16, 3 * count)), next: new Int32Array(Math.max(16, 3 * count)), count: 0 };
-  let current = 0;
-  const visit = (gx: number, gy: number) => {
-    const head = b.heads.get(gx, gy);
-    if (head !== -1 && b.member[head] === current) return;
-    if (b.count === b.member.length) {
-      const mm = new Int32Array(2 * b.count);
-      mm.set(b.member);
-      b.member = mm;
-      const nn = new Int32Array(2 * b.count);
-      nn.set(b.next);
-      b.next = nn;
+    const gya = Math.floor((Math.min(ya, yb) - pad - oy) / cell);
+    const gyb = Math.floor((Math.max(ya, yb) + pad - oy) / cell);
+    for (let gy = gya; gy <= gyb; gy++) {
+      out.push(gx);
+      out.push(gy);
     }
-    b.member[b.count] = current;
-    b.next[b.count] = head;
-    b.heads.set(gx, gy, b.count);
-    b.count++;
-  };
-  for (let i = 0; i < count; i++) {
-    const a = m[2 * i];
-    const e = m[2 * i + 1];
-    current = i;
-    forCellsOfSegment(b, j[2 * a], j[2 * a + 1], j[2 * e], j[2 * e + 1], visit);
   }
-  return b;
 }
 
 function find(parent: Int32Array, i: number): number {
@@ -191,12 +242,95 @@ function union(parent: Int32Array, a: number, b: number): void {
   }
 }
 
+/** Joins points k and q (interleaved x, y in `xy`) when they lie within √tol2 of each other. */
+function joinIfNear(xy: Float64Array, parent: Int32Array, tol2: number, k: number, q: number): void {
+  const dx = xy[2 * q] - xy[2 * k];
+  const dy = xy[2 * q + 1] - xy[2 * k + 1];
+  if (dx * dx + dy * dy <= tol2) union(parent, k, q);
+}
+
+// Neighbour cells visited from each cell: the column to the right and the cell above, so every
+// pair of neighbouring cells is looked at once.
+const HALF_NEIGHBOURS = [1, -1, 1, 0, 1, 1, 0, 1];
+
+/**
+ * For each of n pairs (ends[2i], ends[2i + 1]), unordered, of ints in [0, range): the first
+ * index i' ≤ i holding the same pair (−1 where both ends are equal). A stable counting sort by
+ * the lower end, then one scan per group with a table over the higher end: no hashing.
+ */
+function firstOfEqualPairs(ends: Int32Array, n: number, range: number): Int32Array {
+  const start = new Int32Array(range + 1);
+  for (let i = 0; i < n; i++) {
+    const a = ends[2 * i];
+    const b = ends[2 * i + 1];
+    if (a !== b) start[(a < b ? a : b) + 1]++;
+  }
+  for (let v = 0; v < range; v++) start[v + 1] += start[v];
+  const fill = start.slice(0, range);
+  const byLo = new Int32Array(start[range]);
+  for (let i = 0; i < n; i++) {
+    const a = ends[2 * i];
+    const b = ends[2 * i + 1];
+    if (a !== b) byLo[fill[a < b ? a : b]++] = i;
+  }
+  const first = new Int32Array(n).fill(-1);
+  const groupOf = new Int32Array(range).fill(-1);
+  const seenAt = new Int32Array(range);
+  for (let lo = 0; lo < range; lo++) {
+    for (let p = start[lo]; p < start[lo + 1]; p++) {
+      const i = byLo[p];
+      const a = ends[2 * i];
+      const b = ends[2 * i + 1];
+      const hi = a < b ? b : a;
+      if (groupOf[hi] === lo) {
+        first[i] = seenAt[hi];
+      } else {
+        groupOf[hi] = lo;
+        seenAt[hi] = i;
+        first[i] = i;
+      }
+    }
+  }
+  return first;
+}
+
+/** Sorts entries [from, to) of the cut lists by position along the member, then joint. */
+function sortCuts(cutT: Float64Array, cutJ: Int32Array, from: number, to: number): void {
+  // the cell walk meets the cuts in order along the member, or in reverse: check that first
+  if (cutT[from] > cutT[to - 1]) {
+    for (let p = from, q = to - 1; p < q; p++, q--) {
+      const t = cutT[p];
+      cutT[p] = cutT[q];
+      cutT[q] = t;
+      const j = cutJ[p];
+      cutJ[p] = cutJ[q];
+      cutJ[q] = j;
+    }
+  }
+  let sorted = true;
+  for (let p = from + 1; p < to && sorted; p++) {
+    if (cutT[p - 1] > cutT[p] || (cutT[p - 1] === cutT[p] && cutJ[p - 1] > cutJ[p])) sorted = false;
+  }
+  if (sorted) return;
+  const idx: number[] = [];
+  for (let p = from; p < to; p++) idx.push(p);
+  idx.sort((p, q) => cutT[p] - cutT[q] || cutJ[p] - cutJ[q]);
+  const t = idx.map((p) => cutT[p]);
+  const j = idx.map((p) => cutJ[p]);
+  for (let p = from; p < to; p++) {
+    cutT[p] = t[p - from];
+    cutJ[p] = j[p - from];
+  }
+}
+
 /**
  * Heals segments (interleaved x1, y1, x2, y2, metres) with tolerance `tol` (m):
  * endpoints within `tol` become one joint (transitively); segments whose ends fall in one
  * joint are dropped; exact duplicates merged; members cut where another joint lies within
  * `tol` of their interior (which also turns collinear overlaps into duplicates, then merged);
  * crossings away from joints found and left apart; dangling members and separate pieces found.
+ * Every search goes through uniform grids (cells found by hashing, grouped by counting sort),
+ * so the cost grows about linearly with the number of segments.
  */
 export function healSegments(seg: Float64Array, n: number, tol: number): HealResult {
   // ---- extent and grid origin
@@ -216,34 +350,30 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   const ox = minX - tol;
   const oy = minY - tol;
 
-  // ---- 1. cluster endpoints within tol (grid of cell ≥ tol, 3×3 neighbourhood)
+  // ---- 1. cluster endpoints within tol: cells of size ≥ tol, so near pairs lie in the same
+  // or neighbouring cells; union-find makes the clusters transitive
   const P = 2 * n;
   const pcell = Math.max(tol, span / 2 ** 24);
-  const head = new CellHash(P);
-  const next = new Int32Array(P).fill(-1);
   const parent = new Int32Array(P);
+  for (let k = 0; k < P; k++) parent[k] = k;
   const tol2 = tol * tol;
-  for (let k = 0; k < P; k++) {
-    parent[k] = k;
-    const x = seg[2 * k];
-    const y = seg[2 * k + 1];
-    const gx = Math.floor((x - ox) / pcell);
-    const gy = Math.floor((y - oy) / pcell);
-    for (let ix = gx - 1; ix <= gx + 1; ix++) {
-      for (let iy = gy - 1; iy <= gy + 1; iy++) {
-        let q = head.get(ix, iy);
-        while (q >= 0) {
-          const ddx = seg[2 * q] - x;
-          const ddy = seg[2 * q + 1] - y;
-          if (ddx * ddx + ddy * ddy <= tol2) union(parent, k, q);
-          q = next[q];
-        }
+  {
+    const pc = pointCells(seg, P, null, pcell, ox, oy);
+    const { start, items } = pc;
+    for (let c = 0; c < pc.count; c++) {
+      const s = start[c];
+      const e = start[c + 1];
+      for (let p = s; p < e; p++) for (let q = p + 1; q < e; q++) joinIfNear(seg, parent, tol2, items[p], items[q]);
+      for (let h = 0; h < HALF_NEIGHBOURS.length; h += 2) {
+        const d = pc.ids.get(pc.gx[c] + HALF_NEIGHBOURS[h], pc.gy[c] + HALF_NEIGHBOURS[h + 1]);
+        if (d < 0) continue;
+        const ds = start[d];
+        const de = start[d + 1];
+        for (let p = s; p < e; p++) for (let q = ds; q < de; q++) joinIfNear(seg, parent, tol2, items[p], items[q]);
       }
     }
-    next[k] = head.get(gx, gy);
-    head.set(gx, gy, k);
   }
-  // clusters → joints (counting sort of points by root)
+  // clusters → joints, numbered by their first endpoint (counting sort of points by joint)
   const jointOfRoot = new Int32Array(P).fill(-1);
   const pointJoint = new Int32Array(P);
   let J = 0;
@@ -296,13 +426,14 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     joints[2 * j + 1] = y0;
   }
 
-  // ---- 2. members; drop zero-length; 3. merge exact duplicates
+  // ---- 2. members; drop zero-length; 3. merge exact duplicates (same joint pair)
   let members = new Int32Array(2 * n);
   let memberSource = new Int32Array(n);
   let M = 0;
   const zeroLength = { count: 0, points: [] as number[] };
   const duplicates = { count: 0, members: [] as number[], points: [] as number[] };
-  let pairIndex = new CellHash(n);
+  const firstSeg = firstOfEqualPairs(pointJoint, n, J);
+  const memberOfSeg = new Int32Array(n);
   for (let i = 0; i < n; i++) {
     const a = pointJoint[2 * i];
     const b = pointJoint[2 * i + 1];
@@ -311,16 +442,14 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       zeroLength.points.push(joints[2 * a], joints[2 * a + 1]);
       continue;
     }
-    const lo = a < b ? a : b;
-    const hi = a < b ? b : a;
-    const seen = pairIndex.get(lo, hi);
-    if (seen !== -1) {
+    const f = firstSeg[i];
+    if (f !== i) {
       duplicates.count++;
-      duplicates.members.push(seen);
+      duplicates.members.push(memberOfSeg[f]);
       duplicates.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
       continue;
     }
-    pairIndex.set(lo, hi, M);
+    memberOfSeg[i] = M;
     members[2 * M] = a;
     members[2 * M + 1] = b;
     memberSource[M] = i;
@@ -341,59 +470,60 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   }
   const median = M > 0 ? quickMedian(lens.slice()) : tol;
   const mcell = Math.max(median, total / (8 * Math.max(1, M)), 4 * tol, span / 2 ** 22);
+  const cells = new IntList(1024);
 
-  // ---- 4. split members at joints lying on their interior
+  // ---- 4. split members at joints lying on their interior: each member walks the cells
+  // within tol of it and tests the joints there (a grid of joints, not of members)
   const splits = { members: 0, cuts: 0, joints: [] as number[], pieces: [] as number[] };
   const overlaps = { count: 0, members: [] as number[], points: [] as number[] };
   {
-    const grid = gridOfMembers(joints, members, M, mcell, ox, oy);
-    const stamp = new Int32Array(M).fill(-1);
     // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
     const isEnd = new Uint8Array(J);
     for (let i = 0; i < 2 * M; i++) isEnd[members[i]] = 1;
-    const cutMember: number[] = [];
-    const cutT: number[] = [];
-    const cutJoint: number[] = [];
-    for (let j = 0; j < J; j++) {
-      if (!isEnd[j]) continue;
-      const x = joints[2 * j];
-      const y = joints[2 * j + 1];
-      const gxa = Math.floor((x - tol - ox) / mcell);
-      const gxb = Math.floor((x + tol - ox) / mcell);
-      const gya = Math.floor((y - tol - oy) / mcell);
-      const gyb = Math.floor((y + tol - oy) / mcell);
-      for (let gx = gxa; gx <= gxb; gx++) {
-        for (let gy = gya; gy <= gyb; gy++) {
-          for (let e = grid.heads.get(gx, gy); e >= 0; e = grid.next[e]) {
-            const i = grid.member[e];
-            if (stamp[i] === j) continue;
-            stamp[i] = j;
-            const a = members[2 * i];
-            const b = members[2 * i + 1];
-            if (a === j || b === j) continue;
-            const ax = joints[2 * a];
-            const ay = joints[2 * a + 1];
-            const dx = joints[2 * b] - ax;
-            const dy = joints[2 * b + 1] - ay;
-            const L = lens[i];
-            const along = ((x - ax) * dx + (y - ay) * dy) / L;
-            if (along <= tol || along >= L - tol) continue;
-            const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
-            if (across > tol) continue;
-            cutMember.push(i);
-            cutT.push(along / L);
-            cutJoint.push(j);
-          }
+    const jc = pointCells(joints, J, isEnd, mcell, ox, oy);
+    const pad = tol + mcell * 1e-9;
+    const cutM = new IntList(256);
+    const cutT = new FloatList(256);
+    const cutJ = new IntList(256);
+    for (let i = 0; i < M; i++) {
+      const a = members[2 * i];
+      const b = members[2 * i + 1];
+      const ax = joints[2 * a];
+      const ay = joints[2 * a + 1];
+      const dx = joints[2 * b] - ax;
+      const dy = joints[2 * b + 1] - ay;
+      const L = lens[i];
+      cells.length = 0;
+      segmentCells(cells, mcell, ox, oy, ax, ay, ax + dx, ay + dy, pad);
+      const first = cutM.length;
+      for (let c = 0; c < cells.length; c += 2) {
+        const id = jc.ids.get(cells.data[c], cells.data[c + 1]);
+        if (id < 0) continue;
+        for (let p = jc.start[id]; p < jc.start[id + 1]; p++) {
+          const j = jc.items[p];
+          if (j === a || j === b) continue;
+          const x = joints[2 * j];
+          const y = joints[2 * j + 1];
+          const along = ((x - ax) * dx + (y - ay) * dy) / L;
+          if (along <= tol || along >= L - tol) continue;
+          const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
+          if (across > tol) continue;
+          cutM.push(i);
+          cutT.push(along / L);
+          cutJ.push(j);
         }
       }
+      if (cutM.length - first > 1) sortCuts(cutT.data, cutJ.data, first, cutM.length);
     }
-    if (cutMember.length > 0) {
-      const idx = cutMember.map((_, k) => k);
-      idx.sort((p, q) => cutMember[p] - cutMember[q] || cutT[p] - cutT[q]);
+    const C = cutM.length;
+    if (C > 0) {
+      // cuts are grouped by member (ascending) and ordered along it
+      const cm = cutM.data;
+      const cj = cutJ.data;
       const isCut = new Uint8Array(M);
-      for (const i of cutMember) isCut[i] = 1;
-      const pieces = new Int32Array(2 * (M + cutMember.length));
-      const pieceSource = new Int32Array(M + cutMember.length);
+      for (let p = 0; p < C; p++) isCut[cm[p]] = 1;
+      const pieces = new Int32Array(2 * (M + C));
+      const pieceSource = new Int32Array(M + C);
       let Q = 0;
       for (let i = 0; i < M; i++) {
         if (isCut[i]) continue;
@@ -402,14 +532,15 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         pieceSource[Q] = memberSource[i];
         Q++;
       }
-      const splitPieceRanges: [number, number][] = [];
-      for (let p = 0; p < idx.length; ) {
-        const i = cutMember[idx[p]];
+      // pieces of split member r: [rangeStart[r], rangeStart[r + 1])
+      const rangeStart = new IntList(64);
+      for (let p = 0; p < C; ) {
+        const i = cm[p];
         let prev = members[2 * i];
-        const firstPiece = Q;
+        rangeStart.push(Q);
         splits.members++;
-        for (; p < idx.length && cutMember[idx[p]] === i; p++) {
-          const j = cutJoint[idx[p]];
+        for (; p < C && cm[p] === i; p++) {
+          const j = cj[p];
           splits.cuts++;
           splits.joints.push(j);
           pieces[2 * Q] = prev;
@@ -422,11 +553,11 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         pieces[2 * Q + 1] = members[2 * i + 1];
         pieceSource[Q] = memberSource[i];
         Q++;
-        splitPieceRanges.push([firstPiece, Q]);
       }
+      rangeStart.push(Q);
       // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
       // so they survive
-      pairIndex = new CellHash(Q);
+      const firstPiece = firstOfEqualPairs(pieces, Q, J);
       const keep = new Int32Array(Q).fill(-1);
       let K = 0;
       const out = new Int32Array(2 * Q);
@@ -434,24 +565,22 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
       for (let q = 0; q < Q; q++) {
         const a = pieces[2 * q];
         const b = pieces[2 * q + 1];
-        const lo = a < b ? a : b;
-        const hi = a < b ? b : a;
-        const seen = pairIndex.get(lo, hi);
-        if (seen !== -1) {
+        const f = firstPiece[q];
+        if (f !== q) {
           overlaps.count++;
-          overlaps.members.push(seen);
+          overlaps.members.push(keep[f]);
           overlaps.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
-          keep[q] = seen;
+          keep[q] = keep[f];
           continue;
         }
-        pairIndex.set(lo, hi, K);
         keep[q] = K;
         out[2 * K] = a;
         out[2 * K + 1] = b;
         outSource[K] = pieceSource[q];
         K++;
       }
-      for (const [s, e] of splitPieceRanges) for (let q = s; q < e; q++) splits.pieces.push(keep[q]);
+      const firstSplitPiece = rangeStart.data[0];
+      for (let q = firstSplitPiece; q < Q; q++) splits.pieces.push(keep[q]);
       // duplicates found earlier pointed at pre-split members; point them at a surviving piece
       const remap = new Int32Array(M).fill(-1);
       {
@@ -459,7 +588,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         for (let i = 0; i < M; i++) if (!isCut[i]) remap[i] = keep[q++];
         let r = 0;
         for (let i = 0; i < M; i++) {
-          if (isCut[i]) remap[i] = keep[splitPieceRanges[r++][0]];
+          if (isCut[i]) remap[i] = keep[rangeStart.data[r++]];
         }
       }
       duplicates.members = duplicates.members.map((i) => remap[i]);
@@ -469,20 +598,41 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     }
   }
 
-  // ---- 6. crossings away from joints
+  // ---- 6. crossings away from joints: members bucketed by the cells they pass through
+  // (counting sort by cell), then the pairs sharing a cell tested
   const crossings: HealResult['crossings'] = [];
   {
-    const grid = gridOfMembers(joints, members, M, mcell, ox, oy);
+    const ids = new CellHash(2 * M);
+    const entCell = new IntList(3 * M);
+    const entMember = new IntList(3 * M);
+    let C = 0;
+    const pad = mcell * 1e-9;
+    for (let i = 0; i < M; i++) {
+      const a = members[2 * i];
+      const b = members[2 * i + 1];
+      cells.length = 0;
+      segmentCells(cells, mcell, ox, oy, joints[2 * a], joints[2 * a + 1], joints[2 * b], joints[2 * b + 1], pad);
+      for (let c = 0; c < cells.length; c += 2) {
+        const id = ids.intern(cells.data[c], cells.data[c + 1], C);
+        if (id === C) C++;
+        entCell.push(id);
+        entMember.push(i);
+      }
+    }
+    const E = entCell.length;
+    const cstart = new Int32Array(C + 1);
+    for (let e = 0; e < E; e++) cstart[entCell.data[e] + 1]++;
+    for (let c = 0; c < C; c++) cstart[c + 1] += cstart[c];
+    const cfill = cstart.slice(0, C);
+    const items = new Int32Array(E);
+    for (let e = 0; e < E; e++) items[cfill[entCell.data[e]]++] = entMember.data[e];
     const found = new Set<number>();
-    const list: number[] = [];
-    for (let slot = 0; slot < grid.heads.val.length; slot++) {
-      if (grid.heads.val[slot] === -1) continue;
-      list.length = 0;
-      for (let e = grid.heads.val[slot]; e >= 0; e = grid.next[e]) list.push(grid.member[e]);
-      const L = list.length;
-      if (L < 2) continue;
-      for (let p = 0; p < L; p++) {
-        const i = list[p];
+    for (let c = 0; c < C; c++) {
+      const s = cstart[c];
+      const e = cstart[c + 1];
+      // members ascending in a cell; i is the later member of each pair, k the earlier
+      for (let q = s + 1; q < e; q++) {
+        const i = items[q];
         const a1 = members[2 * i];
         const b1 = members[2 * i + 1];
         const ax = joints[2 * a1];
@@ -491,8 +641,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         const by = joints[2 * b1 + 1];
         const rx = bx - ax;
         const ry = by - ay;
-        for (let q = p + 1; q < L; q++) {
-          const k = list[q];
+        for (let p = s; p < q; p++) {
+          const k = items[p];
           const a2 = members[2 * k];
           const b2 = members[2 * k + 1];
           if (a2 === a1 || a2 === b1 || b2 === a1 || b2 === b1) continue;
@@ -510,12 +660,10 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
           const li = Math.sqrt(rx * rx + ry * ry);
           const lk = Math.sqrt(sx * sx + sy * sy);
           if (t * li <= tol || (1 - t) * li <= tol || u * lk <= tol || (1 - u) * lk <= tol) continue;
-          const lo = i < k ? i : k;
-          const hi = i < k ? k : i;
-          const key = lo * M + hi;
+          const key = k * M + i;
           if (found.has(key)) continue;
           found.add(key);
-          crossings.push({ a: lo, b: hi, x: ax + t * rx, y: ay + t * ry });
+          crossings.push({ a: k, b: i, x: ax + t * rx, y: ay + t * ry });
         }
       }
     }
@@ -556,16 +704,26 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     if (deg[a] === 1) dangling.push({ member: i, joint: a });
     if (deg[b] === 1) dangling.push({ member: i, joint: b });
   }
-  const compMembers = new Map<number, number[]>();
+  // pieces numbered by their first member; the largest (first of equals) is the truss
+  const pieceOfRoot = new Int32Array(J2).fill(-1);
+  const pieceOf = new Int32Array(M);
+  let nPieces = 0;
   for (let i = 0; i < M; i++) {
     const r = find(comp, members[2 * i]);
-    const list = compMembers.get(r);
-    if (list) list.push(i);
-    else compMembers.set(r, [i]);
+    if (pieceOfRoot[r] < 0) pieceOfRoot[r] = nPieces++;
+    pieceOf[i] = pieceOfRoot[r];
   }
-  let largest: number[] | null = null;
-  for (const list of compMembers.values()) if (!largest || list.length > largest.length) largest = list;
-  const pieces = [...compMembers.values()].filter((l) => l !== largest);
+  const pieceSize = new Int32Array(nPieces);
+  for (let i = 0; i < M; i++) pieceSize[pieceOf[i]]++;
+  let largest = -1;
+  for (let p = 0; p < nPieces; p++) if (largest < 0 || pieceSize[p] > pieceSize[largest]) largest = p;
+  const pieces: number[][] = [];
+  if (nPieces > 1) {
+    const listOf: number[][] = [];
+    for (let p = 0; p < nPieces; p++) listOf.push([]);
+    for (let i = 0; i < M; i++) if (pieceOf[i] !== largest) listOf[pieceOf[i]].push(i);
+    for (let p = 0; p < nPieces; p++) if (p !== largest) pieces.push(listOf[p]);
+  }
 
   return {
     joints,
