@@ -4,7 +4,7 @@ import type { FirmSettings, UnitSystem } from '@shared/schemas/project.schema';
 import { caseSteps, stepToKatex, type CaseResult, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import { takeoffStepKatex, type TakeoffStep } from '@shared/takeoff';
 import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
-import { forceDiagramSvg, forceLegendSvg, forceSenseOf, jointFbdSvg, trussGeometrySvg } from './truss-svg';
+import { forceDiagramSvg, forceSenseOf, jointFbdSvg, trussBands, trussGeometrySvg, type TrussBand } from './truss-svg';
 
 /**
  * The calc sheet's view model: everything the Handlebars templates print, already formatted
@@ -214,6 +214,14 @@ function stepView(step: SolverStep, fmt: Formatters): StepView {
   return view;
 }
 
+/** Draws each band of a long truss as its own row, captioned with its x range when there are several. */
+function banded(bands: TrussBand[], draw: (band: TrussBand) => string, lengthText: (m: number) => string): string {
+  if (bands.length === 1) return draw(bands[0]);
+  return bands
+    .map((b, i) => `<div class="band"><div class="band-caption">Part ${i + 1} of ${bands.length}: x = ${lengthText(b.x0)} to ${lengthText(b.x1)}</div>${draw(b)}</div>`)
+    .join('');
+}
+
 function loadsOf(model: TrussModel, caseId: string): JointLoad[] {
   return model.loadCases.find((c) => c.id === caseId)?.loads ?? [];
 }
@@ -280,12 +288,19 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
     const b = m && jointById.get(m.to);
     return a && b ? Math.hypot(b.x - a.x, b.y - a.y) : 0;
   };
+  const bands = trussBands(model);
+  const lengthText = (m: number) => fmt.qty(m, 'length');
   const geometry = {
-    svg: trussGeometrySvg(model, {
-      formatLength: (m) => fmt.num(m, 'length'),
-      formatForce: (kN) => fmt.qty(kN, 'force'),
-      label: `Geometry of ${input.trussName}`,
-    }),
+    svg: banded(
+      bands,
+      (b) =>
+        trussGeometrySvg(b.model, {
+          formatLength: (m) => fmt.num(m, 'length'),
+          formatForce: (kN) => fmt.qty(kN, 'force'),
+          label: `Geometry of ${input.trussName}`,
+        }),
+      lengthText,
+    ),
     jointRows: model.joints.map((j) => ({ cells: [j.tag, fmt.num(j.x, 'length'), fmt.num(j.y, 'length')] })),
     memberRows: model.members.map((m) => ({
       cells: [m.tag, tags.joint(m.from), tags.joint(m.to), fmt.num(memberLength(m.id), 'length'), m.group ? m.group.replace('-', ' ') : '—'],
@@ -368,14 +383,19 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
       caseId: cr.caseId,
       title: `Load case ${cr.caseId}${lc && lc.name !== cr.caseId ? ` — ${lc.name}` : ''}`,
       method: METHOD_NAMES[cr.method],
-      loadingSvg: trussGeometrySvg(model, {
-        formatLength: (m) => fmt.num(m, 'length'),
-        formatForce: (kN) => fmt.qty(kN, 'force'),
-        loads,
-        dimensions: false,
-        memberTags: false,
-        label: `Loads of case ${cr.caseId}`,
-      }),
+      loadingSvg: banded(
+        bands,
+        (b) =>
+          trussGeometrySvg(b.model, {
+            formatLength: (m) => fmt.num(m, 'length'),
+            formatForce: (kN) => fmt.qty(kN, 'force'),
+            loads: loads.filter((l) => b.ownJoints.has(l.joint)),
+            dimensions: false,
+            memberTags: false,
+            label: `Loads of case ${cr.caseId}`,
+          }),
+        lengthText,
+      ),
       loadRows: loads.map((l) => ({ cells: [tags.joint(l.joint), fmt.num(l.fx, 'force'), fmt.num(l.fy, 'force'), l.note ?? ''] })),
       zeroForce: {
         rows: cr.zeroForce.map((z) => ({
@@ -396,11 +416,16 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
         const zero = forceSenseOf(v, zeroTol) === '0';
         return { cells: [m.tag, m.group ? m.group.replace('-', ' ') : '—', fmt.num(memberLength(m.id), 'length'), fmt.memberNum(v), fmt.sense(v)], ...(zero ? { cls: 'zero' } : {}) };
       }),
-      forceSvg: forceDiagramSvg(model, cr.forces, {
-        formatMagnitude: (kN) => fmt.num(kN, 'force'),
-        zeroTolerance: zeroTol,
-        label: `Member forces, case ${cr.caseId}`,
-      }),
+      forceSvg: banded(
+        bands,
+        (b) =>
+          forceDiagramSvg(b.model, cr.forces, {
+            formatMagnitude: (kN) => fmt.num(kN, 'force'),
+            zeroTolerance: zeroTol,
+            label: `Member forces, case ${cr.caseId}`,
+          }),
+        lengthText,
+      ),
       check: {
         ...stepView(cr.check, fmt),
         ok,

@@ -463,3 +463,54 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
   out.push(...labels, '</svg>');
   return out.join('');
 }
+
+/** A part of a long truss drawn as its own row: the members whose midpoints fall in [x0, x1]. */
+export interface TrussBand {
+  model: TrussModel;
+  /** m */
+  x0: number;
+  x1: number;
+  /** Joints whose loads this band draws (a joint on a band edge belongs to the band on its left). */
+  ownJoints: Set<string>;
+}
+
+/**
+ * Splits a long, shallow truss into rows so that tags and force labels stay readable: at most
+ * `maxMembers` members and a length-to-depth ratio of about `maxAspect` per row. Short trusses
+ * come back whole (one band).
+ */
+export function trussBands(model: TrussModel, maxAspect = 6, maxMembers = 30): TrussBand[] {
+  const ext = extentOf(model);
+  const spanX = ext.maxX - ext.minX;
+  const spanY = Math.max(ext.maxY - ext.minY, spanX / 50, 1e-9);
+  const k = Math.max(1, Math.ceil(spanX / spanY / maxAspect), Math.ceil(model.members.length / maxMembers));
+  const all = { model, x0: ext.minX, x1: ext.maxX, ownJoints: new Set(model.joints.map((j) => j.id)) };
+  if (k === 1) return [all];
+  const xs = distinctSorted(model.joints.map((j) => j.x), 5e-4);
+  if (xs.length < 2 * k) return [all];
+  const edges = Array.from({ length: k + 1 }, (_, i) => xs[Math.round((i * (xs.length - 1)) / k)]);
+  const byId = new Map(model.joints.map((j) => [j.id, j]));
+  const bands: TrussBand[] = [];
+  for (let b = 0; b < k; b++) {
+    const x0 = edges[b];
+    const x1 = edges[b + 1];
+    const last = b === k - 1;
+    const members = model.members.filter((m) => {
+      const p = byId.get(m.from);
+      const q = byId.get(m.to);
+      if (!p || !q) return false;
+      const mid = (p.x + q.x) / 2;
+      return mid >= x0 - 1e-9 && (last ? mid <= x1 + 1e-9 : mid < x1 - 1e-9);
+    });
+    const ids = new Set(members.flatMap((m) => [m.from, m.to]));
+    const joints = model.joints.filter((j) => ids.has(j.id));
+    const ownJoints = new Set(joints.filter((j) => j.x >= x0 - 1e-9 && (last ? true : j.x < x1 - 1e-9)).map((j) => j.id));
+    bands.push({
+      model: { ...model, joints, members, supports: model.supports.filter((s) => ids.has(s.joint)) },
+      x0,
+      x1,
+      ownJoints,
+    });
+  }
+  return bands;
+}
