@@ -246,7 +246,10 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
       const b = browser ?? (launching ? await launching.catch(() => null) : null);
       browser = null;
       if (b) await b.close().catch(() => killBrowser(b));
-      for (const dir of profiles) fs.rmSync(dir, { recursive: true, force: true, maxRetries: 3, retryDelay: 100 });
+      // A browser killed a moment ago may still be writing into its profile: retry, never throw.
+      await Promise.all(
+        [...profiles].map((dir) => fs.promises.rm(dir, { recursive: true, force: true, maxRetries: 10, retryDelay: 100 }).catch(() => undefined)),
+      );
       profiles.clear();
     },
   };
