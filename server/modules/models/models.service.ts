@@ -96,7 +96,8 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
     const [updated] = await TrussModelRecord.update(
       {
         model: JSON.stringify(next),
-        takeoff: input.takeoff === undefined ? record.takeoff : JSON.stringify(input.takeoff),
+        // null removes the takeoff: stored as SQL NULL, not the text 'null' (which no run could read).
+        takeoff: input.takeoff === undefined ? record.takeoff : input.takeoff === null ? null : JSON.stringify(input.takeoff),
         version: record.version + 1,
         updatedById: userId,
       },

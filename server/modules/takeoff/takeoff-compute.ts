@@ -70,7 +70,10 @@ export function takeoffApply(model: TrussModel, result: RoofTakeoffResult): Trus
  */
 export function takeoffParseStored(text: string | null): TakeoffInput | null {
   if (!text) return null;
-  const parsed = takeoffInputSchema.safeParse(JSON.parse(text));
+  const stored: unknown = JSON.parse(text);
+  // Models saved with their takeoff removed once kept the text 'null': that is no takeoff.
+  if (stored === null) return null;
+  const parsed = takeoffInputSchema.safeParse(stored);
   if (parsed.success) return parsed.data;
   throw new AppError(
     'saved-takeoff-unreadable',
