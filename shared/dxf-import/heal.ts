@@ -1,8 +1,9 @@
 /**
- * Geometry healing of a bag of straight segments into joints and members, with spatial
- * hashing on uniform grids (cost about linear in the number of segments; no pairwise loops
- * over the whole drawing). All coordinates and the tolerance in metres.
+ * Geometry healing of a bag of straight segments into joints and members, with sorting and
+ * uniform grids (cost about linear in the number of segments; no pairwise loops over the
+ * whole drawing). All coordinates and the tolerance in metres.
  */
+import { sortIndicesByFloat, sortIndicesByInt } from './sort';
 
 /** What healing did, by internal indices into the returned joints and members. */
 export interface HealResult {
@@ -30,13 +31,22 @@ export interface HealResult {
   pieces: number[][];
 }
 
+/** Grid cells (gx, gy) → dense ids 0, 1, 2, … in first-seen order. */
+interface CellMap {
+  /** The id of (gx, gy), or −1 when it has none. */
+  get(gx: number, gy: number): number;
+  /** The id of (gx, gy); when it has none, gives it `fresh` (≥ 0) and returns that. */
+  intern(gx: number, gy: number, fresh: number): number;
+}
+
 /**
  * Open-addressing hash from a grid cell (gx, gy), or any pair of int32s, to an int ≥ 0.
  * Typed arrays and small-integer keys keep it free of allocation, which a Map keyed by
  * gx·ny + gy is not once keys pass 2³⁰ (they become heap numbers). Each slot holds its key
- * and value side by side (gx, gy, value, unused), so a probe touches one cache line.
+ * and value + 1 side by side (gx, gy, value + 1, unused), so a probe touches one cache line
+ * and a new table needs no filling (0 = empty).
  */
-class CellHash {
+class CellHash implements CellMap {
   slots: Int32Array;
   mask: number;
   size = 0;
@@ -44,14 +54,8 @@ class CellHash {
   constructor(expected: number) {
     let cap = 16;
     while (cap < 2 * expected) cap *= 2;
-    this.slots = CellHash.empty(cap);
+    this.slots = new Int32Array(4 * cap);
     this.mask = cap - 1;
-  }
-
-  private static empty(cap: number): Int32Array {
-    const t = new Int32Array(4 * cap);
-    for (let i = 2; i < t.length; i += 4) t[i] = -1;
-    return t;
   }
 
   /** Slot index ×4 holding (gx, gy), or the empty slot where it would go. */
@@ -66,20 +70,18 @@ class CellHash {
     const t = this.slots;
     const mask = this.mask;
     h &= mask;
-    while (t[4 * h + 2] !== -1 && (t[4 * h] !== gx || t[4 * h + 1] !== gy)) h = (h + 1) & mask;
+    while (t[4 * h + 2] !== 0 && (t[4 * h] !== gx || t[4 * h + 1] !== gy)) h = (h + 1) & mask;
     return 4 * h;
   }
 
-  /** The value stored for (gx, gy), or −1. */
   get(gx: number, gy: number): number {
-    return this.slots[this.slot(gx, gy) + 2];
+    return this.slots[this.slot(gx, gy) + 2] - 1;
   }
 
-  /** The value of (gx, gy); when absent, stores `fresh` (≥ 0) and returns it. */
   intern(gx: number, gy: number, fresh: number): number {
     let s = this.slot(gx, gy);
     const v = this.slots[s + 2];
-    if (v !== -1) return v;
+    if (v !== 0) return v - 1;
     if (2 * (this.size + 1) > this.mask + 1) {
       this.grow();
       s = this.slot(gx, gy);
@@ -87,23 +89,79 @@ class CellHash {
     this.size++;
     this.slots[s] = gx;
     this.slots[s + 1] = gy;
-    this.slots[s + 2] = fresh;
+    this.slots[s + 2] = fresh + 1;
     return fresh;
   }
 
   private grow(): void {
     const old = this.slots;
     const cap = 2 * (this.mask + 1);
-    this.slots = CellHash.empty(cap);
+    this.slots = new Int32Array(4 * cap);
     this.mask = cap - 1;
     for (let i = 0; i < old.length; i += 4) {
-      if (old[i + 2] === -1) continue;
+      if (old[i + 2] === 0) continue;
       const s = this.slot(old[i], old[i + 1]);
       this.slots[s] = old[i];
       this.slots[s + 1] = old[i + 1];
       this.slots[s + 2] = old[i + 2];
     }
   }
+}
+
+/**
+ * A table over every cell of a small grid (index (gx − gx0)·ny + gy − gy0): one array read per
+ * look-up, no hashing. Used when the grid has not many more cells than there are things to put
+ * in them (the usual case: a truss drawing gridded at its typical member length).
+ */
+class DenseCells implements CellMap {
+  ids: Int32Array;
+
+  constructor(
+    private gx0: number,
+    private gy0: number,
+    private nx: number,
+    private ny: number,
+  ) {
+    this.ids = new Int32Array(nx * ny);
+  }
+
+  get(gx: number, gy: number): number {
+    const ix = gx - this.gx0;
+    const iy = gy - this.gy0;
+    if (ix < 0 || iy < 0 || ix >= this.nx || iy >= this.ny) return -1;
+    return this.ids[ix * this.ny + iy] - 1;
+  }
+
+  intern(gx: number, gy: number, fresh: number): number {
+    // callers only intern cells within `pad` of the extent, which the grid covers
+    const k = (gx - this.gx0) * this.ny + gy - this.gy0;
+    const v = this.ids[k];
+    if (v !== 0) return v - 1;
+    this.ids[k] = fresh + 1;
+    return fresh;
+  }
+}
+
+/** Grid geometry shared by the member-length grids: cell size, origin and the extent covered. */
+interface GridFrame {
+  cell: number;
+  ox: number;
+  oy: number;
+  maxX: number;
+  maxY: number;
+}
+
+/**
+ * A cell map for cells within `pad` of the frame's extent, expecting about `expected` cells:
+ * a dense table when that grid is small enough, else a hash.
+ */
+function cellMapFor(f: GridFrame, pad: number, expected: number): CellMap {
+  const gx0 = Math.floor(-pad / f.cell) - 1;
+  const gy0 = Math.floor(-pad / f.cell) - 1;
+  const nx = Math.floor((f.maxX + pad - f.ox) / f.cell) + 2 - gx0;
+  const ny = Math.floor((f.maxY + pad - f.oy) / f.cell) + 2 - gy0;
+  if (nx * ny <= 8 * expected + 65_536) return new DenseCells(gx0, gy0, nx, ny);
+  return new CellHash(expected);
 }
 
 /** Int list on a doubling typed array (no boxed numbers, no per-item allocation). */
@@ -150,7 +208,7 @@ class FloatList {
  * sort, instead of a probe per point and neighbour cell.
  */
 interface PointCells {
-  ids: CellHash;
+  ids: CellMap;
   count: number;
   gx: Int32Array;
   gy: Int32Array;
@@ -159,8 +217,7 @@ interface PointCells {
 }
 
 /** Groups points (interleaved x, y) by cells of size `cell` from origin (ox, oy); `take` filters. */
-function pointCells(xy: Float64Array, n: number, take: Uint8Array | null, cell: number, ox: number, oy: number): PointCells {
-  const ids = new CellHash(n);
+function pointCells(xy: Float64Array, n: number, take: Uint8Array | null, ids: CellMap, cell: number, ox: number, oy: number): PointCells {
   const cellOf = new Int32Array(n);
   const gxs = new Int32Array(n);
   const gys = new Int32Array(n);
@@ -248,10 +305,6 @@ function joinIfNear(xy: Float64Array, parent: Int32Array, tol2: number, k: numbe
   const dy = xy[2 * q + 1] - xy[2 * k + 1];
   if (dx * dx + dy * dy <= tol2) union(parent, k, q);
 }
-
-// Neighbour cells visited from each cell: the column to the right and the cell above, so every
-// pair of neighbouring cells is looked at once.
-const HALF_NEIGHBOURS = [1, -1, 1, 0, 1, 1, 0, 1];
 
 /**
  * For each of n pairs (ends[2i], ends[2i + 1]), unordered, of ints in [0, range): the first
@@ -350,27 +403,41 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   const ox = minX - tol;
   const oy = minY - tol;
 
-  // ---- 1. cluster endpoints within tol: cells of size ≥ tol, so near pairs lie in the same
-  // or neighbouring cells; union-find makes the clusters transitive
+  // ---- 1. cluster endpoints within tol: points sorted by column (width ≥ tol), then by y, so
+  // near pairs lie in one column or the next and within tol in y: a sweep over sorted lists,
+  // no hashing. Union-find makes the clusters transitive.
   const P = 2 * n;
   const pcell = Math.max(tol, span / 2 ** 24);
   const parent = new Int32Array(P);
   for (let k = 0; k < P; k++) parent[k] = k;
   const tol2 = tol * tol;
   {
-    const pc = pointCells(seg, P, null, pcell, ox, oy);
-    const { start, items } = pc;
-    for (let c = 0; c < pc.count; c++) {
-      const s = start[c];
-      const e = start[c + 1];
-      for (let p = s; p < e; p++) for (let q = p + 1; q < e; q++) joinIfNear(seg, parent, tol2, items[p], items[q]);
-      for (let h = 0; h < HALF_NEIGHBOURS.length; h += 2) {
-        const d = pc.ids.get(pc.gx[c] + HALF_NEIGHBOURS[h], pc.gy[c] + HALF_NEIGHBOURS[h + 1]);
-        if (d < 0) continue;
-        const ds = start[d];
-        const de = start[d + 1];
-        for (let p = s; p < e; p++) for (let q = ds; q < de; q++) joinIfNear(seg, parent, tol2, items[p], items[q]);
+    const ys = new Float64Array(P);
+    const col = new Int32Array(P);
+    const byCol = new Int32Array(P);
+    for (let k = 0; k < P; k++) {
+      ys[k] = seg[2 * k + 1];
+      col[k] = Math.floor((seg[2 * k] - ox) / pcell);
+      byCol[k] = k;
+    }
+    sortIndicesByFloat(byCol, ys);
+    sortIndicesByInt(byCol, col);
+    const reach = tol * (1 + 1e-9); // a little wider than tol: joinIfNear decides
+    for (let s = 0; s < P; ) {
+      const g = col[byCol[s]];
+      let e = s;
+      while (e < P && col[byCol[e]] === g) e++;
+      let e2 = e; // the next column's run [e, e2), when it is column g + 1
+      while (e2 < P && col[byCol[e2]] === g + 1) e2++;
+      let lo = e;
+      for (let p = s; p < e; p++) {
+        const k = byCol[p];
+        const y = ys[k];
+        for (let q = p + 1; q < e && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
+        while (lo < e2 && ys[byCol[lo]] < y - reach) lo++;
+        for (let q = lo; q < e2 && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
       }
+      s = e;
     }
   }
   // clusters → joints, numbered by their first endpoint (counting sort of points by joint)
@@ -471,6 +538,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   const median = M > 0 ? quickMedian(lens.slice()) : tol;
   const mcell = Math.max(median, total / (8 * Math.max(1, M)), 4 * tol, span / 2 ** 22);
   const cells = new IntList(1024);
+  const frame: GridFrame = { cell: mcell, ox, oy, maxX, maxY };
 
   // ---- 4. split members at joints lying on their interior: each member walks the cells
   // within tol of it and tests the joints there (a grid of joints, not of members)
@@ -480,8 +548,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
     const isEnd = new Uint8Array(J);
     for (let i = 0; i < 2 * M; i++) isEnd[members[i]] = 1;
-    const jc = pointCells(joints, J, isEnd, mcell, ox, oy);
     const pad = tol + mcell * 1e-9;
+    const jc = pointCells(joints, J, isEnd, cellMapFor(frame, pad, J), mcell, ox, oy);
     const cutM = new IntList(256);
     const cutT = new FloatList(256);
     const cutJ = new IntList(256);
@@ -602,11 +670,11 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   // (counting sort by cell), then the pairs sharing a cell tested
   const crossings: HealResult['crossings'] = [];
   {
-    const ids = new CellHash(2 * M);
+    const pad = mcell * 1e-9;
+    const ids = cellMapFor(frame, pad, M);
     const entCell = new IntList(3 * M);
     const entMember = new IntList(3 * M);
     let C = 0;
-    const pad = mcell * 1e-9;
     for (let i = 0; i < M; i++) {
       const a = members[2 * i];
       const b = members[2 * i + 1];

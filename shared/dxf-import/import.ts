@@ -4,6 +4,7 @@ import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
 import { healSegments } from './heal';
 import { dxfLayers, dxfOf } from './layers';
+import { sortIndicesByInt } from './sort';
 import { assignTags, memberTagOf, readingOrder } from './tags';
 import {
   DXF_REPORT_MAX_LOCATIONS,
@@ -357,34 +358,50 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   const tagResult = assignTags(h.joints, texts, order, tol);
   const rank = new Int32Array(J);
   order.forEach((j, r) => (rank[j] = r));
-  const jointId = (j: number) => `j${rank[j] + 1}`;
-  const joints: Joint[] = Array.from(order, (j, r) => ({ id: `j${r + 1}`, tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] }));
-  const mOrder = Int32Array.from({ length: M }, (_, i) => i).sort((p, q) => {
-    const p1 = Math.min(rank[h.members[2 * p]], rank[h.members[2 * p + 1]]);
-    const q1 = Math.min(rank[h.members[2 * q]], rank[h.members[2 * q + 1]]);
-    if (p1 !== q1) return p1 - q1;
-    return Math.max(rank[h.members[2 * p]], rank[h.members[2 * p + 1]]) - Math.max(rank[h.members[2 * q]], rank[h.members[2 * q + 1]]);
-  });
+  const jointIds: string[] = new Array(J);
+  for (let r = 0; r < J; r++) jointIds[r] = `j${r + 1}`;
+  const joints: Joint[] = new Array(J);
+  for (let r = 0; r < J; r++) {
+    const j = order[r];
+    joints[r] = { id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] };
+  }
+  // members by their earlier joint, then their later one (stable counting sorts, last key first)
+  const early = new Int32Array(M);
+  const late = new Int32Array(M);
+  for (let i = 0; i < M; i++) {
+    const ra = rank[h.members[2 * i]];
+    const rb = rank[h.members[2 * i + 1]];
+    early[i] = ra < rb ? ra : rb;
+    late[i] = ra < rb ? rb : ra;
+  }
+  const mOrder = new Int32Array(M);
+  for (let i = 0; i < M; i++) mOrder[i] = i;
+  sortIndicesByInt(mOrder, late);
+  sortIndicesByInt(mOrder, early);
   const mRank = new Int32Array(M);
   mOrder.forEach((i, r) => (mRank[i] = r));
-  const memberId = (i: number) => `m${mRank[i] + 1}`;
-  const members: DxfMember[] = Array.from(mOrder, (i, r) => {
+  const members: DxfMember[] = new Array(M);
+  for (let r = 0; r < M; r++) {
+    const i = mOrder[r];
     let a = h.members[2 * i];
     let b = h.members[2 * i + 1];
     if (rank[b] < rank[a]) [a, b] = [b, a];
-    return {
+    members[r] = {
       id: `m${r + 1}`,
       tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
-      from: jointId(a),
-      to: jointId(b),
+      from: jointIds[rank[a]],
+      to: jointIds[rank[b]],
       layer: layerNames[segLayer[h.memberSource[i]]],
     };
-  });
+  }
 
   // ---- report
-  const usedLayers = [...new Set(members.map((m) => m.layer))].sort();
-  const perLayer = new Map<string, number>();
-  for (let i = 0; i < n; i++) perLayer.set(layerNames[segLayer[i]], (perLayer.get(layerNames[segLayer[i]]) ?? 0) + 1);
+  const layerUsed = new Uint8Array(layerNames.length);
+  for (let i = 0; i < M; i++) layerUsed[segLayer[h.memberSource[i]]] = 1;
+  const usedLayers = layerNames.filter((_, li) => layerUsed[li] === 1).sort();
+  const segsOfLayer = new Int32Array(layerNames.length);
+  for (let i = 0; i < n; i++) segsOfLayer[segLayer[i]]++;
+  const perLayer = new Map<string, number>(layerNames.map((l, li) => [l, segsOfLayer[li]]));
   const leftOut = lineLayers.filter((l) => !chosenSet.has(l));
   entry({
     kind: 'layers',
@@ -400,15 +417,26 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     for (let i = 0; i + 1 < flat.length && out.length < DXF_REPORT_MAX_LOCATIONS; i += 2) out.push({ x: flat[i], y: flat[i + 1] });
     return out;
   };
-  const ids = (list: number[], f: (i: number) => string): string[] =>
-    [...new Set(list.map(f))].sort((a, b) => Number(a.slice(1)) - Number(b.slice(1))).slice(0, DXF_REPORT_MAX_LOCATIONS);
+  // ids of the joints or members listed, each once, in id order, at most the report's limit
+  const idsBy = (list: readonly number[], rankOf: Int32Array, prefix: string): string[] => {
+    const ranks = new Int32Array(list.length);
+    for (let p = 0; p < list.length; p++) ranks[p] = rankOf[list[p]];
+    ranks.sort();
+    const out: string[] = [];
+    for (let p = 0; p < ranks.length && out.length < DXF_REPORT_MAX_LOCATIONS; p++) {
+      if (p === 0 || ranks[p] !== ranks[p - 1]) out.push(`${prefix}${ranks[p] + 1}`);
+    }
+    return out;
+  };
+  const jointIdsOf = (list: readonly number[]) => idsBy(list, rank, 'j');
+  const memberIdsOf = (list: readonly number[]) => idsBy(list, mRank, 'm');
   if (h.merged.count > 0) {
     entry({
       kind: 'merged-endpoints',
       severity: 'change',
       count: h.merged.count,
       message: `merged ${plural(h.merged.count, 'endpoint')} closer than ${formatLength(tol)} into ${plural(h.merged.joints.length, 'joint')}`,
-      joints: ids(h.merged.joints, jointId),
+      joints: jointIdsOf(h.merged.joints),
       points: h.merged.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).map((j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
     });
   }
@@ -427,7 +455,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       severity: 'change',
       count: h.duplicates.count,
       message: `merged ${plural(h.duplicates.count, 'duplicate member')} drawn on top of another`,
-      members: ids(h.duplicates.members, memberId),
+      members: memberIdsOf(h.duplicates.members),
       points: pts(h.duplicates.points),
     });
   }
@@ -437,8 +465,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       severity: 'change',
       count: h.splits.members,
       message: `split ${plural(h.splits.members, 'member')} at ${plural(h.splits.cuts, 'joint')} lying on ${h.splits.members === 1 ? 'it' : 'them'}`,
-      joints: ids(h.splits.joints, jointId),
-      members: ids(h.splits.pieces, memberId),
+      joints: jointIdsOf(h.splits.joints),
+      members: memberIdsOf(h.splits.pieces),
       points: h.splits.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).map((j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
     });
   }
@@ -448,7 +476,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       severity: 'change',
       count: h.overlaps.count,
       message: `merged ${plural(h.overlaps.count, 'overlapping collinear piece')} into the member ${h.overlaps.count === 1 ? 'it overlapped' : 'they overlapped'}`,
-      members: ids(h.overlaps.members, memberId),
+      members: memberIdsOf(h.overlaps.members),
       points: pts(h.overlaps.points),
     });
   }
@@ -463,7 +491,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
         nC === 1
           ? `2 members cross without a joint at ${formatPoint(c0.x, c0.y)}; they were left apart`
           : `${nC} pairs of members cross without a joint, the first at ${formatPoint(c0.x, c0.y)}; they were left apart`,
-      members: ids(h.crossings.flatMap((c) => [c.a, c.b]), memberId),
+      members: memberIdsOf(h.crossings.flatMap((c) => [c.a, c.b])),
       points: h.crossings.slice(0, DXF_REPORT_MAX_LOCATIONS).map((c) => ({ x: c.x, y: c.y })),
     });
   }
@@ -474,8 +502,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       severity: 'warning',
       count: nD,
       message: `${plural(nD, 'member has', 'members have')} an end joined to nothing else`,
-      members: ids(h.dangling.map((d) => d.member), memberId),
-      joints: ids(h.dangling.map((d) => d.joint), jointId),
+      members: memberIdsOf(h.dangling.map((d) => d.member)),
+      joints: jointIdsOf(h.dangling.map((d) => d.joint)),
       points: h.dangling.slice(0, DXF_REPORT_MAX_LOCATIONS).map((d) => ({ x: h.joints[2 * d.joint], y: h.joints[2 * d.joint + 1] })),
     });
   }
@@ -486,7 +514,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       severity: 'warning',
       count: nP,
       message: `${plural(nP, 'piece is', 'pieces are')} not connected to the main truss (${plural(h.pieces.reduce((s, p) => s + p.length, 0), 'member')})`,
-      members: ids(h.pieces.flat(), memberId),
+      members: memberIdsOf(h.pieces.flat()),
       points: h.pieces.slice(0, DXF_REPORT_MAX_LOCATIONS).map((p) => {
         let sx = 0;
         let sy = 0;
@@ -523,7 +551,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       tagged === 0
         ? `named ${plural(J, 'joint')} A, B, C, … in reading order (top to bottom, left to right)`
         : `took ${plural(tagged, 'joint tag')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
-    joints: ids(tagResult.fromText, jointId),
+    joints: jointIdsOf(tagResult.fromText),
   });
   for (const u of tagResult.unused) ignore(u.text.type, u.reason, u.text.layer, u.text.x, u.text.y);
   const ignoredList = [...ignored.values()].sort((a, b) => (a.type < b.type ? -1 : a.type > b.type ? 1 : a.reason < b.reason ? -1 : 1));

@@ -1,4 +1,5 @@
 import type { ExplodedText } from './explode';
+import { sortIndicesByFloat, sortIndicesByInt } from './sort';
 
 /** Spreadsheet-style names: 0 → A, 25 → Z, 26 → AA, 27 → AB, … */
 export function tagOfIndex(i: number): string {
@@ -28,7 +29,17 @@ export function isTagLike(s: string): boolean {
  */
 export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
   const n = xy.length / 2;
-  const byY = Array.from({ length: n }, (_, i) => i).sort((p, q) => xy[2 * q + 1] - xy[2 * p + 1] || xy[2 * p] - xy[2 * q]);
+  const xs = new Float64Array(n);
+  const downs = new Float64Array(n); // −y, so that ascending means top first
+  for (let i = 0; i < n; i++) {
+    xs[i] = xy[2 * i];
+    downs[i] = -xy[2 * i + 1];
+  }
+  // top to bottom, then left to right (stable sorts: the last key sorted is the first key)
+  const byY = new Int32Array(n);
+  for (let i = 0; i < n; i++) byY[i] = i;
+  sortIndicesByFloat(byY, xs);
+  sortIndicesByFloat(byY, downs);
   const row = new Int32Array(n);
   let r = -1;
   let top = Infinity;
@@ -40,8 +51,11 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     }
     row[i] = r;
   }
-  byY.sort((p, q) => row[p] - row[q] || xy[2 * p] - xy[2 * q] || xy[2 * q + 1] - xy[2 * p + 1]);
-  return Int32Array.from(byY);
+  // rows in turn, left to right, top first
+  sortIndicesByFloat(byY, downs);
+  sortIndicesByFloat(byY, xs);
+  sortIndicesByInt(byY, row);
+  return byY;
 }
 
 export interface TagResult {
@@ -64,9 +78,13 @@ export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32
   const tags: string[] = new Array(n).fill('');
   const fromText: number[] = [];
   const unused: TagResult['unused'] = [];
-  // joints sorted by x for range queries
-  const byX = Int32Array.from({ length: n }, (_, i) => i).sort((p, q) => xy[2 * p] - xy[2 * q]);
-  const xs = Float64Array.from(byX, (i) => xy[2 * i]);
+  // joints sorted by x for range queries (none needed without texts)
+  const byX = new Int32Array(texts.length > 0 ? n : 0);
+  for (let i = 0; i < byX.length; i++) byX[i] = i;
+  const xs = new Float64Array(byX.length);
+  for (let i = 0; i < byX.length; i++) xs[i] = xy[2 * i];
+  sortIndicesByFloat(byX, xs);
+  for (let k = 0; k < byX.length; k++) xs[k] = xy[2 * byX[k]];
   const pairs: { d: number; t: number; j: number }[] = [];
   const candidate: boolean[] = [];
   texts.forEach((t, ti) => {
