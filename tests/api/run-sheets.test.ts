@@ -113,6 +113,7 @@ describe('calc sheet of an analysis run', () => {
     const t = text(pdf);
     expect(t).toContain('Eli Marsh');
     expect(t).toContain('Rosa Quint');
+    expect(t).toMatch(/Issued by\s+Eli Marsh/);
     expect(t).toMatch(/55\.90/);
 
     const verified = await reviewer.agent.post('/api/archive/verify').set('X-CSRF-Token', reviewer.csrf).attach('file', pdf, 'issued.pdf');

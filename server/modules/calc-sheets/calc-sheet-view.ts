@@ -38,6 +38,8 @@ export interface CalcSheetInput {
   revision: string;
   preparedBy?: SheetSigner;
   checkedBy?: SheetSigner;
+  /** Set on the issued print only: the engineer who issued it. */
+  issuedBy?: SheetSigner;
   model: TrussModel;
   analysis: TrussAnalysis;
   /** Roof takeoff steps (shared/takeoff), when the loads came from a takeoff. */
@@ -267,8 +269,10 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
     revision: input.revision,
     preparedBy: input.preparedBy?.name ?? '—',
     preparedDate: input.preparedBy?.date ?? '',
-    checkedBy: input.checkedBy?.name ?? 'not checked',
+    checkedBy: input.checkedBy?.name ?? '— (not yet checked)',
     checkedDate: input.checkedBy?.date ?? '',
+    issuedBy: input.issuedBy?.name ?? '',
+    issuedDate: input.issuedBy?.date ?? '',
     run: input.runLabel ?? '',
   };
 

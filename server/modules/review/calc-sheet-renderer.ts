@@ -5,16 +5,12 @@ import type { SheetPrinter } from '../calc-sheets/sheet-printer';
 import type { SheetRenderer } from './sheet-renderer';
 
 /** A run's calc-sheet input without what the review adds (revision, signers, print time). */
-export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'generatedAt'>;
+export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'issuedBy' | 'generatedAt'>;
 
 /**
- * ADAPTER — the real calc sheet through the calc-sheet module: view builder → Handlebars HTML →
- * the shared Chromium printer. `loadRunSheet` must come from the runs module (the run's model
- * snapshot, analysis, takeoff steps, project, firm); it is not wired in app.ts until that
- * module exports it.
- *
- * TODO: the calc-sheet view has prepared-by and checked-by lines but no issued-by line; the
- * issuer's name and date are printed only once CalcSheetInput grows one.
+ * The issued calc sheet through the calc-sheet module: view builder → Handlebars HTML → the
+ * app's Chromium printer. `loadRunSheet` (run-sheets module) reads the run's snapshot,
+ * analysis, takeoff steps, project and firm.
  */
 export function calcSheetRenderer(deps: {
   printer: SheetPrinter;
@@ -29,6 +25,7 @@ export function calcSheetRenderer(deps: {
         revision: revisionLabel,
         preparedBy: signatures ? { name: signatures.preparedBy.name, date: signatures.preparedBy.date.slice(0, 10) } : undefined,
         checkedBy: signatures ? { name: signatures.checkedBy.name, date: signatures.checkedBy.date.slice(0, 10) } : undefined,
+        issuedBy: signatures ? { name: signatures.issuedBy.name, date: signatures.issuedBy.date.slice(0, 10) } : undefined,
         generatedAt: signatures?.issuedBy.date ?? (deps.now ?? (() => new Date()))(),
       };
       return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize);
