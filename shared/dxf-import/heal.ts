@@ -610,7 +610,6 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         for (; p < C && cm[p] === i; p++) {
           const j = cj[p];
           splits.cuts++;
-          splits.joints.push(j);
           pieces[2 * Q] = prev;
           pieces[2 * Q + 1] = j;
           pieceSource[Q] = memberSource[i];
@@ -623,6 +622,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         Q++;
       }
       rangeStart.push(Q);
+      splits.joints = Array.from(cj.subarray(0, C));
       // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
       // so they survive
       const firstPiece = firstOfEqualPairs(pieces, Q, J);
@@ -648,7 +648,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         K++;
       }
       const firstSplitPiece = rangeStart.data[0];
-      for (let q = firstSplitPiece; q < Q; q++) splits.pieces.push(keep[q]);
+      splits.pieces = Array.from(keep.subarray(firstSplitPiece, Q));
       // duplicates found earlier pointed at pre-split members; point them at a surviving piece
       const remap = new Int32Array(M).fill(-1);
       {

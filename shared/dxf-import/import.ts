@@ -127,8 +127,11 @@ function defaultTolerance(diagonal: number): number {
   return nice * p;
 }
 
+/** Segments as x1, y1, x2, y2 on a doubling typed array, with a layer index and arc flag each. */
 class Growable {
   data = new Float64Array(4096);
+  layer = new Int32Array(1024);
+  bulged = new Uint8Array(1024);
   length = 0;
   push4(a: number, b: number, c: number, d: number): void {
     if (this.length + 4 > this.data.length) {
@@ -137,6 +140,14 @@ class Growable {
       this.data = bigger;
     }
     const o = this.length;
+    if (o / 4 >= this.layer.length) {
+      const layer = new Int32Array(this.layer.length * 2);
+      layer.set(this.layer);
+      this.layer = layer;
+      const bulged = new Uint8Array(this.bulged.length * 2);
+      bulged.set(this.bulged);
+      this.bulged = bulged;
+    }
     this.data[o] = a;
     this.data[o + 1] = b;
     this.data[o + 2] = c;
@@ -242,8 +253,6 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
 
   // ---- explode, in metres
   const segs = new Growable();
-  const segLayer: number[] = [];
-  const segBulged: number[] = [];
   const layerIndex = new Map<string, number>();
   const layerNames: string[] = [];
   const texts: ExplodedText[] = [];
@@ -267,23 +276,33 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     const far = Math.max(...v.map(Math.abs));
     throw new DxfImportError('coordinate-too-large', `The ${describeEntity(entity, layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
   };
+  // segments come in long runs on one layer: remember the last layer's answers
+  let lastLayer: string | null = null;
+  let lastChosen = false;
+  let lastIndex = -1;
   explodeDrawing(dxf, [k, 0, 0, k, 0, 0], {
     segment(layer, x1, y1, x2, y2, entity, bulged) {
-      if (!chosenSet.has(layer)) return;
+      if (layer !== lastLayer) {
+        lastLayer = layer;
+        lastChosen = chosenSet.has(layer);
+        let li = layerIndex.get(layer);
+        if (lastChosen && li === undefined) {
+          li = layerNames.length;
+          layerNames.push(layer);
+          layerIndex.set(layer, li);
+        }
+        lastIndex = li ?? -1;
+      }
+      if (!lastChosen) return;
       if (
         !(Math.abs(x1) <= DXF_MAX_COORDINATE_M && Math.abs(y1) <= DXF_MAX_COORDINATE_M && Math.abs(x2) <= DXF_MAX_COORDINATE_M && Math.abs(y2) <= DXF_MAX_COORDINATE_M)
       ) {
         bad(entity, layer, x1, y1, x2, y2);
       }
-      let li = layerIndex.get(layer);
-      if (li === undefined) {
-        li = layerNames.length;
-        layerNames.push(layer);
-        layerIndex.set(layer, li);
-      }
+      const at = segs.length / 4;
       segs.push4(x1, y1, x2, y2);
-      segLayer.push(li);
-      segBulged.push(bulged ? 1 : 0);
+      segs.layer[at] = lastIndex;
+      segs.bulged[at] = bulged ? 1 : 0;
     },
     text(t) {
       if (Math.abs(t.x) <= DXF_MAX_COORDINATE_M && Math.abs(t.y) <= DXF_MAX_COORDINATE_M && Number.isFinite(t.height)) texts.push(t);
@@ -301,6 +320,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   }
   const n = segs.length / 4;
   const seg = segs.data.subarray(0, segs.length);
+  const segLayer = segs.layer;
+  const segBulged = segs.bulged;
 
   // ---- extent and tolerance
   let minX = Infinity;
