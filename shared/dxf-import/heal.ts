@@ -183,6 +183,16 @@ class IntList {
   }
 }
 
+/**
+ * a[from … to) as a plain array. Pushed one by one: Array.from over a typed array goes through
+ * the iterator, and new Array(n) past 100 000 items makes a slow dictionary-mode array (V8).
+ */
+function arrayOf(a: Int32Array, from: number, to: number): number[] {
+  const out: number[] = [];
+  for (let p = from; p < to; p++) out.push(a[p]);
+  return out;
+}
+
 /** Float list on a doubling typed array. */
 class FloatList {
   data: Float64Array;
@@ -622,7 +632,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         Q++;
       }
       rangeStart.push(Q);
-      splits.joints = Array.from(cj.subarray(0, C));
+      splits.joints = arrayOf(cj, 0, C);
       // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
       // so they survive
       const firstPiece = firstOfEqualPairs(pieces, Q, J);
@@ -648,7 +658,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
         K++;
       }
       const firstSplitPiece = rangeStart.data[0];
-      splits.pieces = Array.from(keep.subarray(firstSplitPiece, Q));
+      splits.pieces = arrayOf(keep, firstSplitPiece, Q);
       // duplicates found earlier pointed at pre-split members; point them at a surviving piece
       const remap = new Int32Array(M).fill(-1);
       {

@@ -378,13 +378,14 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   const order = readingOrder(h.joints, tol);
   const tagResult = assignTags(h.joints, texts, order, tol);
   const rank = new Int32Array(J);
-  order.forEach((j, r) => (rank[j] = r));
-  const jointIds: string[] = new Array(J);
-  for (let r = 0; r < J; r++) jointIds[r] = `j${r + 1}`;
-  const joints: Joint[] = new Array(J);
+  for (let r = 0; r < J; r++) rank[order[r]] = r;
+  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
+  const jointIds: string[] = [];
+  for (let r = 0; r < J; r++) jointIds.push(`j${r + 1}`);
+  const joints: Joint[] = [];
   for (let r = 0; r < J; r++) {
     const j = order[r];
-    joints[r] = { id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] };
+    joints.push({ id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] });
   }
   // members by their earlier joint, then their later one (stable counting sorts, last key first)
   const early = new Int32Array(M);
@@ -400,20 +401,24 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   sortIndicesByInt(mOrder, late);
   sortIndicesByInt(mOrder, early);
   const mRank = new Int32Array(M);
-  mOrder.forEach((i, r) => (mRank[i] = r));
-  const members: DxfMember[] = new Array(M);
+  for (let r = 0; r < M; r++) mRank[mOrder[r]] = r;
+  const members: DxfMember[] = [];
   for (let r = 0; r < M; r++) {
     const i = mOrder[r];
     let a = h.members[2 * i];
     let b = h.members[2 * i + 1];
-    if (rank[b] < rank[a]) [a, b] = [b, a];
-    members[r] = {
+    if (rank[b] < rank[a]) {
+      const t = a;
+      a = b;
+      b = t;
+    }
+    members.push({
       id: `m${r + 1}`,
       tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
       from: jointIds[rank[a]],
       to: jointIds[rank[b]],
       layer: layerNames[segLayer[h.memberSource[i]]],
-    };
+    });
   }
 
   // ---- report

@@ -13,8 +13,18 @@ const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
  * passes whose digit is the same for every index are skipped.
  */
 export function sortIndicesByFloat(idx: Int32Array, keys: Float64Array): void {
-  const n = idx.length;
-  if (n < 2) return;
+  if (idx.length < 2) return;
+  sortIndicesByBits(idx, floatSortBits(keys));
+}
+
+/** Order-preserving 64-bit images of float keys (high and low words), for {@link sortIndicesByBits}. */
+export interface FloatSortBits {
+  hi: Uint32Array;
+  lo: Uint32Array;
+}
+
+/** The keys' IEEE-754 bits made order-preserving: computed once when a key sorts several times. */
+export function floatSortBits(keys: Float64Array): FloatSortBits {
   const m = keys.length;
   const f = new Float64Array(1);
   const u = new Uint32Array(f.buffer);
@@ -35,7 +45,13 @@ export function sortIndicesByFloat(idx: Int32Array, keys: Float64Array): void {
     hi[k] = h;
     lo[k] = l;
   }
-  radixPasses(idx, [lo, lo, hi, hi], [0, 16, 0, 16]);
+  return { hi, lo };
+}
+
+/** {@link sortIndicesByFloat} with the keys' bits already made. */
+export function sortIndicesByBits(idx: Int32Array, bits: FloatSortBits): void {
+  if (idx.length < 2) return;
+  radixPasses(idx, [bits.lo, bits.lo, bits.hi, bits.hi], [0, 16, 0, 16]);
 }
 
 /** Sorts `idx` in place, stably, by small non-negative integer keys `keys[idx[p]]` < 2³¹. */

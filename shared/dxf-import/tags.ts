@@ -1,5 +1,5 @@
 import type { ExplodedText } from './explode';
-import { sortIndicesByFloat, sortIndicesByInt } from './sort';
+import { floatSortBits, sortIndicesByBits, sortIndicesByFloat, sortIndicesByInt } from './sort';
 
 /** Spreadsheet-style names: 0 → A, 25 → Z, 26 → AA, 27 → AB, … */
 export function tagOfIndex(i: number): string {
@@ -36,10 +36,12 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     downs[i] = -xy[2 * i + 1];
   }
   // top to bottom, then left to right (stable sorts: the last key sorted is the first key)
+  const xBits = floatSortBits(xs);
+  const downBits = floatSortBits(downs);
   const byY = new Int32Array(n);
   for (let i = 0; i < n; i++) byY[i] = i;
-  sortIndicesByFloat(byY, xs);
-  sortIndicesByFloat(byY, downs);
+  sortIndicesByBits(byY, xBits);
+  sortIndicesByBits(byY, downBits);
   const row = new Int32Array(n);
   let r = -1;
   let top = Infinity;
@@ -52,8 +54,8 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     row[i] = r;
   }
   // rows in turn, left to right, top first
-  sortIndicesByFloat(byY, downs);
-  sortIndicesByFloat(byY, xs);
+  sortIndicesByBits(byY, downBits);
+  sortIndicesByBits(byY, xBits);
   sortIndicesByInt(byY, row);
   return byY;
 }
@@ -75,7 +77,8 @@ export interface TagResult {
  */
 export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32Array, tol: number): TagResult {
   const n = xy.length / 2;
-  const tags: string[] = new Array(n).fill('');
+  const tags: string[] = [];
+  for (let j = 0; j < n; j++) tags.push(''); // not new Array(n): dictionary mode past 100 000 (V8)
   const fromText: number[] = [];
   const unused: TagResult['unused'] = [];
   // joints sorted by x for range queries (none needed without texts)
