@@ -387,70 +387,46 @@ function sortCuts(cutT: Float64Array, cutJ: Int32Array, from: number, to: number
 }
 
 /**
- * Heals segments (interleaved x1, y1, x2, y2, metres) with tolerance `tol` (m):
- * endpoints within `tol` become one joint (transitively); segments whose ends fall in one
- * joint are dropped; exact duplicates merged; members cut where another joint lies within
- * `tol` of their interior (which also turns collinear overlaps into duplicates, then merged);
- * crossings away from joints found and left apart; dangling members and separate pieces found.
- * Every search goes through uniform grids (cells found by hashing, grouped by counting sort),
- * so the cost grows about linearly with the number of segments.
+ * Step 1 of healing: joins (union-find on `parent`) endpoints within tol of each other. Points
+ * sorted by column (width ≥ tol), then by y, so near pairs lie in one column or the next and
+ * within tol in y: a sweep over sorted lists, no hashing.
  */
-export function healSegments(seg: Float64Array, n: number, tol: number): HealResult {
-  // ---- extent and grid origin
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (let i = 0; i < 4 * n; i += 2) {
-    const x = seg[i];
-    const y = seg[i + 1];
-    if (x < minX) minX = x;
-    if (x > maxX) maxX = x;
-    if (y < minY) minY = y;
-    if (y > maxY) maxY = y;
-  }
-  const span = Math.max(maxX - minX, maxY - minY, tol);
-  const ox = minX - tol;
-  const oy = minY - tol;
-
-  // ---- 1. cluster endpoints within tol: points sorted by column (width ≥ tol), then by y, so
-  // near pairs lie in one column or the next and within tol in y: a sweep over sorted lists,
-  // no hashing. Union-find makes the clusters transitive.
-  const P = 2 * n;
-  const pcell = Math.max(tol, span / 2 ** 24);
-  const parent = new Int32Array(P);
-  for (let k = 0; k < P; k++) parent[k] = k;
+function clusterEndpoints(seg: Float64Array, P: number, parent: Int32Array, tol: number, pcell: number, ox: number): void {
   const tol2 = tol * tol;
-  {
-    const ys = new Float64Array(P);
-    const col = new Int32Array(P);
-    const byCol = new Int32Array(P);
-    for (let k = 0; k < P; k++) {
-      ys[k] = seg[2 * k + 1];
-      col[k] = Math.floor((seg[2 * k] - ox) / pcell);
-      byCol[k] = k;
-    }
-    sortIndicesByFloat(byCol, ys);
-    sortIndicesByInt(byCol, col);
-    const reach = tol * (1 + 1e-9); // a little wider than tol: joinIfNear decides
-    for (let s = 0; s < P; ) {
-      const g = col[byCol[s]];
-      let e = s;
-      while (e < P && col[byCol[e]] === g) e++;
-      let e2 = e; // the next column's run [e, e2), when it is column g + 1
-      while (e2 < P && col[byCol[e2]] === g + 1) e2++;
-      let lo = e;
-      for (let p = s; p < e; p++) {
-        const k = byCol[p];
-        const y = ys[k];
-        for (let q = p + 1; q < e && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
-        while (lo < e2 && ys[byCol[lo]] < y - reach) lo++;
-        for (let q = lo; q < e2 && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
-      }
-      s = e;
-    }
+  const ys = new Float64Array(P);
+  const col = new Int32Array(P);
+  const byCol = new Int32Array(P);
+  for (let k = 0; k < P; k++) {
+    ys[k] = seg[2 * k + 1];
+    col[k] = Math.floor((seg[2 * k] - ox) / pcell);
+    byCol[k] = k;
   }
-  // clusters → joints, numbered by their first endpoint (counting sort of points by joint)
+  sortIndicesByFloat(byCol, ys);
+  sortIndicesByInt(byCol, col);
+  const reach = tol * (1 + 1e-9); // a little wider than tol: joinIfNear decides
+  for (let s = 0; s < P; ) {
+    const g = col[byCol[s]];
+    let e = s;
+    while (e < P && col[byCol[e]] === g) e++;
+    let e2 = e; // the next column's run [e, e2), when it is column g + 1
+    while (e2 < P && col[byCol[e2]] === g + 1) e2++;
+    let lo = e;
+    for (let p = s; p < e; p++) {
+      const k = byCol[p];
+      const y = ys[k];
+      for (let q = p + 1; q < e && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
+      while (lo < e2 && ys[byCol[lo]] < y - reach) lo++;
+      for (let q = lo; q < e2 && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
+    }
+    s = e;
+  }
+}
+
+/**
+ * Clusters of endpoints → joints, numbered by their first endpoint; each joint where most of
+ * its endpoints are.
+ */
+function jointsOfClusters(seg: Float64Array, P: number, parent: Int32Array): { J: number; pointJoint: Int32Array; joints: Float64Array; merged: HealResult['merged'] } {
   const jointOfRoot = new Int32Array(P).fill(-1);
   const pointJoint = new Int32Array(P);
   let J = 0;
@@ -465,7 +441,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   const fill = start.slice(0, J);
   const order = new Int32Array(P);
   for (let k = 0; k < P; k++) order[fill[pointJoint[k]]++] = k;
-  let joints = new Float64Array(2 * J);
+  const joints = new Float64Array(2 * J);
   const merged = { count: 0, joints: [] as number[] };
   for (let j = 0; j < J; j++) {
     const s = start[j];
@@ -502,10 +478,268 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
     joints[2 * j] = x0;
     joints[2 * j + 1] = y0;
   }
+  return { J, pointJoint, joints, merged };
+}
+
+/**
+ * Steps 4 and 5 of healing: cuts members where a joint lies within tol of their interior (each
+ * member walks the cells within tol of it and tests the joints there: a grid of joints, not of
+ * members), then merges pieces that now coincide. Fills `splits`, `overlaps` and re-points
+ * `duplicates` at surviving pieces; returns the members after cutting.
+ */
+function splitMembers(
+  joints: Float64Array,
+  J: number,
+  members: Int32Array,
+  memberSource: Int32Array,
+  M: number,
+  lens: Float64Array,
+  tol: number,
+  frame: GridFrame,
+  splits: HealResult['splits'],
+  overlaps: HealResult['overlaps'],
+  duplicates: HealResult['duplicates'],
+): { members: Int32Array; memberSource: Int32Array; M: number } {
+  const { cell: mcell, ox, oy } = frame;
+  const cells = new IntList(1024);
+  // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
+  const isEnd = new Uint8Array(J);
+  for (let i = 0; i < 2 * M; i++) isEnd[members[i]] = 1;
+  const pad = tol + mcell * 1e-9;
+  const jc = pointCells(joints, J, isEnd, cellMapFor(frame, pad, J), mcell, ox, oy);
+  const cutM = new IntList(256);
+  const cutT = new FloatList(256);
+  const cutJ = new IntList(256);
+  for (let i = 0; i < M; i++) {
+    const a = members[2 * i];
+    const b = members[2 * i + 1];
+    const ax = joints[2 * a];
+    const ay = joints[2 * a + 1];
+    const dx = joints[2 * b] - ax;
+    const dy = joints[2 * b + 1] - ay;
+    const L = lens[i];
+    cells.length = 0;
+    segmentCells(cells, mcell, ox, oy, ax, ay, ax + dx, ay + dy, pad);
+    const first = cutM.length;
+    for (let c = 0; c < cells.length; c += 2) {
+      const id = jc.ids.get(cells.data[c], cells.data[c + 1]);
+      if (id < 0) continue;
+      for (let p = jc.start[id]; p < jc.start[id + 1]; p++) {
+        const j = jc.items[p];
+        if (j === a || j === b) continue;
+        const x = joints[2 * j];
+        const y = joints[2 * j + 1];
+        const along = ((x - ax) * dx + (y - ay) * dy) / L;
+        if (along <= tol || along >= L - tol) continue;
+        const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
+        if (across > tol) continue;
+        cutM.push(i);
+        cutT.push(along / L);
+        cutJ.push(j);
+      }
+    }
+    if (cutM.length - first > 1) sortCuts(cutT.data, cutJ.data, first, cutM.length);
+  }
+  const C = cutM.length;
+  if (C > 0) {
+    // cuts are grouped by member (ascending) and ordered along it
+    const cm = cutM.data;
+    const cj = cutJ.data;
+    const isCut = new Uint8Array(M);
+    for (let p = 0; p < C; p++) isCut[cm[p]] = 1;
+    const pieces = new Int32Array(2 * (M + C));
+    const pieceSource = new Int32Array(M + C);
+    let Q = 0;
+    for (let i = 0; i < M; i++) {
+      if (isCut[i]) continue;
+      pieces[2 * Q] = members[2 * i];
+      pieces[2 * Q + 1] = members[2 * i + 1];
+      pieceSource[Q] = memberSource[i];
+      Q++;
+    }
+    // pieces of split member r: [rangeStart[r], rangeStart[r + 1])
+    const rangeStart = new IntList(64);
+    for (let p = 0; p < C; ) {
+      const i = cm[p];
+      let prev = members[2 * i];
+      rangeStart.push(Q);
+      splits.members++;
+      for (; p < C && cm[p] === i; p++) {
+        const j = cj[p];
+        splits.cuts++;
+        pieces[2 * Q] = prev;
+        pieces[2 * Q + 1] = j;
+        pieceSource[Q] = memberSource[i];
+        Q++;
+        prev = j;
+      }
+      pieces[2 * Q] = prev;
+      pieces[2 * Q + 1] = members[2 * i + 1];
+      pieceSource[Q] = memberSource[i];
+      Q++;
+    }
+    rangeStart.push(Q);
+    splits.joints = arrayOf(cj, 0, C);
+    // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
+    // so they survive
+    const firstPiece = firstOfEqualPairs(pieces, Q, J);
+    const keep = new Int32Array(Q).fill(-1);
+    let K = 0;
+    const out = new Int32Array(2 * Q);
+    const outSource = new Int32Array(Q);
+    for (let q = 0; q < Q; q++) {
+      const a = pieces[2 * q];
+      const b = pieces[2 * q + 1];
+      const f = firstPiece[q];
+      if (f !== q) {
+        overlaps.count++;
+        overlaps.members.push(keep[f]);
+        overlaps.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
+        keep[q] = keep[f];
+        continue;
+      }
+      keep[q] = K;
+      out[2 * K] = a;
+      out[2 * K + 1] = b;
+      outSource[K] = pieceSource[q];
+      K++;
+    }
+    const firstSplitPiece = rangeStart.data[0];
+    splits.pieces = arrayOf(keep, firstSplitPiece, Q);
+    // duplicates found earlier pointed at pre-split members; point them at a surviving piece
+    const remap = new Int32Array(M).fill(-1);
+    {
+      let q = 0;
+      for (let i = 0; i < M; i++) if (!isCut[i]) remap[i] = keep[q++];
+      let r = 0;
+      for (let i = 0; i < M; i++) {
+        if (isCut[i]) remap[i] = keep[rangeStart.data[r++]];
+      }
+    }
+    duplicates.members = duplicates.members.map((i) => remap[i]);
+    return { members: out, memberSource: outSource, M: K };
+  }
+  return { members, memberSource, M };
+}
+
+/**
+ * Step 6 of healing: pairs of members crossing away from their ends. Members bucketed by the
+ * cells they pass through (counting sort by cell), then the pairs sharing a cell tested.
+ */
+function findCrossings(joints: Float64Array, members: Int32Array, M: number, tol: number, frame: GridFrame): HealResult['crossings'] {
+  const { cell: mcell, ox, oy } = frame;
+  const cells = new IntList(1024);
+  const crossings: HealResult['crossings'] = [];
+  const pad = mcell * 1e-9;
+  const ids = cellMapFor(frame, pad, M);
+  const entCell = new IntList(3 * M);
+  const entMember = new IntList(3 * M);
+  let C = 0;
+  for (let i = 0; i < M; i++) {
+    const a = members[2 * i];
+    const b = members[2 * i + 1];
+    cells.length = 0;
+    segmentCells(cells, mcell, ox, oy, joints[2 * a], joints[2 * a + 1], joints[2 * b], joints[2 * b + 1], pad);
+    for (let c = 0; c < cells.length; c += 2) {
+      const id = ids.intern(cells.data[c], cells.data[c + 1], C);
+      if (id === C) C++;
+      entCell.push(id);
+      entMember.push(i);
+    }
+  }
+  const E = entCell.length;
+  const cstart = new Int32Array(C + 1);
+  for (let e = 0; e < E; e++) cstart[entCell.data[e] + 1]++;
+  for (let c = 0; c < C; c++) cstart[c + 1] += cstart[c];
+  const cfill = cstart.slice(0, C);
+  const items = new Int32Array(E);
+  for (let e = 0; e < E; e++) items[cfill[entCell.data[e]]++] = entMember.data[e];
+  const found = new Set<number>();
+  for (let c = 0; c < C; c++) {
+    const s = cstart[c];
+    const e = cstart[c + 1];
+    // members ascending in a cell; i is the later member of each pair, k the earlier
+    for (let q = s + 1; q < e; q++) {
+      const i = items[q];
+      const a1 = members[2 * i];
+      const b1 = members[2 * i + 1];
+      const ax = joints[2 * a1];
+      const ay = joints[2 * a1 + 1];
+      const bx = joints[2 * b1];
+      const by = joints[2 * b1 + 1];
+      const rx = bx - ax;
+      const ry = by - ay;
+      for (let p = s; p < q; p++) {
+        const k = items[p];
+        const a2 = members[2 * k];
+        const b2 = members[2 * k + 1];
+        if (a2 === a1 || a2 === b1 || b2 === a1 || b2 === b1) continue;
+        const cx = joints[2 * a2];
+        const cy = joints[2 * a2 + 1];
+        const sx = joints[2 * b2] - cx;
+        const sy = joints[2 * b2 + 1] - cy;
+        // bounding boxes first: most pairs sharing a cell do not overlap at all
+        if (Math.max(cx, cx + sx) < Math.min(ax, bx) || Math.min(cx, cx + sx) > Math.max(ax, bx)) continue;
+        if (Math.max(cy, cy + sy) < Math.min(ay, by) || Math.min(cy, cy + sy) > Math.max(ay, by)) continue;
+        const den = rx * sy - ry * sx;
+        if (den === 0) continue;
+        const t = ((cx - ax) * sy - (cy - ay) * sx) / den;
+        const u = ((cx - ax) * ry - (cy - ay) * rx) / den;
+        const li = Math.sqrt(rx * rx + ry * ry);
+        const lk = Math.sqrt(sx * sx + sy * sy);
+        if (t * li <= tol || (1 - t) * li <= tol || u * lk <= tol || (1 - u) * lk <= tol) continue;
+        const key = k * M + i;
+        if (found.has(key)) continue;
+        found.add(key);
+        crossings.push({ a: k, b: i, x: ax + t * rx, y: ay + t * ry });
+      }
+    }
+  }
+  crossings.sort((p, q) => p.a - q.a || p.b - q.b);
+  return crossings;
+}
+/**
+ * Heals segments (interleaved x1, y1, x2, y2, metres) with tolerance `tol` (m):
+ * endpoints within `tol` become one joint (transitively); segments whose ends fall in one
+ * joint are dropped; exact duplicates merged; members cut where another joint lies within
+ * `tol` of their interior (which also turns collinear overlaps into duplicates, then merged);
+ * crossings away from joints found and left apart; dangling members and separate pieces found.
+ * Every search goes through uniform grids (cells found by hashing, grouped by counting sort),
+ * so the cost grows about linearly with the number of segments.
+ */
+export function healSegments(seg: Float64Array, n: number, tol: number): HealResult {
+  // ---- extent and grid origin
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (let i = 0; i < 4 * n; i += 2) {
+    const x = seg[i];
+    const y = seg[i + 1];
+    if (x < minX) minX = x;
+    if (x > maxX) maxX = x;
+    if (y < minY) minY = y;
+    if (y > maxY) maxY = y;
+  }
+  const span = Math.max(maxX - minX, maxY - minY, tol);
+  const ox = minX - tol;
+  const oy = minY - tol;
+
+  // ---- 1. cluster endpoints within tol: points sorted by column (width ≥ tol), then by y, so
+  // near pairs lie in one column or the next and within tol in y: a sweep over sorted lists,
+  // no hashing. Union-find makes the clusters transitive.
+  const P = 2 * n;
+  const pcell = Math.max(tol, span / 2 ** 24);
+  const parent = new Int32Array(P);
+  for (let k = 0; k < P; k++) parent[k] = k;
+  clusterEndpoints(seg, P, parent, tol, pcell, ox);
+  // clusters → joints, numbered by their first endpoint (counting sort of points by joint)
+  const { J, pointJoint, joints: clustered, merged } = jointsOfClusters(seg, P, parent);
+  let joints = clustered;
 
   // ---- 2. members; drop zero-length; 3. merge exact duplicates (same joint pair)
-  let members = new Int32Array(2 * n);
-  let memberSource = new Int32Array(n);
+  let members: Int32Array = new Int32Array(2 * n);
+  let memberSource: Int32Array = new Int32Array(n);
   let M = 0;
   const zeroLength = { count: 0, points: [] as number[] };
   const duplicates = { count: 0, members: [] as number[], points: [] as number[] };
@@ -547,206 +781,17 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   }
   const median = M > 0 ? quickMedian(lens.slice()) : tol;
   const mcell = Math.max(median, total / (8 * Math.max(1, M)), 4 * tol, span / 2 ** 22);
-  const cells = new IntList(1024);
   const frame: GridFrame = { cell: mcell, ox, oy, maxX, maxY };
 
   // ---- 4. split members at joints lying on their interior: each member walks the cells
   // within tol of it and tests the joints there (a grid of joints, not of members)
   const splits = { members: 0, cuts: 0, joints: [] as number[], pieces: [] as number[] };
   const overlaps = { count: 0, members: [] as number[], points: [] as number[] };
-  {
-    // only joints some member ends at may cut (not the lone point of a dropped zero-length segment)
-    const isEnd = new Uint8Array(J);
-    for (let i = 0; i < 2 * M; i++) isEnd[members[i]] = 1;
-    const pad = tol + mcell * 1e-9;
-    const jc = pointCells(joints, J, isEnd, cellMapFor(frame, pad, J), mcell, ox, oy);
-    const cutM = new IntList(256);
-    const cutT = new FloatList(256);
-    const cutJ = new IntList(256);
-    for (let i = 0; i < M; i++) {
-      const a = members[2 * i];
-      const b = members[2 * i + 1];
-      const ax = joints[2 * a];
-      const ay = joints[2 * a + 1];
-      const dx = joints[2 * b] - ax;
-      const dy = joints[2 * b + 1] - ay;
-      const L = lens[i];
-      cells.length = 0;
-      segmentCells(cells, mcell, ox, oy, ax, ay, ax + dx, ay + dy, pad);
-      const first = cutM.length;
-      for (let c = 0; c < cells.length; c += 2) {
-        const id = jc.ids.get(cells.data[c], cells.data[c + 1]);
-        if (id < 0) continue;
-        for (let p = jc.start[id]; p < jc.start[id + 1]; p++) {
-          const j = jc.items[p];
-          if (j === a || j === b) continue;
-          const x = joints[2 * j];
-          const y = joints[2 * j + 1];
-          const along = ((x - ax) * dx + (y - ay) * dy) / L;
-          if (along <= tol || along >= L - tol) continue;
-          const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
-          if (across > tol) continue;
-          cutM.push(i);
-          cutT.push(along / L);
-          cutJ.push(j);
-        }
-      }
-      if (cutM.length - first > 1) sortCuts(cutT.data, cutJ.data, first, cutM.length);
-    }
-    const C = cutM.length;
-    if (C > 0) {
-      // cuts are grouped by member (ascending) and ordered along it
-      const cm = cutM.data;
-      const cj = cutJ.data;
-      const isCut = new Uint8Array(M);
-      for (let p = 0; p < C; p++) isCut[cm[p]] = 1;
-      const pieces = new Int32Array(2 * (M + C));
-      const pieceSource = new Int32Array(M + C);
-      let Q = 0;
-      for (let i = 0; i < M; i++) {
-        if (isCut[i]) continue;
-        pieces[2 * Q] = members[2 * i];
-        pieces[2 * Q + 1] = members[2 * i + 1];
-        pieceSource[Q] = memberSource[i];
-        Q++;
-      }
-      // pieces of split member r: [rangeStart[r], rangeStart[r + 1])
-      const rangeStart = new IntList(64);
-      for (let p = 0; p < C; ) {
-        const i = cm[p];
-        let prev = members[2 * i];
-        rangeStart.push(Q);
-        splits.members++;
-        for (; p < C && cm[p] === i; p++) {
-          const j = cj[p];
-          splits.cuts++;
-          pieces[2 * Q] = prev;
-          pieces[2 * Q + 1] = j;
-          pieceSource[Q] = memberSource[i];
-          Q++;
-          prev = j;
-        }
-        pieces[2 * Q] = prev;
-        pieces[2 * Q + 1] = members[2 * i + 1];
-        pieceSource[Q] = memberSource[i];
-        Q++;
-      }
-      rangeStart.push(Q);
-      splits.joints = arrayOf(cj, 0, C);
-      // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
-      // so they survive
-      const firstPiece = firstOfEqualPairs(pieces, Q, J);
-      const keep = new Int32Array(Q).fill(-1);
-      let K = 0;
-      const out = new Int32Array(2 * Q);
-      const outSource = new Int32Array(Q);
-      for (let q = 0; q < Q; q++) {
-        const a = pieces[2 * q];
-        const b = pieces[2 * q + 1];
-        const f = firstPiece[q];
-        if (f !== q) {
-          overlaps.count++;
-          overlaps.members.push(keep[f]);
-          overlaps.points.push((joints[2 * a] + joints[2 * b]) / 2, (joints[2 * a + 1] + joints[2 * b + 1]) / 2);
-          keep[q] = keep[f];
-          continue;
-        }
-        keep[q] = K;
-        out[2 * K] = a;
-        out[2 * K + 1] = b;
-        outSource[K] = pieceSource[q];
-        K++;
-      }
-      const firstSplitPiece = rangeStart.data[0];
-      splits.pieces = arrayOf(keep, firstSplitPiece, Q);
-      // duplicates found earlier pointed at pre-split members; point them at a surviving piece
-      const remap = new Int32Array(M).fill(-1);
-      {
-        let q = 0;
-        for (let i = 0; i < M; i++) if (!isCut[i]) remap[i] = keep[q++];
-        let r = 0;
-        for (let i = 0; i < M; i++) {
-          if (isCut[i]) remap[i] = keep[rangeStart.data[r++]];
-        }
-      }
-      duplicates.members = duplicates.members.map((i) => remap[i]);
-      members = out;
-      memberSource = outSource;
-      M = K;
-    }
-  }
+  ({ members, memberSource, M } = splitMembers(joints, J, members, memberSource, M, lens, tol, frame, splits, overlaps, duplicates));
 
   // ---- 6. crossings away from joints: members bucketed by the cells they pass through
   // (counting sort by cell), then the pairs sharing a cell tested
-  const crossings: HealResult['crossings'] = [];
-  {
-    const pad = mcell * 1e-9;
-    const ids = cellMapFor(frame, pad, M);
-    const entCell = new IntList(3 * M);
-    const entMember = new IntList(3 * M);
-    let C = 0;
-    for (let i = 0; i < M; i++) {
-      const a = members[2 * i];
-      const b = members[2 * i + 1];
-      cells.length = 0;
-      segmentCells(cells, mcell, ox, oy, joints[2 * a], joints[2 * a + 1], joints[2 * b], joints[2 * b + 1], pad);
-      for (let c = 0; c < cells.length; c += 2) {
-        const id = ids.intern(cells.data[c], cells.data[c + 1], C);
-        if (id === C) C++;
-        entCell.push(id);
-        entMember.push(i);
-      }
-    }
-    const E = entCell.length;
-    const cstart = new Int32Array(C + 1);
-    for (let e = 0; e < E; e++) cstart[entCell.data[e] + 1]++;
-    for (let c = 0; c < C; c++) cstart[c + 1] += cstart[c];
-    const cfill = cstart.slice(0, C);
-    const items = new Int32Array(E);
-    for (let e = 0; e < E; e++) items[cfill[entCell.data[e]]++] = entMember.data[e];
-    const found = new Set<number>();
-    for (let c = 0; c < C; c++) {
-      const s = cstart[c];
-      const e = cstart[c + 1];
-      // members ascending in a cell; i is the later member of each pair, k the earlier
-      for (let q = s + 1; q < e; q++) {
-        const i = items[q];
-        const a1 = members[2 * i];
-        const b1 = members[2 * i + 1];
-        const ax = joints[2 * a1];
-        const ay = joints[2 * a1 + 1];
-        const bx = joints[2 * b1];
-        const by = joints[2 * b1 + 1];
-        const rx = bx - ax;
-        const ry = by - ay;
-        for (let p = s; p < q; p++) {
-          const k = items[p];
-          const a2 = members[2 * k];
-          const b2 = members[2 * k + 1];
-          if (a2 === a1 || a2 === b1 || b2 === a1 || b2 === b1) continue;
-          const cx = joints[2 * a2];
-          const cy = joints[2 * a2 + 1];
-          const sx = joints[2 * b2] - cx;
-          const sy = joints[2 * b2 + 1] - cy;
-          // bounding boxes first: most pairs sharing a cell do not overlap at all
-          if (Math.max(cx, cx + sx) < Math.min(ax, bx) || Math.min(cx, cx + sx) > Math.max(ax, bx)) continue;
-          if (Math.max(cy, cy + sy) < Math.min(ay, by) || Math.min(cy, cy + sy) > Math.max(ay, by)) continue;
-          const den = rx * sy - ry * sx;
-          if (den === 0) continue;
-          const t = ((cx - ax) * sy - (cy - ay) * sx) / den;
-          const u = ((cx - ax) * ry - (cy - ay) * rx) / den;
-          const li = Math.sqrt(rx * rx + ry * ry);
-          const lk = Math.sqrt(sx * sx + sy * sy);
-          if (t * li <= tol || (1 - t) * li <= tol || u * lk <= tol || (1 - u) * lk <= tol) continue;
-          const key = k * M + i;
-          if (found.has(key)) continue;
-          found.add(key);
-          crossings.push({ a: k, b: i, x: ax + t * rx, y: ay + t * ry });
-        }
-      }
-    }
-    crossings.sort((p, q) => p.a - q.a || p.b - q.b);
-  }
+  const crossings = findCrossings(joints, members, M, tol, frame);
 
   // ---- drop joints no member uses (ends of dropped zero-length segments), renumber
   const degree = new Int32Array(J);
