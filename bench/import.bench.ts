@@ -35,10 +35,14 @@ function trussDxf(panels: number): { text: string; segments: number } {
   return { text: out.join('\n'), segments };
 }
 
-function time<T>(f: () => T): [T, number] {
+/** Wall time and process CPU time (user + system, all threads, GC helpers included), ms. */
+function time<T>(f: () => T): [T, number, number] {
+  const c0 = process.cpuUsage();
   const t0 = performance.now();
   const v = f();
-  return [v, performance.now() - t0];
+  const wall = performance.now() - t0;
+  const c = process.cpuUsage(c0);
+  return [v, wall, (c.user + c.system) / 1000];
 }
 
 let peak = 0;
@@ -61,17 +65,19 @@ for (const panels of [480, 4_800, 48_000]) {
   const checked: number[] = [];
   const imported: number[] = [];
   const ratio: number[] = [];
+  const cpuRatio: number[] = [];
   let model = '';
   for (let r = 0; r < runs; r++) {
-    const [, b] = time(() => new DxfParser().parse(text));
+    const [, b, bCpu] = time(() => new DxfParser().parse(text));
     const [parsed, c] = time(() => dxfParse(text));
     peak = Math.max(peak, process.memoryUsage().rss);
-    const [result, i] = time(() => dxfImport(parsed));
+    const [result, i, iCpu] = time(() => dxfImport(parsed));
     peak = Math.max(peak, process.memoryUsage().rss);
     bare.push(b);
     checked.push(c);
     imported.push(i);
     ratio.push(i / b);
+    cpuRatio.push(iCpu / bCpu);
     model = `${result.joints.length} joints, ${result.members.length} members`;
   }
   rows.push(
@@ -82,6 +88,7 @@ for (const panels of [480, 4_800, 48_000]) {
       pair(imported),
       `${((1000 * median(imported)) / segments).toFixed(2).padStart(6)} µs`,
       `${Math.min(...ratio).toFixed(3)} ${median(ratio).toFixed(3)}`,
+      `${Math.min(...cpuRatio).toFixed(3)} ${median(cpuRatio).toFixed(3)}`,
       `${(peak / 2 ** 20).toFixed(0).padStart(5)} MiB`,
       model,
     ].join('  '),
@@ -89,9 +96,10 @@ for (const panels of [480, 4_800, 48_000]) {
 }
 clearInterval(sampler);
 const loadAfter = os.loadavg();
-console.log('                bare parse          dxfParse       dxfImport after     import   ratio import/bare');
-console.log('segments      best   median      best   median      best   median    per seg   best  median   peak RSS   model');
+console.log('                bare parse          dxfParse       dxfImport after     import   ratio (wall)  ratio (CPU)');
+console.log('segments      best   median      best   median      best   median    per seg   best  median  best  median   peak RSS   model');
 for (const r of rows) console.log(r);
-console.log('ratio = dxfImport (after parsing) ÷ dxf-parser bare parse, run by run (budget ≤ 0.25 at 100 000 segments)');
+console.log('ratio = dxfImport (after parsing) ÷ dxf-parser bare parse, run by run (budget ≤ 0.25 at 100 000 segments);');
+console.log('  wall = elapsed time; CPU = process CPU time, steadier when other jobs share the cores');
 console.log('dxfParse = our checks of the file text (sniffing, structure pre-scan) plus dxf-parser; not part of the ratio');
 console.log(`load average (1, 5, 15 min): before ${loadBefore.map((l) => l.toFixed(2)).join(' ')}, after ${loadAfter.map((l) => l.toFixed(2)).join(' ')} on ${os.cpus().length} cores`);
