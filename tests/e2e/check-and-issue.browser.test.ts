@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { OutboxMessage } from '../../server/db/models';
 import { launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
+import { stepLabel } from '../../src/features/sheets/utils/step-anchor';
 
 // The whole check-and-issue loop on the demo project's T2 (which has no drawing yet), driven
 // through the built app in Chromium by three people, each in a browser context of their own.
@@ -197,12 +198,14 @@ describe('check and issue: from a drafter’s DXF to a verified issued PDF, in C
     const step = sheet.locator('.step[id*="/reaction-"]').first();
     const anchor = (await step.getAttribute('id'))!;
     expect(anchor).not.toBe('');
+    // Comments are labelled with the step's heading as the sheet prints it.
+    const label = stepLabel(anchor, { [anchor]: (await step.locator('h4 a.anchor').innerText()).trim() });
     await step.click();
     commentText = 'The reactions rest on a 12 kN apex load: say where it comes from (roof weight × purlin spacing), or use the roof takeoff.';
-    await reviewer.getByText(`New comment on ${anchor}`).waitFor();
+    await reviewer.getByText(`New comment on ${label}`).waitFor();
     await reviewer.getByLabel('What should the preparer look at here?').fill(commentText);
     await reviewer.getByRole('button', { name: 'Comment', exact: true }).click();
-    await reviewer.getByRole('region', { name: `Comments on ${anchor}` }).getByText(commentText).waitFor({ timeout: 15_000 });
+    await reviewer.getByRole('region', { name: `Comments on ${label}` }).getByText(commentText).waitFor({ timeout: 15_000 });
 
     // Marking it checked waits on the open thread; returning needs a note.
     expect(await reviewer.getByRole('button', { name: 'Mark checked' }).isDisabled()).toBe(true);
@@ -221,7 +224,9 @@ describe('check and issue: from a drafter’s DXF to a verified issued PDF, in C
     await open.waitFor();
     expect(await open.getByRole('heading').innerText()).toBe('Returned with 1 open comment');
     expect(await open.getByText(commentText).count()).toBe(1);
-    expect(await open.getByText(anchor, { exact: true }).count()).toBe(1);
+    // The step's heading replaces its id once the sheet preview has loaded.
+    await open.getByText(label, { exact: true }).waitFor({ timeout: 30_000 });
+    expect(await open.getByText(label, { exact: true }).count()).toBe(1);
     expect(await engineer.getByText('One open comment on the loads.').count()).toBeGreaterThan(0); // the note, in the audit log
   }, 120_000);
 

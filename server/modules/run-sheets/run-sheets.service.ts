@@ -38,7 +38,7 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
       unitSystem: project.unitSystem,
     },
     trussName: truss.name,
-    subject: `${truss.name}: load takeoff, analysis and member forces`,
+    subject: `${truss.name}: ${takeoff?.result ? 'load takeoff, analysis' : 'analysis'} and member forces`,
     model: JSON.parse(run.model) as TrussModel,
     analysis: JSON.parse(run.analysis!) as TrussAnalysis,
     takeoffSteps: takeoff?.result?.steps,

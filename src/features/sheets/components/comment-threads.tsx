@@ -19,21 +19,25 @@ interface ThreadsProps {
   /** Whether threads made on that revision can still be resolved or reopened. */
   canResolve: (thread: SheetCommentView) => boolean;
   onFocusStep: (anchor: string) => void;
+  /** The step's title as the sheet prints it. */
+  labelOf: (anchor: string) => string;
 }
 
 /** The sheet's comment threads, step by step; a step's title brings it into view on the sheet. */
-export function CommentThreads({ groups, onFocusStep, ...rest }: ThreadsProps) {
+export function CommentThreads({ groups, onFocusStep, labelOf, ...rest }: ThreadsProps) {
   return (
     <div className="flex flex-col gap-4">
       {groups.map((group) => (
-        <section key={group.anchor} aria-label={`Comments on ${group.anchor}`}>
+        <section key={group.anchor} aria-label={`Comments on ${labelOf(group.anchor)}`}>
           <button
             type="button"
             onClick={() => onFocusStep(group.anchor)}
             className="mb-1.5 flex w-full items-baseline justify-between gap-2 text-left"
             title="Show this step on the sheet"
           >
-            <span className="truncate font-mono text-xs font-semibold text-accent hover:underline">{group.anchor}</span>
+            <span className="truncate text-xs font-semibold text-accent hover:underline" title={group.anchor}>
+              {labelOf(group.anchor)}
+            </span>
             <span className={`shrink-0 text-[11px] ${group.openCount > 0 ? 'font-semibold text-danger' : 'text-ink-faint'}`}>
               {group.openCount > 0 ? `${group.openCount} open` : 'all resolved'}
             </span>
@@ -49,7 +53,7 @@ export function CommentThreads({ groups, onFocusStep, ...rest }: ThreadsProps) {
   );
 }
 
-function Thread({ thread, sheetId, trussId, currentLabel, canReply, canResolve, onFocusStep }: Omit<ThreadsProps, 'groups'> & { thread: SheetCommentView }) {
+function Thread({ thread, sheetId, trussId, currentLabel, canReply, canResolve, onFocusStep }: Omit<ThreadsProps, 'groups' | 'labelOf'> & { thread: SheetCommentView }) {
   const [replying, setReplying] = useState(false);
   const resolve = useResolveSheetComment();
   const earlier = thread.revisionLabel !== currentLabel;

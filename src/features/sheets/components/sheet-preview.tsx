@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
-import { stepAnchorAt, stepAnchorsIn } from '../utils/step-anchor';
+import { stepAnchorAt, stepAnchorsIn, stepTitlesIn } from '../utils/step-anchor';
 
 /** A request to bring one step into view; `seq` makes a second click on the same step scroll again. */
 export interface StepFocus {
@@ -17,6 +17,8 @@ interface SheetPreviewProps {
   onPickStep?: (anchor: string) => void;
   /** The sheet's anchors in document order, once it has loaded. */
   onAnchors?: (anchors: string[]) => void;
+  /** Each anchor's heading on the sheet, once it has loaded. */
+  onTitles?: (titles: Record<string, string>) => void;
 }
 
 // Marks drawn into the sheet's own document: which steps can be clicked, carry threads, are chosen.
@@ -45,7 +47,7 @@ type LoadState = { kind: 'loading' } | { kind: 'ready' } | { kind: 'missing'; me
  * The revision's calc sheet, in a same-origin frame, as the PDF will print it. Clicking a step
  * picks its anchor for a comment; steps with threads carry a mark in the margin.
  */
-export function SheetPreview({ src, commented, selected, focus, onPickStep, onAnchors }: SheetPreviewProps) {
+export function SheetPreview({ src, commented, selected, focus, onPickStep, onAnchors, onTitles }: SheetPreviewProps) {
   const frame = useRef<HTMLIFrameElement>(null);
   const [doc, setDoc] = useState<Document | null>(null);
   const [state, setState] = useState<LoadState>({ kind: 'loading' });
@@ -82,7 +84,8 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
     setDoc(loaded);
     setState({ kind: 'ready' });
     onAnchors?.(stepAnchorsIn(loaded));
-  }, [onAnchors]);
+    onTitles?.(stepTitlesIn(loaded));
+  }, [onAnchors, onTitles]);
 
   useEffect(() => {
     if (!doc) return;

@@ -6,6 +6,7 @@ import { useTrussSheets } from '../api/get-truss-sheets';
 import { sheetPreviewUrl } from '../api/get-sheet';
 import { groupCommentsByStep, openThreadsOf } from '../utils/comment-groups';
 import { canCommentOnSheet, isSheetFrozen } from '../utils/sheet-actions';
+import { stepLabel } from '../utils/step-anchor';
 import { CommentComposer, CommentThreads } from './comment-threads';
 import { SheetPreview, type StepFocus } from './sheet-preview';
 
@@ -19,6 +20,8 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
   const [writingOn, setWritingOn] = useState<string | null>(null);
   const [focus, setFocus] = useState<StepFocus | null>(null);
   const [stepOrder, setStepOrder] = useState<string[]>([]);
+  const [stepTitles, setStepTitles] = useState<Record<string, string>>({});
+  const labelOf = useCallback((anchor: string) => stepLabel(anchor, stepTitles), [stepTitles]);
   const [show, setShow] = useState<'all' | 'open'>('all');
   const siblings = useTrussSheets(sheet.trussId);
   const canComment = canCommentOnSheet(user, sheet.status);
@@ -64,13 +67,15 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
             <Link to={`/trusses/${sheet.trussId}?tab=sheets`} className="font-medium text-accent hover:underline">
               the truss page
             </Link>
-            ; mark them resolved there.
+            , then mark each one resolved on the new revision.
           </p>
           <ul className="mt-3 flex flex-col gap-1.5">
             {openThreads.map((t) => (
               <li key={t.id}>
                 <button type="button" onClick={() => focusStep(t.anchor)} className="group flex w-full gap-3 text-left text-[13px]">
-                  <span className="w-40 shrink-0 truncate font-mono text-xs leading-5 text-danger group-hover:underline">{t.anchor}</span>
+                  <span className="w-48 shrink-0 truncate text-xs font-semibold leading-5 text-danger group-hover:underline" title={t.anchor}>
+                    {labelOf(t.anchor)}
+                  </span>
                   <span className="min-w-0 flex-1 text-ink">
                     {t.body.split('\n')[0]} <span className="text-ink-faint">— {t.author.name}</span>
                   </span>
@@ -91,6 +96,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
           focus={focus}
           onPickStep={canComment ? pickStep : undefined}
           onAnchors={setStepOrder}
+          onTitles={setStepTitles}
         />
 
         <aside className="flex max-h-[78vh] flex-col overflow-hidden rounded-lg border border-paper-line bg-paper-raised" aria-label="Comments">
@@ -115,7 +121,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
               (writingOn ? (
                 <div className="-mx-1 mb-4 rounded-md border border-accent/40 bg-accent-soft/40 pt-2">
                   <p className="px-3 pb-1.5 text-[11px] text-ink-soft">
-                    New comment on <span className="font-mono font-semibold text-accent">{writingOn}</span>
+                    New comment on <span className="font-semibold text-accent" title={writingOn}>{labelOf(writingOn)}</span>
                   </p>
                   <CommentComposer
                     key={writingOn}
@@ -147,6 +153,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
                 canReply={canComment}
                 canResolve={canResolve}
                 onFocusStep={focusStep}
+                labelOf={labelOf}
               />
             )}
           </div>

@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
 import { describe, expect, it } from 'vitest';
-import { stepAnchorAt, stepAnchorsIn } from './step-anchor';
+import { stepAnchorAt, stepAnchorsIn, stepLabel, stepTitlesIn } from './step-anchor';
 
 // A cut-down sheet in the shape templates/partials/{case-results,step}.hbs print.
 const SHEET = `
@@ -41,5 +41,18 @@ describe('stepAnchorAt', () => {
 describe('stepAnchorsIn', () => {
   it('when the sheet is read, then its anchors come in document order without the drawings’ internal ids', () => {
     expect(stepAnchorsIn(sheet())).toEqual(['case-D', 'case-D-reactions', 'case-D/joint-C']);
+  });
+});
+
+describe('stepTitlesIn and stepLabel', () => {
+  it('when the sheet has loaded, then comments are labelled with the headings the sheet prints, not ids', () => {
+    const titles = stepTitlesIn(sheet());
+    expect(titles).toEqual({ 'case-D-reactions': 'Support reactions', 'case-D/joint-C': 'Joint C' });
+    expect(stepLabel('case-D/joint-C', titles)).toBe('Joint C (case D)');
+    expect(stepLabel('case-D-reactions', titles)).toBe('Support reactions');
+  });
+
+  it('when an anchor has no heading on the sheet, then its id stands in', () => {
+    expect(stepLabel('case-D', stepTitlesIn(sheet()))).toBe('case-D');
   });
 });
