@@ -2,7 +2,7 @@ import type { IDxf } from 'dxf-parser';
 import type { Joint } from '@shared/model/truss';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
-import { healSegments } from './heal';
+import { healSegments, type HealResult } from './heal';
 import { dxfLayers, dxfOf } from './layers';
 import { sortIndicesByInt } from './sort';
 import { assignTags, memberTagOf, readingOrder } from './tags';
@@ -158,6 +158,62 @@ class Growable {
 
 function pushLimited<T>(list: T[], ...items: T[]): void {
   for (const it of items) if (list.length < DXF_REPORT_MAX_LOCATIONS) list.push(it);
+}
+
+/**
+ * The healed geometry as the truss model: joints in reading order with tags, members ordered
+ * by their joints. In a function of its own so that it is optimised as a whole (V8).
+ */
+function modelOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: string[], segLayer: Int32Array) {
+  const J = h.joints.length / 2;
+  const M = h.members.length / 2;
+  const order = readingOrder(h.joints, tol);
+  const tagResult = assignTags(h.joints, texts, order, tol);
+  const rank = new Int32Array(J);
+  for (let r = 0; r < J; r++) rank[order[r]] = r;
+  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
+  const jointIds: string[] = [];
+  for (let r = 0; r < J; r++) jointIds.push(`j${r + 1}`);
+  const joints: Joint[] = [];
+  for (let r = 0; r < J; r++) {
+    const j = order[r];
+    joints.push({ id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] });
+  }
+  // members by their earlier joint, then their later one (stable counting sorts, last key first)
+  const early = new Int32Array(M);
+  const late = new Int32Array(M);
+  for (let i = 0; i < M; i++) {
+    const ra = rank[h.members[2 * i]];
+    const rb = rank[h.members[2 * i + 1]];
+    early[i] = ra < rb ? ra : rb;
+    late[i] = ra < rb ? rb : ra;
+  }
+  const mOrder = new Int32Array(M);
+  for (let i = 0; i < M; i++) mOrder[i] = i;
+  sortIndicesByInt(mOrder, late);
+  sortIndicesByInt(mOrder, early);
+  const mRank = new Int32Array(M);
+  for (let r = 0; r < M; r++) mRank[mOrder[r]] = r;
+  const members: DxfMember[] = [];
+  for (let r = 0; r < M; r++) {
+    const i = mOrder[r];
+    let a = h.members[2 * i];
+    let b = h.members[2 * i + 1];
+    if (rank[b] < rank[a]) {
+      const t = a;
+      a = b;
+      b = t;
+    }
+    members.push({
+      id: `m${r + 1}`,
+      tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
+      from: jointIds[rank[a]],
+      to: jointIds[rank[b]],
+      layer: layerNames[segLayer[h.memberSource[i]]],
+    });
+  }
+
+  return { tagResult, rank, mRank, joints, members };
 }
 
 /**
@@ -375,51 +431,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   const M = h.members.length / 2;
 
   // ---- tags, order, ids
-  const order = readingOrder(h.joints, tol);
-  const tagResult = assignTags(h.joints, texts, order, tol);
-  const rank = new Int32Array(J);
-  for (let r = 0; r < J; r++) rank[order[r]] = r;
-  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
-  const jointIds: string[] = [];
-  for (let r = 0; r < J; r++) jointIds.push(`j${r + 1}`);
-  const joints: Joint[] = [];
-  for (let r = 0; r < J; r++) {
-    const j = order[r];
-    joints.push({ id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] });
-  }
-  // members by their earlier joint, then their later one (stable counting sorts, last key first)
-  const early = new Int32Array(M);
-  const late = new Int32Array(M);
-  for (let i = 0; i < M; i++) {
-    const ra = rank[h.members[2 * i]];
-    const rb = rank[h.members[2 * i + 1]];
-    early[i] = ra < rb ? ra : rb;
-    late[i] = ra < rb ? rb : ra;
-  }
-  const mOrder = new Int32Array(M);
-  for (let i = 0; i < M; i++) mOrder[i] = i;
-  sortIndicesByInt(mOrder, late);
-  sortIndicesByInt(mOrder, early);
-  const mRank = new Int32Array(M);
-  for (let r = 0; r < M; r++) mRank[mOrder[r]] = r;
-  const members: DxfMember[] = [];
-  for (let r = 0; r < M; r++) {
-    const i = mOrder[r];
-    let a = h.members[2 * i];
-    let b = h.members[2 * i + 1];
-    if (rank[b] < rank[a]) {
-      const t = a;
-      a = b;
-      b = t;
-    }
-    members.push({
-      id: `m${r + 1}`,
-      tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
-      from: jointIds[rank[a]],
-      to: jointIds[rank[b]],
-      layer: layerNames[segLayer[h.memberSource[i]]],
-    });
-  }
+  const { tagResult, rank, mRank, joints, members } = modelOf(h, texts, tol, layerNames, segLayer);
 
   // ---- report
   const layerUsed = new Uint8Array(layerNames.length);
