@@ -5,6 +5,7 @@ import { Button } from '@/components/ui/button';
 import { fieldErrorText } from '../utils/field-error';
 import type { DraftForm } from './draft-actions';
 import { CELL_INPUT, TH, TH_RIGHT } from './supports-table';
+import { RemoveCell } from './remove-cell';
 
 /** Combinations from a built-in code set (each with its clause) or written by hand. */
 export function CombinationsSection({ form, mayEdit }: { form: DraftForm; mayEdit: boolean }) {
@@ -126,13 +127,7 @@ export function CombinationsSection({ form, mayEdit }: { form: DraftForm; mayEdi
                   <td className="min-w-56 px-2 py-1">
                     <input aria-label={`Combination ${i + 1}: clause`} className={`${CELL_INPUT} border-paper-line text-ink-soft`} {...form.register(`combinations.${i}.clause`)} />
                   </td>
-                  <td className="w-16 px-2 py-1 text-right">
-                    {mayEdit && (
-                      <button type="button" className="py-1.5 text-xs text-danger hover:underline" onClick={() => remove(i)}>
-                        Remove
-                      </button>
-                    )}
-                  </td>
+                  <RemoveCell show={mayEdit} onRemove={() => remove(i)} />
                 </tr>
               );
             })}

@@ -6,6 +6,7 @@ import { CATEGORY_LABELS } from '../utils/model-draft';
 import { fieldErrorText } from '../utils/field-error';
 import { draftActions, type DraftForm } from './draft-actions';
 import { CELL_INPUT, TH, TH_RIGHT } from './supports-table';
+import { RemoveCell } from './remove-cell';
 
 interface LoadsSectionProps {
   form: DraftForm;
@@ -100,13 +101,7 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
                     {count}
                     {c && takeoffCases.has(c.id) && <span className="ml-2 text-[11px] text-accent">from the roof takeoff</span>}
                   </td>
-                  <td className="w-16 px-2 py-1 text-right">
-                    {mayEdit && c && (
-                      <button type="button" className="py-1.5 text-xs text-danger hover:underline" onClick={() => actions.removeCase(c.id)}>
-                        Remove
-                      </button>
-                    )}
-                  </td>
+                  <RemoveCell show={Boolean(mayEdit && c)} onRemove={() => c && actions.removeCase(c.id)} />
                 </tr>
               );
             })}

@@ -3,6 +3,7 @@ import type { Joint } from '@shared/model/truss';
 import { Button } from '@/components/ui/button';
 import { fieldErrorText } from '../utils/field-error';
 import type { DraftForm } from './draft-actions';
+import { RemoveCell } from './remove-cell';
 
 export const CELL_INPUT =
   'h-8 w-full rounded border bg-paper-raised px-2 text-[13px] focus:border-accent focus:outline-none disabled:bg-transparent disabled:border-transparent disabled:appearance-none';
@@ -87,13 +88,7 @@ export function SupportsTable({ form, joints, mayEdit }: { form: DraftForm; join
                     <span className="inline-block py-1.5 text-ink-faint">both directions</span>
                   )}
                 </td>
-                <td className="w-16 px-2 py-1 text-right">
-                  {mayEdit && (
-                    <button type="button" className="py-1.5 text-xs text-danger hover:underline" onClick={() => remove(i)}>
-                      Remove
-                    </button>
-                  )}
-                </td>
+                <RemoveCell show={mayEdit} onRemove={() => remove(i)} />
               </tr>
             );
           })}
