@@ -50,6 +50,16 @@ export type Support = z.infer<typeof supportSchema>;
 export const loadCategorySchema = z.enum(['dead', 'live', 'roof-live', 'snow', 'wind', 'other']);
 export type LoadCategory = z.infer<typeof loadCategorySchema>;
 
+/** Each load category as the app and the calc sheet write it. */
+export const LOAD_CATEGORY_NAMES: Record<LoadCategory, string> = {
+  dead: 'Dead',
+  live: 'Live',
+  'roof-live': 'Roof live',
+  snow: 'Snow',
+  wind: 'Wind',
+  other: 'Other',
+};
+
 export const jointLoadSchema = z.object({
   joint: z.string().min(1),
   /** kN, +x to the right. */

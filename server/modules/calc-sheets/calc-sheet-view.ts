@@ -1,5 +1,5 @@
 import katex from 'katex';
-import type { JointLoad, TrussModel } from '@shared/model/truss';
+import { LOAD_CATEGORY_NAMES, type JointLoad, type TrussModel } from '@shared/model/truss';
 import type { FirmSettings, UnitSystem } from '@shared/schemas/project.schema';
 import { caseSteps, stepToKatex, type CaseResult, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import { takeoffStepKatex, type TakeoffStep } from '@shared/takeoff';
@@ -138,14 +138,7 @@ const CAUTION =
   'Local building codes and the authority having jurisdiction govern; where they differ from the design basis stated here, they take precedence. ' +
   'The analysis assumes a plane, pin-jointed truss with loads applied at the joints, linear elastic behaviour and small displacements.';
 
-const CATEGORY_NAMES: Record<string, string> = {
-  dead: 'Dead',
-  live: 'Live',
-  'roof-live': 'Roof live',
-  snow: 'Snow',
-  wind: 'Wind',
-  other: 'Other',
-};
+const CATEGORY_NAMES: Record<string, string> = LOAD_CATEGORY_NAMES;
 
 const METHOD_NAMES: Record<CaseResult['method'], string> = {
   joints: 'method of joints',

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   combinationSchema,
+  LOAD_CATEGORY_NAMES,
   jointLoadSchema,
   loadCaseSchema,
   memberGroupSchema,
@@ -149,14 +150,8 @@ export function draftToSaveInput(draft: ModelDraft, version: number): ModelSaveI
   };
 }
 
-export const CATEGORY_LABELS: Record<LoadCategory, string> = {
-  dead: 'Dead',
-  live: 'Live',
-  'roof-live': 'Roof live',
-  snow: 'Snow',
-  wind: 'Wind',
-  other: 'Other',
-};
+/** Load categories as the app writes them. */
+export const CATEGORY_LABELS = LOAD_CATEGORY_NAMES;
 
 const CATEGORY_LETTER: Record<LoadCategory, string> = { dead: 'D', live: 'L', 'roof-live': 'Lr', snow: 'S', wind: 'W', other: 'X' };
 
