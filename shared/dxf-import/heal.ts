@@ -863,8 +863,8 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   };
 }
 
-/** Median by quickselect (reorders `a`). */
-function quickMedian(a: Float64Array): number {
+/** The element of rank ⌊n/2⌋ (the upper median), by quickselect: reorders `a`. */
+export function quickMedian(a: Float64Array): number {
   const k = a.length >> 1;
   let lo = 0;
   let hi = a.length - 1;

@@ -2,7 +2,7 @@ import type { IDxf } from 'dxf-parser';
 import type { Joint } from '@shared/model/truss';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
-import { healSegments, type HealResult } from './heal';
+import { healSegments, quickMedian, type HealResult } from './heal';
 import { dxfLayers, dxfOf } from './layers';
 import { sortIndicesByInt } from './sort';
 import { assignTags, memberTagOf, readingOrder } from './tags';
@@ -405,8 +405,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     const L = Math.sqrt(dx * dx + dy * dy);
     if (L > 0) lens[nLens++] = L;
   }
-  const sortedLens = lens.subarray(0, nLens).sort();
-  const typical = sortedLens[nLens >> 1];
+  // the element sorting would put at ⌊n/2⌋, found without sorting
+  const typical = quickMedian(lens.subarray(0, nLens));
   const tol = o.tolerance ?? defaultTolerance(Math.min(diagonal, 10 * typical));
   {
     if (tolSource === 'option' && tol > typical / 2) {
