@@ -22,7 +22,7 @@ export interface HealResult {
   /** Split pieces that lay on another member's piece: surviving member of each. */
   overlaps: { count: number; members: number[]; points: number[] };
   /** Members cut at joints lying on their interior. */
-  splits: { members: number; cuts: number; joints: number[]; pieces: number[] };
+  splits: { members: number; cuts: number; joints: Int32Array; pieces: Int32Array };
   /** Pairs of members crossing away from their ends, with the crossing point. */
   crossings: { a: number; b: number; x: number; y: number }[];
   /** Members with an end joined to nothing else: member and free joint. */
@@ -181,16 +181,6 @@ class IntList {
     }
     this.data[this.length++] = v;
   }
-}
-
-/**
- * a[from … to) as a plain array. Pushed one by one: Array.from over a typed array goes through
- * the iterator, and new Array(n) past 100 000 items makes a slow dictionary-mode array (V8).
- */
-function arrayOf(a: Int32Array, from: number, to: number): number[] {
-  const out: number[] = [];
-  for (let p = from; p < to; p++) out.push(a[p]);
-  return out;
 }
 
 /** Float list on a doubling typed array. */
@@ -579,7 +569,7 @@ function splitMembers(
       Q++;
     }
     rangeStart.push(Q);
-    splits.joints = arrayOf(cj, 0, C);
+    splits.joints = cj.slice(0, C);
     // ---- 5. merge pieces that now coincide (collinear overlaps); uncut members come first,
     // so they survive
     const firstPiece = firstOfEqualPairs(pieces, Q, J);
@@ -605,7 +595,7 @@ function splitMembers(
       K++;
     }
     const firstSplitPiece = rangeStart.data[0];
-    splits.pieces = arrayOf(keep, firstSplitPiece, Q);
+    splits.pieces = keep.slice(firstSplitPiece, Q);
     // duplicates found earlier pointed at pre-split members; point them at a surviving piece
     const remap = new Int32Array(M).fill(-1);
     {
@@ -785,7 +775,7 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
 
   // ---- 4. split members at joints lying on their interior: each member walks the cells
   // within tol of it and tests the joints there (a grid of joints, not of members)
-  const splits = { members: 0, cuts: 0, joints: [] as number[], pieces: [] as number[] };
+  const splits: HealResult['splits'] = { members: 0, cuts: 0, joints: new Int32Array(0), pieces: new Int32Array(0) };
   const overlaps = { count: 0, members: [] as number[], points: [] as number[] };
   ({ members, memberSource, M } = splitMembers(joints, J, members, memberSource, M, lens, tol, frame, splits, overlaps, duplicates));
 

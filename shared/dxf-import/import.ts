@@ -456,7 +456,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     return out;
   };
   // ids of the joints or members listed, each once, in id order, at most the report's limit
-  const idsBy = (list: readonly number[], rankOf: Int32Array, prefix: string): string[] => {
+  const idsBy = (list: ArrayLike<number>, rankOf: Int32Array, prefix: string): string[] => {
     const ranks = new Int32Array(list.length);
     for (let p = 0; p < list.length; p++) ranks[p] = rankOf[list[p]];
     ranks.sort();
@@ -466,8 +466,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     }
     return out;
   };
-  const jointIdsOf = (list: readonly number[]) => idsBy(list, rank, 'j');
-  const memberIdsOf = (list: readonly number[]) => idsBy(list, mRank, 'm');
+  const jointIdsOf = (list: ArrayLike<number>) => idsBy(list, rank, 'j');
+  const memberIdsOf = (list: ArrayLike<number>) => idsBy(list, mRank, 'm');
   if (h.merged.count > 0) {
     entry({
       kind: 'merged-endpoints',
@@ -505,7 +505,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
       message: `split ${plural(h.splits.members, 'member')} at ${plural(h.splits.cuts, 'joint')} lying on ${h.splits.members === 1 ? 'it' : 'them'}`,
       joints: jointIdsOf(h.splits.joints),
       members: memberIdsOf(h.splits.pieces),
-      points: h.splits.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).map((j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
+      points: Array.from(h.splits.joints.subarray(0, DXF_REPORT_MAX_LOCATIONS), (j) => ({ x: h.joints[2 * j], y: h.joints[2 * j + 1] })),
     });
   }
   if (h.overlaps.count > 0) {
