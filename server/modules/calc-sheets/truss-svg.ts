@@ -371,12 +371,25 @@ function forceLabel(f: JointForce, kind: 'member' | 'other', fmt: (kN: number) =
 }
 
 /**
+ * Moves a 12 px label's anchor point so the whole label stays inside a figure `width` wide
+ * (its width estimated from Inter's average figure and letter advance, about 0.56 em).
+ */
+function clampLabel(x: number, anchor: 'start' | 'middle' | 'end', text: string, width: number): number {
+  const w = text.length * 6.7;
+  const margin = 3;
+  const left = anchor === 'start' ? x : anchor === 'end' ? x - w : x - w / 2;
+  const shift = Math.max(margin - left, Math.min(0, width - margin - (left + w)));
+  return x + shift;
+}
+
+/**
  * A joint's free-body diagram: the joint, a stub of each member with its force arrow (unknowns
  * drawn as tension, away from the joint; known forces in their actual sense), and loads and
  * reactions as arrows onto the joint, each labelled.
  */
 export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
-  const W = 360;
+  // Wide enough for "AB = 123.45 kN (C)" beyond a horizontal member's stub on either side.
+  const W = 420;
   const H = 250;
   const cx = W / 2;
   const cy = H / 2;
@@ -423,9 +436,11 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
         out.push(`<line x1="${f1(cx + ux * tailD)}" y1="${f1(cy + uy * tailD)}" x2="${f1(cx + ux * (tipD - dir * 8))}" y2="${f1(cy + uy * (tipD - dir * 8))}" stroke="${st.stroke}" stroke-width="2"${dash}/>`);
         out.push(arrowHead(cx + ux * tipD, cy + uy * tipD, ux * dir, uy * dir, 10, st.stroke));
       }
+      const text = forceLabel(f, 'member', options.formatForce, options.zeroTolerance);
+      const style = `font-size="12" font-weight="${unknown ? 700 : 500}" fill="${unknown ? INK : st.ink}" class="tnum"`;
       const [lx, ly] = place(cx + ux * (len + 6), cy + uy * (len + 6) + 4);
       const anchor = ux > 0.3 ? 'start' : ux < -0.3 ? 'end' : 'middle';
-      labels.push(haloText(lx, ly + (uy > 0.5 ? 8 : uy < -0.5 ? -2 : 0), forceLabel(f, 'member', options.formatForce, options.zeroTolerance), `text-anchor="${anchor}" font-size="12" font-weight="${unknown ? 700 : 500}" fill="${unknown ? INK : st.ink}" class="tnum"`));
+      labels.push(haloText(clampLabel(lx, anchor, text, W), ly + (uy > 0.5 ? 8 : uy < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" ${style}`));
     } else {
       if (f.value !== null && Math.abs(f.value) <= 1e-12) continue;
       const sign = f.value !== null && f.value < 0 ? -1 : 1;
@@ -455,7 +470,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
       const anchor = ax > 0.3 ? 'start' : ax < -0.3 ? 'end' : 'middle';
       const ay = side * dy;
       const text = f.ref.type === 'load' ? `P = ${options.formatForce(Math.abs(f.value ?? 0))}` : forceLabel(f, 'other', options.formatForce, options.zeroTolerance);
-      labels.push(haloText(lx, ly + (ay > 0.5 ? 8 : ay < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
+      labels.push(haloText(clampLabel(lx, anchor, text, W), ly + (ay > 0.5 ? 8 : ay < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
     }
   }
   out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="#fff" stroke="${INK}" stroke-width="2"/>`);
