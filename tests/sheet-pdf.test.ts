@@ -18,7 +18,7 @@ const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const SLOW = 180_000; // printing on a shared 2-core machine; speed is measured in bench/sheet.bench.ts
 
 // Parallel-chord Pratt, n = 6 panels of a = 3 m, depth h = 4 m, P = 10 kN at L1…L5 (demo truss).
-// Closed forms by the method of sections (REFERENCES.md §3.3; Hibbeler, Structural Analysis,
+// Closed forms by the method of sections (Hibbeler, Structural Analysis,
 // method of sections): R = (n − 1)P/2; mid-span top chord −M/h with M = P·a·n²/8.
 const n = 6;
 const a = 3;

@@ -8,7 +8,7 @@ import { renderCalcSheetHtml, cssString } from '../server/modules/calc-sheets/ca
 
 // Parallel-chord Pratt truss, n panels of a, depth h, P at each interior bottom joint.
 // Closed forms by the method of sections (Hibbeler, Structural Analysis, ch. 3, method of
-// sections; REFERENCES.md §3.3): R = (n − 1)P/2 at each end; the top chord cut opposite the
+// sections): R = (n − 1)P/2 at each end; the top chord cut opposite the
 // mid-span joint carries −M_mid/h with M_mid = P·a·n²/8.
 const n = 6;
 const a = 3;
@@ -48,7 +48,7 @@ describe('calc sheet view', () => {
     expect(row?.cells[3]).toBe(numberFormat(topChordMid, 2)); // "−33.75" with U+2212
     expect(row?.cells[4]).toBe('(C)');
     const bottom = view.cases[0].forceRows.find((r) => r.cells[0] === 'L0L1');
-    // End bottom chord of a Pratt under vertical load carries nothing (REFERENCES.md §3.3 table).
+    // End bottom chord of a Pratt under vertical load carries nothing (method of joints at the bearing: the post is collinear with the reaction).
     expect(bottom?.cells[3]).toBe('0.00');
     expect(bottom?.cls).toBe('zero');
   });
