@@ -10,6 +10,7 @@ import { initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
 import { seedDemo } from './seed/demo';
+import { runsFailInterrupted } from './modules/runs/runs.service';
 import { localFileStore } from './storage/file-store';
 
 export interface Services extends CreatedApp {
@@ -38,6 +39,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
   await migrate(sequelize);
   initModels(sequelize);
   fs.mkdirSync(config.uploadsDir, { recursive: true });
+  await runsFailInterrupted();
   if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
 
   const sink = config.smtpUrl ? undefined : await startSmtpSink();

@@ -77,3 +77,9 @@ export async function currentModelVersion(trussId: number): Promise<number | nul
   const record = await TrussModelRecord.findByPk(trussId, { attributes: ['version'] });
   return record ? record.version : null;
 }
+
+/** Marks every queued or running run failed; returns how many there were. */
+export async function failUnfinishedRuns(values: { error: string; finishedAt: Date; progress: string }): Promise<number> {
+  const [count] = await AnalysisRun.update({ status: 'failed', ...values }, { where: { status: ['queued', 'running'] } });
+  return count;
+}

@@ -167,3 +167,16 @@ export async function getForcesCsv(runId: number): Promise<{ csv: string; fileNa
   const csv = forcesCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
   return { csv, fileName: `truss-${row.trussId}-run-${row.id}-member-forces.csv` };
 }
+
+/**
+ * Runs that were queued or solving when the server last stopped can never finish: their worker
+ * went with the process. Called once at start-up (one server process per SQLite file), it marks
+ * them failed with a message that says to run again, so no run spins forever in the list.
+ */
+export async function runsFailInterrupted(now = new Date()): Promise<number> {
+  const error = JSON.stringify({
+    code: 'server-restarted',
+    message: 'The server stopped before this run finished. Run the analysis again.',
+  });
+  return repo.failUnfinishedRuns({ error, finishedAt: now, progress: progress('done', 1) });
+}
