@@ -53,8 +53,8 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     }
     row[i] = r;
   }
-  // rows in turn, left to right, top first
-  sortIndicesByBits(byY, downBits);
+  // rows in turn, left to right, top first: byY is already in (top first, then left) order, so
+  // one stable sort by x gives left to right, then top first, without sorting by height again
   sortIndicesByBits(byY, xBits);
   sortIndicesByInt(byY, row);
   return byY;
