@@ -129,10 +129,17 @@ function defaultTolerance(diagonal: number): number {
 
 /** Segments as x1, y1, x2, y2 on a doubling typed array, with a layer index and arc flag each. */
 class Growable {
-  data = new Float64Array(4096);
-  layer = new Int32Array(1024);
-  bulged = new Uint8Array(1024);
+  data: Float64Array;
+  layer: Int32Array;
+  bulged: Uint8Array;
   length = 0;
+  /** `expected` segments fit without growing: one allocation each instead of a doubling series. */
+  constructor(expected: number) {
+    const n = Math.max(1024, expected);
+    this.data = new Float64Array(4 * n);
+    this.layer = new Int32Array(n);
+    this.bulged = new Uint8Array(n);
+  }
   push4(a: number, b: number, c: number, d: number): void {
     if (this.length + 4 > this.data.length) {
       const bigger = new Float64Array(this.data.length * 2);
@@ -308,7 +315,8 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   }
 
   // ---- explode, in metres
-  const segs = new Growable();
+  // dxfLayers counted the very segments the explosion below yields, so the lists never grow
+  const segs = new Growable(segOnChosen);
   const layerIndex = new Map<string, number>();
   const layerNames: string[] = [];
   const texts: ExplodedText[] = [];
