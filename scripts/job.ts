@@ -21,7 +21,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { z } from 'zod';
 import type { TrussModel } from '@shared/model/truss';
-import { dxfImport, dxfParseBytes } from '@shared/dxf-import/index';
+import { dxfImport, dxfParseBytes, tagOfIndex } from '@shared/dxf-import/index';
 
 /** Bad input in a job file: the message names the field or the item and what to do. */
 export class JobError extends Error {
@@ -66,18 +66,6 @@ export type Job = z.infer<typeof jobSchema>;
 const METRES_PER_UNIT = { m: 1, mm: 0.001, cm: 0.01, in: 0.0254, ft: 0.3048 } as const;
 const DEFAULT_TOLERANCE = 0.001;
 
-/** A, B, …, Z, AA, AB, … */
-function letterTag(i: number): string {
-  let s = '';
-  let n = i + 1;
-  while (n > 0) {
-    const r = (n - 1) % 26;
-    s = String.fromCharCode(65 + r) + s;
-    n = Math.floor((n - 1) / 26);
-  }
-  return s;
-}
-
 function geometryOf(job: Job, jobDir: string): { joints: TrussModel['joints']; members: TrussModel['members']; tolerance: number } {
   if (job.drawing) {
     if (job.joints || job.members) throw new JobError('Give either "drawing" or inline "joints" and "members", not both.');
@@ -105,7 +93,7 @@ function geometryOf(job: Job, jobDir: string): { joints: TrussModel['joints']; m
   if (!job.joints || !job.members) throw new JobError('The job needs "drawing" (a DXF path) or inline "joints" [[x, y], …] and "members" [[i, j], …].');
   if (job.layers) throw new JobError('"layers" applies to a drawing only; remove it or give "drawing".');
   const f = METRES_PER_UNIT[job.units ?? 'm'];
-  const tags = job.joints.map((_, i) => letterTag(i));
+  const tags = job.joints.map((_, i) => tagOfIndex(i));
   const joints = job.joints.map(([x, y], i) => ({ id: tags[i], tag: tags[i], x: x * f, y: y * f }));
   const members = job.members.map(([a, b], k) => {
     for (const i of [a, b]) {
