@@ -3,13 +3,15 @@ import type { Joint } from '@shared/model/truss';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
 import { healSegments, quickMedian, type HealResult } from './heal';
-import { dxfLayers, dxfOf } from './layers';
+import { dxfOf, LayerTally } from './layers';
 import { sortIndicesByInt } from './sort';
 import { assignTags, memberTagOf, readingOrder } from './tags';
 import {
   DXF_REPORT_MAX_LOCATIONS,
   dxfImportOptionsSchema,
   type DxfImportOptions,
+  type DxfGeometry,
+  type DxfGeometryResult,
   type DxfImportResult,
   type DxfLengthUnit,
   type DxfMember,
@@ -161,6 +163,19 @@ class Growable {
     this.data[o + 3] = d;
     this.length += 4;
   }
+  /** Drops, in place and in order, the segments whose layer index is not marked in `keep`. */
+  keepLayers(keep: Uint8Array): void {
+    const n = this.length / 4;
+    let m = 0;
+    for (let i = 0; i < n; i++) {
+      if (!keep[this.layer[i]]) continue;
+      for (let c = 0; c < 4; c++) this.data[4 * m + c] = this.data[4 * i + c];
+      this.layer[m] = this.layer[i];
+      this.bulged[m] = this.bulged[i];
+      m++;
+    }
+    this.length = 4 * m;
+  }
 }
 
 function pushLimited<T>(list: T[], ...items: T[]): void {
@@ -168,23 +183,23 @@ function pushLimited<T>(list: T[], ...items: T[]): void {
 }
 
 /**
- * The healed geometry as the truss model: joints in reading order with tags, members ordered
- * by their joints. In a function of its own so that it is optimised as a whole (V8).
+ * The healed geometry in id order: joints in reading order with tags, members ordered by
+ * their joints, as columns. In a function of its own so that it is optimised as a whole (V8).
  */
-function modelOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: string[], segLayer: Int32Array) {
+function geometryOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: string[], segLayer: Int32Array) {
   const J = h.joints.length / 2;
   const M = h.members.length / 2;
   const order = readingOrder(h.joints, tol);
   const tagResult = assignTags(h.joints, texts, order, tol);
   const rank = new Int32Array(J);
   for (let r = 0; r < J; r++) rank[order[r]] = r;
-  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
-  const jointIds: string[] = [];
-  for (let r = 0; r < J; r++) jointIds.push(`j${r + 1}`);
-  const joints: Joint[] = [];
+  const jointXY = new Float64Array(2 * J);
+  const jointTags: string[] = [];
   for (let r = 0; r < J; r++) {
     const j = order[r];
-    joints.push({ id: jointIds[r], tag: tagResult.tags[j], x: h.joints[2 * j], y: h.joints[2 * j + 1] });
+    jointXY[2 * r] = h.joints[2 * j];
+    jointXY[2 * r + 1] = h.joints[2 * j + 1];
+    jointTags.push(tagResult.tags[j]);
   }
   // members by their earlier joint, then their later one (stable counting sorts, last key first)
   const early = new Int32Array(M);
@@ -197,30 +212,42 @@ function modelOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: 
   }
   const mOrder = new Int32Array(M);
   for (let i = 0; i < M; i++) mOrder[i] = i;
-  sortIndicesByInt(mOrder, late);
-  sortIndicesByInt(mOrder, early);
+  sortIndicesByInt(mOrder, late, J);
+  sortIndicesByInt(mOrder, early, J);
   const mRank = new Int32Array(M);
-  for (let r = 0; r < M; r++) mRank[mOrder[r]] = r;
-  const members: DxfMember[] = [];
+  const memberEnds = new Int32Array(2 * M);
+  const memberLayer = new Int32Array(M);
   for (let r = 0; r < M; r++) {
     const i = mOrder[r];
-    let a = h.members[2 * i];
-    let b = h.members[2 * i + 1];
-    if (rank[b] < rank[a]) {
-      const t = a;
-      a = b;
-      b = t;
-    }
-    members.push({
-      id: `m${r + 1}`,
-      tag: memberTagOf(tagResult.tags[a], tagResult.tags[b]),
-      from: jointIds[rank[a]],
-      to: jointIds[rank[b]],
-      layer: layerNames[segLayer[h.memberSource[i]]],
-    });
+    mRank[i] = r;
+    memberEnds[2 * r] = early[i];
+    memberEnds[2 * r + 1] = late[i];
+    memberLayer[r] = segLayer[h.memberSource[i]];
   }
+  const geometry: DxfGeometry = { jointXY, jointTags, memberEnds, memberLayer, layerNames };
+  return { tagResult, rank, mRank, geometry };
+}
 
-  return { tagResult, rank, mRank, joints, members };
+/**
+ * The truss model's joints and members of an imported geometry: one object each, ids 'j1'…
+ * and 'm1'…, member tags from their joints' tags.
+ */
+export function dxfModelOf(geometry: DxfGeometry): { joints: Joint[]; members: DxfMember[] } {
+  const { jointXY, jointTags, memberEnds, memberLayer, layerNames } = geometry;
+  const J = jointTags.length;
+  const M = memberLayer.length;
+  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
+  const jointIds: string[] = [];
+  for (let r = 0; r < J; r++) jointIds.push(`j${r + 1}`);
+  const joints: Joint[] = [];
+  for (let r = 0; r < J; r++) joints.push({ id: jointIds[r], tag: jointTags[r], x: jointXY[2 * r], y: jointXY[2 * r + 1] });
+  const members: DxfMember[] = [];
+  for (let r = 0; r < M; r++) {
+    const a = memberEnds[2 * r];
+    const b = memberEnds[2 * r + 1];
+    members.push({ id: `m${r + 1}`, tag: memberTagOf(jointTags[a], jointTags[b]), from: jointIds[a], to: jointIds[b], layer: layerNames[memberLayer[r]] });
+  }
+  return { joints, members };
 }
 
 /**
@@ -243,7 +270,7 @@ function modelOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: 
  *   origin), 'tolerance-too-large' (tolerance over half the typical member length),
  *   'block-problem' (self-referencing or too deeply nested blocks).
  */
-export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfImportResult {
+export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfGeometryResult {
   const opt = dxfImportOptionsSchema.safeParse(options ?? {});
   if (!opt.success) {
     const first = opt.error.issues[0];
@@ -286,8 +313,75 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   }
   const k = units.metresPerUnit;
 
+  // ---- explode, in metres, every layer at once: the layers are listed in the same walk
+  const tally = new LayerTally(dxf);
+  const segs = new Growable(Array.isArray(dxf.entities) ? dxf.entities.length : 0);
+  const layerIndex = new Map<string, number>();
+  const layerNames: string[] = [];
+  const texts: ExplodedText[] = [];
+  const ignored = new Map<string, { type: string; reason: string; count: number; layers: Set<string>; points: DxfPoint[] }>();
+  const ignore = (type: string, reason: string, layer: string, x: number | null, y: number | null) => {
+    const key = `${type}\u0000${reason}`;
+    let g = ignored.get(key);
+    if (!g) {
+      g = { type, reason, count: 0, layers: new Set(), points: [] };
+      ignored.set(key, g);
+    }
+    g.count++;
+    g.layers.add(layer);
+    if (x !== null && y !== null && Number.isFinite(x) && Number.isFinite(y)) pushLimited(g.points, { x, y });
+  };
+  // the first segment of each layer with a coordinate that is not a number or too far out:
+  // an error only if that layer is chosen, which is known after the walk
+  const badOfLayer = new Map<number, { entity: object; layer: string; v: number[]; seq: number }>();
+  let seq = 0;
+  // segments come in long runs on one layer: remember the last layer's index
+  let lastLayer: string | null = null;
+  let lastIndex = -1;
+  explodeDrawing(dxf, [k, 0, 0, k, 0, 0], {
+    segment(layer, x1, y1, x2, y2, entity, bulged) {
+      tally.segment(layer);
+      seq++;
+      if (layer !== lastLayer) {
+        lastLayer = layer;
+        let li = layerIndex.get(layer);
+        if (li === undefined) {
+          li = layerNames.length;
+          layerNames.push(layer);
+          layerIndex.set(layer, li);
+        }
+        lastIndex = li;
+      }
+      if (
+        !(Math.abs(x1) <= DXF_MAX_COORDINATE_M && Math.abs(y1) <= DXF_MAX_COORDINATE_M && Math.abs(x2) <= DXF_MAX_COORDINATE_M && Math.abs(y2) <= DXF_MAX_COORDINATE_M)
+      ) {
+        if (!badOfLayer.has(lastIndex)) badOfLayer.set(lastIndex, { entity, layer, v: [x1, y1, x2, y2], seq });
+        return;
+      }
+      const at = segs.length / 4;
+      segs.push4(x1, y1, x2, y2);
+      segs.layer[at] = lastIndex;
+      segs.bulged[at] = bulged ? 1 : 0;
+    },
+    text(t) {
+      if (Math.abs(t.x) <= DXF_MAX_COORDINATE_M && Math.abs(t.y) <= DXF_MAX_COORDINATE_M && Number.isFinite(t.height)) texts.push(t);
+      else ignore(t.type, 'no usable position', t.layer, null, null);
+    },
+    entity(type, layer) {
+      tally.entity(type, layer);
+    },
+    ignored(type, reason, layer, x, y) {
+      ignore(type, reason, layer, x, y);
+    },
+  });
+  for (const [type, perLayer] of Object.entries(unread)) {
+    for (const [layer, n] of Object.entries(perLayer)) {
+      for (let i = 0; i < n; i++) ignore(type, 'not read by the DXF reader', layer, null, null);
+    }
+  }
+  const layerInfo = tally.finish(unread);
+
   // ---- layers
-  const layerInfo = dxfLayers(dxf);
   const lineLayers = layerInfo.filter((l) => l.holdsLines).map((l) => l.name);
   let chosen: string[];
   if (o.layers) {
@@ -313,75 +407,19 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
     }
     throw new DxfImportError('no-lines', `There are no lines or polylines on the chosen layer${chosen.length === 1 ? '' : 's'} ${chosen.map((c) => `"${c}"`).join(', ')}. Layers holding lines: ${lineLayers.map((c) => `"${c}"`).join(', ')}; choose from those.`);
   }
-
-  // ---- explode, in metres
-  // dxfLayers counted the very segments the explosion below yields, so the lists never grow
-  const segs = new Growable(segOnChosen);
-  const layerIndex = new Map<string, number>();
-  const layerNames: string[] = [];
-  const texts: ExplodedText[] = [];
-  const ignored = new Map<string, { type: string; reason: string; count: number; layers: Set<string>; points: DxfPoint[] }>();
-  const ignore = (type: string, reason: string, layer: string, x: number | null, y: number | null) => {
-    const key = `${type}\u0000${reason}`;
-    let g = ignored.get(key);
-    if (!g) {
-      g = { type, reason, count: 0, layers: new Set(), points: [] };
-      ignored.set(key, g);
+  const chosenIndex = new Uint8Array(layerNames.length);
+  for (let li = 0; li < layerNames.length; li++) chosenIndex[li] = chosenSet.has(layerNames[li]) ? 1 : 0;
+  // the first such segment met in the drawing, of those on chosen layers
+  const firstBad = [...badOfLayer.entries()].filter(([li]) => chosenIndex[li]).sort((p, q) => p[1].seq - q[1].seq)[0];
+  if (firstBad) {
+    const b = firstBad[1];
+    if (b.v.some((c) => !Number.isFinite(c))) {
+      throw new DxfImportError('bad-coordinate', `The ${describeEntity(b.entity, b.layer)} has a coordinate that is not a number. Fix or delete it in your CAD program and upload again.`);
     }
-    g.count++;
-    g.layers.add(layer);
-    if (x !== null && y !== null && Number.isFinite(x) && Number.isFinite(y)) pushLimited(g.points, { x, y });
-  };
-  const bad = (entity: object, layer: string, x1: number, y1: number, x2: number, y2: number) => {
-    const v = [x1, y1, x2, y2];
-    if (v.some((c) => !Number.isFinite(c))) {
-      throw new DxfImportError('bad-coordinate', `The ${describeEntity(entity, layer)} has a coordinate that is not a number. Fix or delete it in your CAD program and upload again.`);
-    }
-    const far = Math.max(...v.map(Math.abs));
-    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(entity, layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
-  };
-  // segments come in long runs on one layer: remember the last layer's answers
-  let lastLayer: string | null = null;
-  let lastChosen = false;
-  let lastIndex = -1;
-  explodeDrawing(dxf, [k, 0, 0, k, 0, 0], {
-    segment(layer, x1, y1, x2, y2, entity, bulged) {
-      if (layer !== lastLayer) {
-        lastLayer = layer;
-        lastChosen = chosenSet.has(layer);
-        let li = layerIndex.get(layer);
-        if (lastChosen && li === undefined) {
-          li = layerNames.length;
-          layerNames.push(layer);
-          layerIndex.set(layer, li);
-        }
-        lastIndex = li ?? -1;
-      }
-      if (!lastChosen) return;
-      if (
-        !(Math.abs(x1) <= DXF_MAX_COORDINATE_M && Math.abs(y1) <= DXF_MAX_COORDINATE_M && Math.abs(x2) <= DXF_MAX_COORDINATE_M && Math.abs(y2) <= DXF_MAX_COORDINATE_M)
-      ) {
-        bad(entity, layer, x1, y1, x2, y2);
-      }
-      const at = segs.length / 4;
-      segs.push4(x1, y1, x2, y2);
-      segs.layer[at] = lastIndex;
-      segs.bulged[at] = bulged ? 1 : 0;
-    },
-    text(t) {
-      if (Math.abs(t.x) <= DXF_MAX_COORDINATE_M && Math.abs(t.y) <= DXF_MAX_COORDINATE_M && Number.isFinite(t.height)) texts.push(t);
-      else ignore(t.type, 'no usable position', t.layer, null, null);
-    },
-    entity() {},
-    ignored(type, reason, layer, x, y) {
-      ignore(type, reason, layer, x, y);
-    },
-  });
-  for (const [type, perLayer] of Object.entries(unread)) {
-    for (const [layer, n] of Object.entries(perLayer)) {
-      for (let i = 0; i < n; i++) ignore(type, 'not read by the DXF reader', layer, null, null);
-    }
+    const far = Math.max(...b.v.map(Math.abs));
+    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(b.entity, b.layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
   }
+  if (chosen.length < lineLayers.length) segs.keepLayers(chosenIndex);
   const n = segs.length / 4;
   const seg = segs.data.subarray(0, segs.length);
   const segLayer = segs.layer;
@@ -439,7 +477,7 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   const M = h.members.length / 2;
 
   // ---- tags, order, ids
-  const { tagResult, rank, mRank, joints, members } = modelOf(h, texts, tol, layerNames, segLayer);
+  const { tagResult, rank, mRank, geometry } = geometryOf(h, texts, tol, layerNames, segLayer);
 
   // ---- report
   const layerUsed = new Uint8Array(layerNames.length);
@@ -615,12 +653,20 @@ export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = 
   }
 
   return {
-    joints,
-    members,
+    geometry,
     units,
     tolerance: { value: tol, source: tolSource },
     extent: { minX, minY, maxX, maxY },
     layers: usedLayers,
     report,
   };
+}
+
+/**
+ * {@link dxfImportGeometry} with the geometry as the truss model's objects: joints
+ * { id, tag, x, y } and members { id, tag, from, to, layer }, the form stored and shown.
+ */
+export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfImportResult {
+  const { geometry, ...rest } = dxfImportGeometry(parsed, options);
+  return { ...dxfModelOf(geometry), ...rest };
 }

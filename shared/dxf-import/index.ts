@@ -15,7 +15,7 @@ export { dxfSniff, dxfDecode, dxfParse, dxfParseBytes, dxfAssertKind } from './p
 export type { DxfFileKind } from './parse';
 export { dxfLayers } from './layers';
 export { tagOfIndex } from './tags';
-export { dxfImport, dxfUnitOf } from './import';
+export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf } from './import';
 export { dxfLengthUnitSchema, dxfImportOptionsSchema, DXF_REPORT_MAX_LOCATIONS } from './types';
 export type {
   DxfLengthUnit,
@@ -28,4 +28,6 @@ export type {
   DxfReportEntry,
   DxfMember,
   DxfImportResult,
+  DxfGeometry,
+  DxfGeometryResult,
 } from './types';

@@ -47,3 +47,16 @@ describe('sortIndicesByInt', () => {
     expect(Array.from(idx)).toEqual(referenceOrder(n, (i) => keys[i]));
   });
 });
+
+describe('sortIndicesByInt with a key range (one counting pass)', () => {
+  it('when keys lie below the range given, then the order is the stable comparator order', () => {
+    const rnd = lcg(5);
+    const n = 6000;
+    const range = 9000;
+    const keys = Int32Array.from({ length: n }, () => Math.floor(rnd() * range));
+    const idx = Int32Array.from({ length: n }, (_, i) => n - 1 - i);
+    sortIndicesByInt(idx, keys, range);
+    const ref = Array.from({ length: n }, (_, i) => n - 1 - i).sort((p, q) => keys[p] - keys[q]);
+    expect(Array.from(idx)).toEqual(ref);
+  });
+});

@@ -14,17 +14,12 @@ const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
  */
 export function sortIndicesByFloat(idx: Int32Array, keys: Float64Array): void {
   if (idx.length < 2) return;
-  sortIndicesByBits(idx, floatSortBits(keys));
+  const { hi, lo } = floatSortBits(keys);
+  radixPasses(idx, [lo, lo, hi, hi], [0, 16, 0, 16]);
 }
 
-/** Order-preserving 64-bit images of float keys (high and low words), for {@link sortIndicesByBits}. */
-export interface FloatSortBits {
-  hi: Uint32Array;
-  lo: Uint32Array;
-}
-
-/** The keys' IEEE-754 bits made order-preserving: computed once when a key sorts several times. */
-export function floatSortBits(keys: Float64Array): FloatSortBits {
+/** The keys' IEEE-754 bits made order-preserving, as high and low words. */
+function floatSortBits(keys: Float64Array): { hi: Uint32Array; lo: Uint32Array } {
   const m = keys.length;
   const f = new Float64Array(1);
   const u = new Uint32Array(f.buffer);
@@ -48,15 +43,16 @@ export function floatSortBits(keys: Float64Array): FloatSortBits {
   return { hi, lo };
 }
 
-/** {@link sortIndicesByFloat} with the keys' bits already made. */
-export function sortIndicesByBits(idx: Int32Array, bits: FloatSortBits): void {
+/**
+ * Sorts `idx` in place, stably, by small non-negative integer keys `keys[idx[p]]` < 2³¹. With
+ * `range` (every key below it, and not much more than there are indices), one counting pass.
+ */
+export function sortIndicesByInt(idx: Int32Array, keys: Int32Array, range?: number): void {
   if (idx.length < 2) return;
-  radixPasses(idx, [bits.lo, bits.lo, bits.hi, bits.hi], [0, 16, 0, 16]);
-}
-
-/** Sorts `idx` in place, stably, by small non-negative integer keys `keys[idx[p]]` < 2³¹. */
-export function sortIndicesByInt(idx: Int32Array, keys: Int32Array): void {
-  if (idx.length < 2) return;
+  if (range !== undefined && range <= 4 * idx.length + 65_536) {
+    countingPass(idx, keys, range);
+    return;
+  }
   const w = new Uint32Array(keys.buffer, keys.byteOffset, keys.length);
   radixPasses(idx, [w, w], [0, 16]);
 }
@@ -80,4 +76,17 @@ function radixPasses(idx: Int32Array, words: Uint32Array[], shifts: number[]): v
     dst = t;
   }
   if (src !== idx) idx.set(src);
+}
+
+function countingPass(idx: Int32Array, keys: Int32Array, range: number): void {
+  const n = idx.length;
+  const start = new Int32Array(range + 1);
+  for (let p = 0; p < n; p++) start[keys[idx[p]] + 1]++;
+  for (let v = 0; v < range; v++) start[v + 1] += start[v];
+  const out = new Int32Array(n);
+  for (let p = 0; p < n; p++) {
+    const i = idx[p];
+    out[start[keys[i]]++] = i;
+  }
+  idx.set(out);
 }

@@ -1,17 +1,34 @@
 import type { ExplodedText } from './explode';
-import { floatSortBits, sortIndicesByBits, sortIndicesByFloat, sortIndicesByInt } from './sort';
+import { sortIndicesByFloat, sortIndicesByInt } from './sort';
 
 /** Spreadsheet-style names: 0 → A, 25 → Z, 26 → AA, 27 → AB, … */
 export function tagOfIndex(i: number): string {
-  let s = '';
+  // bijective base 26, letters least significant first; the string made in one call (an import
+  // names up to 100 000 joints, and a string per letter shows in its time)
+  const c = TAG_CODES;
+  let k = 0;
   let n = i + 1;
   while (n > 0) {
     const r = (n - 1) % 26;
-    s = String.fromCharCode(65 + r) + s;
-    n = Math.floor((n - 1) / 26);
+    c[k++] = 65 + r;
+    n = (n - 1 - r) / 26;
   }
-  return s;
+  switch (k) {
+    case 1:
+      return String.fromCharCode(c[0]);
+    case 2:
+      return String.fromCharCode(c[1], c[0]);
+    case 3:
+      return String.fromCharCode(c[2], c[1], c[0]);
+    case 4:
+      return String.fromCharCode(c[3], c[2], c[1], c[0]);
+    default:
+      return String.fromCharCode(...Array.from(c.subarray(0, k)).reverse());
+  }
 }
+
+/** Scratch for {@link tagOfIndex}: 2⁵³ needs 12 letters. */
+const TAG_CODES = new Uint16Array(16);
 
 /** Member tag from its joints' tags: "BC" when both are one character, else "AA-B". */
 export function memberTagOf(a: string, b: string): string {
@@ -35,13 +52,10 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     xs[i] = xy[2 * i];
     downs[i] = -xy[2 * i + 1];
   }
-  // top to bottom, then left to right (stable sorts: the last key sorted is the first key)
-  const xBits = floatSortBits(xs);
-  const downBits = floatSortBits(downs);
+  // top to bottom; rows only need the heights in order, so ties may stay as they are
   const byY = new Int32Array(n);
   for (let i = 0; i < n; i++) byY[i] = i;
-  sortIndicesByBits(byY, xBits);
-  sortIndicesByBits(byY, downBits);
+  sortIndicesByFloat(byY, downs);
   const row = new Int32Array(n);
   let r = -1;
   let top = Infinity;
@@ -53,10 +67,10 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
     }
     row[i] = r;
   }
-  // rows in turn, left to right, top first: byY is already in (top first, then left) order, so
-  // one stable sort by x gives left to right, then top first, without sorting by height again
-  sortIndicesByBits(byY, xBits);
-  sortIndicesByInt(byY, row);
+  // rows in turn, left to right: a stable sort by x, then by row. Two joints never share both
+  // x and y, so x ties within a row keep byY's top-first order.
+  sortIndicesByFloat(byY, xs);
+  sortIndicesByInt(byY, row, r + 1);
   return byY;
 }
 

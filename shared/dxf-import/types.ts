@@ -108,12 +108,25 @@ export interface DxfReportEntry {
 /** A member as imported: the truss model's member plus the layer it was drawn on. */
 export type DxfMember = Member & { layer: string };
 
-/** The result of {@link dxfImport}: the healed geometry and what was done to it. */
-export interface DxfImportResult {
-  /** Joints in metres, ids 'j1'… in reading order (rows top to bottom, left to right). */
-  joints: Joint[];
-  /** Members, ids 'm1'…, `from` is the joint earlier in tag order. */
-  members: DxfMember[];
+/**
+ * The healed geometry as columns, in id order: joint r is 'j(r + 1)', member r is 'm(r + 1)'.
+ * Typed arrays instead of an object per joint and member: at 100 000 segments building those
+ * objects costs more than all the healing (see bench/import.bench.ts).
+ */
+export interface DxfGeometry {
+  /** Joint coordinates in metres, interleaved x, y, in reading order (rows top to bottom, left to right). */
+  jointXY: Float64Array;
+  /** Tag of each joint. */
+  jointTags: string[];
+  /** Member ends as joint indices, interleaved from, to; `from` is the joint earlier in tag order. */
+  memberEnds: Int32Array;
+  /** Layer of each member, as an index into `layerNames`. */
+  memberLayer: Int32Array;
+  layerNames: string[];
+}
+
+/** What {@link dxfImport} and {@link dxfImportGeometry} say besides the joints and members. */
+export interface DxfImportFacts {
   units: {
     /** The unit the drawing's numbers were read in. */
     name: string;
@@ -130,6 +143,19 @@ export interface DxfImportResult {
   /** Layers members were taken from. */
   layers: string[];
   report: DxfReportEntry[];
+}
+
+/** The result of {@link dxfImportGeometry}: the healed geometry as columns, and what was done to it. */
+export interface DxfGeometryResult extends DxfImportFacts {
+  geometry: DxfGeometry;
+}
+
+/** The result of {@link dxfImport}: the healed geometry as the truss model's objects, and what was done to it. */
+export interface DxfImportResult extends DxfImportFacts {
+  /** Joints in metres, ids 'j1'… in reading order (rows top to bottom, left to right). */
+  joints: Joint[];
+  /** Members, ids 'm1'…, `from` is the joint earlier in tag order. */
+  members: DxfMember[];
 }
 
 /** At most this many points / ids are listed per report entry (its count is always complete). */
