@@ -247,9 +247,10 @@ function pointCells(xy: Float64Array, n: number, take: Uint8Array | null, ids: C
 }
 
 /**
- * Appends to `out`, as gx, gy pairs, every grid cell that comes within `pad` of the segment:
- * a sweep over the columns it spans, each taking the rows covered by its piece in that column
- * (widened by `pad`). Each cell once, so callers need no duplicate check.
+ * Appends to `out`, as gx, gy pairs, every grid cell that comes within `pad` of the segment,
+ * and for short segments a few more: a sweep over the columns it spans, each taking the rows
+ * covered by its piece in that column (widened by `pad`). Each cell once, so callers need no
+ * duplicate check.
  */
 function segmentCells(out: IntList, cell: number, ox: number, oy: number, x1: number, y1: number, x2: number, y2: number, pad: number): void {
   if (x2 < x1) {
@@ -262,6 +263,22 @@ function segmentCells(out: IntList, cell: number, ox: number, oy: number, x1: nu
   }
   const gxa = Math.floor((x1 - pad - ox) / cell);
   const gxb = Math.floor((x2 + pad - ox) / cell);
+  const ylo = y1 < y2 ? y1 : y2;
+  const yhi = y1 < y2 ? y2 : y1;
+  const gyBoxA = Math.floor((ylo - pad - oy) / cell);
+  const gyBoxB = Math.floor((yhi + pad - oy) / cell);
+  // most members are short: when the padded box spans at most two columns or two rows, take
+  // all its cells (at most twice those the member comes near; callers test exactly) and skip
+  // following the slope
+  if (gxb - gxa <= 1 || gyBoxB - gyBoxA <= 1) {
+    for (let gx = gxa; gx <= gxb; gx++) {
+      for (let gy = gyBoxA; gy <= gyBoxB; gy++) {
+        out.push(gx);
+        out.push(gy);
+      }
+    }
+    return;
+  }
   const dx = x2 - x1;
   const slope = dx > 0 ? (y2 - y1) / dx : 0;
   for (let gx = gxa; gx <= gxb; gx++) {
@@ -378,22 +395,27 @@ function sortCuts(cutT: Float64Array, cutJ: Int32Array, from: number, to: number
 
 /**
  * Step 1 of healing: joins (union-find on `parent`) endpoints within tol of each other. Points
- * sorted by column (width ≥ tol), then by y, so near pairs lie in one column or the next and
- * within tol in y: a sweep over sorted lists, no hashing.
+ * sorted by column, then by row (rows tol high, columns at least tol wide), so near pairs lie
+ * in one column or the next and one row or the next: a sweep over sorted lists, no hashing.
  */
-function clusterEndpoints(seg: Float64Array, P: number, parent: Int32Array, tol: number, pcell: number, ox: number): void {
+function clusterEndpoints(seg: Float64Array, P: number, parent: Int32Array, tol: number, frame: { ox: number; oy: number; width: number; height: number }): void {
   const tol2 = tol * tol;
-  const ys = new Float64Array(P);
+  // about one column per point, so that one counting pass sorts by column; rows by two passes.
+  // A little wider than tol, so that rounding cannot put a pair exactly tol apart two apart.
+  const reach = tol * (1 + 1e-6);
+  const colW = Math.max(reach, frame.width / Math.max(1, P));
+  const rowH = Math.max(reach, frame.height / 2 ** 30);
+  const nCols = Math.floor(frame.width / colW) + 3;
   const col = new Int32Array(P);
+  const row = new Int32Array(P);
   const byCol = new Int32Array(P);
   for (let k = 0; k < P; k++) {
-    ys[k] = seg[2 * k + 1];
-    col[k] = Math.floor((seg[2 * k] - ox) / pcell);
+    col[k] = Math.floor((seg[2 * k] - frame.ox) / colW);
+    row[k] = Math.floor((seg[2 * k + 1] - frame.oy) / rowH);
     byCol[k] = k;
   }
-  sortIndicesByFloat(byCol, ys);
-  sortIndicesByInt(byCol, col);
-  const reach = tol * (1 + 1e-9); // a little wider than tol: joinIfNear decides
+  sortIndicesByInt(byCol, row);
+  sortIndicesByInt(byCol, col, nCols);
   for (let s = 0; s < P; ) {
     const g = col[byCol[s]];
     let e = s;
@@ -403,10 +425,10 @@ function clusterEndpoints(seg: Float64Array, P: number, parent: Int32Array, tol:
     let lo = e;
     for (let p = s; p < e; p++) {
       const k = byCol[p];
-      const y = ys[k];
-      for (let q = p + 1; q < e && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
-      while (lo < e2 && ys[byCol[lo]] < y - reach) lo++;
-      for (let q = lo; q < e2 && ys[byCol[q]] - y <= reach; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
+      const r = row[k];
+      for (let q = p + 1; q < e && row[byCol[q]] <= r + 1; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
+      while (lo < e2 && row[byCol[lo]] < r - 1) lo++;
+      for (let q = lo; q < e2 && row[byCol[q]] <= r + 1; q++) joinIfNear(seg, parent, tol2, k, byCol[q]);
     }
     s = e;
   }
@@ -715,14 +737,13 @@ export function healSegments(seg: Float64Array, n: number, tol: number): HealRes
   const ox = minX - tol;
   const oy = minY - tol;
 
-  // ---- 1. cluster endpoints within tol: points sorted by column (width ≥ tol), then by y, so
-  // near pairs lie in one column or the next and within tol in y: a sweep over sorted lists,
-  // no hashing. Union-find makes the clusters transitive.
+  // ---- 1. cluster endpoints within tol: points sorted by column, then by row (both at least
+  // tol across), so near pairs lie in neighbouring columns and rows: a sweep over sorted
+  // lists, no hashing. Union-find makes the clusters transitive.
   const P = 2 * n;
-  const pcell = Math.max(tol, span / 2 ** 24);
   const parent = new Int32Array(P);
   for (let k = 0; k < P; k++) parent[k] = k;
-  clusterEndpoints(seg, P, parent, tol, pcell, ox);
+  clusterEndpoints(seg, P, parent, tol, { ox, oy, width: maxX - ox + tol, height: maxY - oy + tol });
   // clusters → joints, numbered by their first endpoint (counting sort of points by joint)
   const { J, pointJoint, joints: clustered, merged } = jointsOfClusters(seg, P, parent);
   let joints = clustered;

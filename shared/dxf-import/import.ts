@@ -5,7 +5,7 @@ import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
 import { healSegments, quickMedian, type HealResult } from './heal';
 import { dxfOf, LayerTally } from './layers';
 import { sortIndicesByInt } from './sort';
-import { assignTags, memberTagOf, readingOrder } from './tags';
+import { assignTags, jointTagsInOrder, memberTagOf, readingOrder } from './tags';
 import {
   DXF_REPORT_MAX_LOCATIONS,
   dxfImportOptionsSchema,
@@ -190,17 +190,17 @@ function geometryOf(h: HealResult, texts: ExplodedText[], tol: number, layerName
   const J = h.joints.length / 2;
   const M = h.members.length / 2;
   const order = readingOrder(h.joints, tol);
-  const tagResult = assignTags(h.joints, texts, order, tol);
+  const tagResult = assignTags(h.joints, texts, tol);
   const rank = new Int32Array(J);
   for (let r = 0; r < J; r++) rank[order[r]] = r;
   const jointXY = new Float64Array(2 * J);
-  const jointTags: string[] = [];
   for (let r = 0; r < J; r++) {
     const j = order[r];
     jointXY[2 * r] = h.joints[2 * j];
     jointXY[2 * r + 1] = h.joints[2 * j + 1];
-    jointTags.push(tagResult.tags[j]);
   }
+  const textTags = new Map<number, string>();
+  for (const [j, tag] of tagResult.textTags) textTags.set(rank[j], tag);
   // members by their earlier joint, then their later one (stable counting sorts, last key first)
   const early = new Int32Array(M);
   const late = new Int32Array(M);
@@ -224,7 +224,7 @@ function geometryOf(h: HealResult, texts: ExplodedText[], tol: number, layerName
     memberEnds[2 * r + 1] = late[i];
     memberLayer[r] = segLayer[h.memberSource[i]];
   }
-  const geometry: DxfGeometry = { jointXY, jointTags, memberEnds, memberLayer, layerNames };
+  const geometry: DxfGeometry = { jointXY, textTags, memberEnds, memberLayer, layerNames };
   return { tagResult, rank, mRank, geometry };
 }
 
@@ -233,8 +233,9 @@ function geometryOf(h: HealResult, texts: ExplodedText[], tol: number, layerName
  * and 'm1'…, member tags from their joints' tags.
  */
 export function dxfModelOf(geometry: DxfGeometry): { joints: Joint[]; members: DxfMember[] } {
-  const { jointXY, jointTags, memberEnds, memberLayer, layerNames } = geometry;
-  const J = jointTags.length;
+  const { jointXY, memberEnds, memberLayer, layerNames } = geometry;
+  const J = jointXY.length / 2;
+  const jointTags = jointTagsInOrder(J, geometry.textTags);
   const M = memberLayer.length;
   // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
   const jointIds: string[] = [];

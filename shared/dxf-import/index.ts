@@ -14,7 +14,7 @@ export type { DxfImportErrorCode } from './errors';
 export { dxfSniff, dxfDecode, dxfParse, dxfParseBytes, dxfAssertKind } from './parse';
 export type { DxfFileKind } from './parse';
 export { dxfLayers } from './layers';
-export { tagOfIndex } from './tags';
+export { tagOfIndex, jointTagsInOrder } from './tags';
 export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf } from './import';
 export { dxfLengthUnitSchema, dxfImportOptionsSchema, DXF_REPORT_MAX_LOCATIONS } from './types';
 export type {

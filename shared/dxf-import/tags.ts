@@ -75,8 +75,8 @@ export function readingOrder(xy: Float64Array, rowTol: number): Int32Array {
 }
 
 export interface TagResult {
-  /** Tag of each joint (by joint index). */
-  tags: string[];
+  /** Tags taken from texts, by joint index. */
+  textTags: Map<number, string>;
   /** Joints whose tag came from a text. */
   fromText: number[];
   /** Texts not used, with why. */
@@ -84,15 +84,15 @@ export interface TagResult {
 }
 
 /**
- * Gives every joint a tag: a tag-like TEXT/MTEXT whose estimated centre lies within
- * 2.5 text heights plus half its width of a joint names the nearest such joint (closest pairs
- * first, each text and joint used once, a tag string only once); the other joints get A, B, C,
- * … in reading order, skipping strings a text already took.
+ * Tags joints from texts: a tag-like TEXT/MTEXT whose estimated centre lies within 2.5 text
+ * heights plus half its width of a joint names the nearest such joint (closest pairs first,
+ * each text and joint used once, a tag string only once). The other joints are named by
+ * {@link jointTagsInOrder}.
  */
-export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32Array, tol: number): TagResult {
+export function assignTags(xy: Float64Array, texts: ExplodedText[], tol: number): TagResult {
   const n = xy.length / 2;
-  const tags: string[] = [];
-  for (let j = 0; j < n; j++) tags.push(''); // not new Array(n): dictionary mode past 100 000 (V8)
+  // tags taken from texts, by joint; most drawings have none or a few
+  const textTag = new Map<number, string>();
   const fromText: number[] = [];
   const unused: TagResult['unused'] = [];
   // joints sorted by x for range queries (none needed without texts)
@@ -128,13 +128,13 @@ export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32
   const used = new Set<string>();
   const duplicate = new Uint8Array(texts.length);
   for (const p of pairs) {
-    if (textUsed[p.t] || tags[p.j] !== '') continue;
+    if (textUsed[p.t] || textTag.has(p.j)) continue;
     const s = texts[p.t].text;
     if (used.has(s)) {
       duplicate[p.t] = 1;
       continue;
     }
-    tags[p.j] = s;
+    textTag.set(p.j, s);
     used.add(s);
     textUsed[p.t] = 1;
     fromText.push(p.j);
@@ -146,13 +146,28 @@ export function assignTags(xy: Float64Array, texts: ExplodedText[], order: Int32
       reason: !candidate[ti] ? 'not a joint tag' : duplicate[ti] ? 'repeats a tag already used' : 'not near a joint',
     });
   });
-  let next = 0;
-  for (const j of order) {
-    if (tags[j] !== '') continue;
-    let s = tagOfIndex(next++);
-    while (used.has(s)) s = tagOfIndex(next++);
-    tags[j] = s;
-  }
   fromText.sort((a, b) => a - b);
-  return { tags, fromText, unused };
+  return { textTags: textTag, fromText, unused };
+}
+
+/**
+ * Every joint's tag, joints in reading order: the tag a text gave it (`textTags`, by position
+ * in that order), else A, B, C, … in reading order, skipping strings a text already took.
+ */
+export function jointTagsInOrder(count: number, textTags: ReadonlyMap<number, string>): string[] {
+  const taken = new Set(textTags.values());
+  // arrays filled by push: new Array(n) past 100 000 items is a slow dictionary-mode array (V8)
+  const tags: string[] = [];
+  let next = 0;
+  for (let r = 0; r < count; r++) {
+    const t = textTags.size > 0 ? textTags.get(r) : undefined;
+    if (t !== undefined) {
+      tags.push(t);
+      continue;
+    }
+    let s = tagOfIndex(next++);
+    while (taken.size > 0 && taken.has(s)) s = tagOfIndex(next++);
+    tags.push(s);
+  }
+  return tags;
 }

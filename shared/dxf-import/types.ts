@@ -116,8 +116,11 @@ export type DxfMember = Member & { layer: string };
 export interface DxfGeometry {
   /** Joint coordinates in metres, interleaved x, y, in reading order (rows top to bottom, left to right). */
   jointXY: Float64Array;
-  /** Tag of each joint. */
-  jointTags: string[];
+  /**
+   * Tags texts in the drawing gave, by joint index; the other joints are named A, B, C, … in
+   * reading order when the tags are asked for (dxfModelOf, jointTagsInOrder), skipping these.
+   */
+  textTags: Map<number, string>;
   /** Member ends as joint indices, interleaved from, to; `from` is the joint earlier in tag order. */
   memberEnds: Int32Array;
   /** Layer of each member, as an index into `layerNames`. */
