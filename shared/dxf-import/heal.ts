@@ -125,6 +125,16 @@ class DenseCells implements CellMap {
     this.ids = new Int32Array(nx * ny);
   }
 
+  /** Number of cells in the table. */
+  get size(): number {
+    return this.nx * this.ny;
+  }
+
+  /** Index of (gx, gy) in the table; the cell must lie within it. */
+  index(gx: number, gy: number): number {
+    return (gx - this.gx0) * this.ny + gy - this.gy0;
+  }
+
   get(gx: number, gy: number): number {
     const ix = gx - this.gx0;
     const iy = gy - this.gy0;
@@ -522,33 +532,58 @@ function splitMembers(
   const cutM = new IntList(256);
   const cutT = new FloatList(256);
   const cutJ = new IntList(256);
+  const dense = jc.ids instanceof DenseCells ? jc.ids : null;
+  const start = jc.start;
+  const items = jc.items;
+  /** Cuts of member i (a → b) by the joints of cell id, appended to the cut lists. */
+  const cutsInCell = (id: number, i: number, a: number, b: number, ax: number, ay: number, dx: number, dy: number, L: number) => {
+    for (let p = start[id]; p < start[id + 1]; p++) {
+      const j = items[p];
+      if (j === a || j === b) continue;
+      const x = joints[2 * j];
+      const y = joints[2 * j + 1];
+      const along = ((x - ax) * dx + (y - ay) * dy) / L;
+      if (along <= tol || along >= L - tol) continue;
+      const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
+      if (across > tol) continue;
+      cutM.push(i);
+      cutT.push(along / L);
+      cutJ.push(j);
+    }
+  };
   for (let i = 0; i < M; i++) {
     const a = members[2 * i];
     const b = members[2 * i + 1];
     const ax = joints[2 * a];
     const ay = joints[2 * a + 1];
-    const dx = joints[2 * b] - ax;
-    const dy = joints[2 * b + 1] - ay;
+    const bx = joints[2 * b];
+    const by = joints[2 * b + 1];
+    const dx = bx - ax;
+    const dy = by - ay;
     const L = lens[i];
-    cells.length = 0;
-    segmentCells(cells, mcell, ox, oy, ax, ay, ax + dx, ay + dy, pad);
     const first = cutM.length;
+    if (dense !== null) {
+      // on a dense grid, a box two cells wide or high: its cells looked up directly (as segmentCells would list them)
+      const gxa = Math.floor(((ax < bx ? ax : bx) - pad - ox) / mcell);
+      const gxb = Math.floor(((ax < bx ? bx : ax) + pad - ox) / mcell);
+      const gya = Math.floor(((ay < by ? ay : by) - pad - oy) / mcell);
+      const gyb = Math.floor(((ay < by ? by : ay) + pad - oy) / mcell);
+      if (gxb - gxa <= 1 || gyb - gya <= 1) {
+        for (let gx = gxa; gx <= gxb; gx++) {
+          for (let gy = gya; gy <= gyb; gy++) {
+            const id = dense.get(gx, gy);
+            if (id >= 0) cutsInCell(id, i, a, b, ax, ay, dx, dy, L);
+          }
+        }
+        if (cutM.length - first > 1) sortCuts(cutT.data, cutJ.data, first, cutM.length);
+        continue;
+      }
+    }
+    cells.length = 0;
+    segmentCells(cells, mcell, ox, oy, ax, ay, bx, by, pad);
     for (let c = 0; c < cells.length; c += 2) {
       const id = jc.ids.get(cells.data[c], cells.data[c + 1]);
-      if (id < 0) continue;
-      for (let p = jc.start[id]; p < jc.start[id + 1]; p++) {
-        const j = jc.items[p];
-        if (j === a || j === b) continue;
-        const x = joints[2 * j];
-        const y = joints[2 * j + 1];
-        const along = ((x - ax) * dx + (y - ay) * dy) / L;
-        if (along <= tol || along >= L - tol) continue;
-        const across = Math.abs((x - ax) * dy - (y - ay) * dx) / L;
-        if (across > tol) continue;
-        cutM.push(i);
-        cutT.push(along / L);
-        cutJ.push(j);
-      }
+      if (id >= 0) cutsInCell(id, i, a, b, ax, ay, dx, dy, L);
     }
     if (cutM.length - first > 1) sortCuts(cutT.data, cutJ.data, first, cutM.length);
   }
@@ -647,14 +682,21 @@ function findCrossings(joints: Float64Array, members: Int32Array, M: number, tol
   const entCell = new IntList(3 * M);
   const entMember = new IntList(3 * M);
   let C = 0;
+  // on a dense grid a cell's id is its index in the table: no interning
+  const dense = ids instanceof DenseCells ? ids : null;
+  if (dense !== null) C = dense.size;
   for (let i = 0; i < M; i++) {
     const a = members[2 * i];
     const b = members[2 * i + 1];
     cells.length = 0;
     segmentCells(cells, mcell, ox, oy, joints[2 * a], joints[2 * a + 1], joints[2 * b], joints[2 * b + 1], pad);
     for (let c = 0; c < cells.length; c += 2) {
-      const id = ids.intern(cells.data[c], cells.data[c + 1], C);
-      if (id === C) C++;
+      let id: number;
+      if (dense !== null) id = dense.index(cells.data[c], cells.data[c + 1]);
+      else {
+        id = ids.intern(cells.data[c], cells.data[c + 1], C);
+        if (id === C) C++;
+      }
       entCell.push(id);
       entMember.push(i);
     }
