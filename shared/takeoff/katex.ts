@@ -88,7 +88,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
       const b = step.basis === 'slope' ? 'b_{s}' : 'b_{p}';
       const lines = [`w &= q\\,${b} = ${q('q')} \\times ${q('width')} = ${q('w')}`];
       if (step.values.some((v) => v.key === 'qPlan')) {
-        lines.push(`q_{p} &= w / b_{p} = q / \\cos\\theta = ${q('qPlan')} \\quad ${text('(same load per m² of plan)')}`);
+        lines.push(`q_{p} &= w / b_{p} = q / \\cos\\theta = ${q('qPlan')} \\quad ${text('(the same load per unit area of plan)')}`);
       }
       return ['\\begin{aligned}', lines.join(' \\\\\n'), '\\end{aligned}'].join('\n');
     }
