@@ -183,8 +183,8 @@ function pushLimited<T>(list: T[], ...items: T[]): void {
 }
 
 /**
- * The healed geometry in id order: joints in reading order with tags, members ordered by
- * their joints, as columns. In a function of its own so that it is optimised as a whole (V8).
+ * The healed geometry in id order, as columns: joints in reading order (with the tags texts
+ * gave them), members ordered by their joints. In a function of its own so that it is optimised as a whole (V8).
  */
 function geometryOf(h: HealResult, texts: ExplodedText[], tol: number, layerNames: string[], segLayer: Int32Array) {
   const J = h.joints.length / 2;
@@ -253,7 +253,8 @@ export function dxfModelOf(geometry: DxfGeometry): { joints: Joint[]; members: D
 
 /**
  * Imports a parsed drawing as truss geometry: joints (m) and members, healed, tagged, and a
- * report of every change and every entity left out.
+ * report of every change and every entity left out. The geometry comes as typed-array
+ * columns ({@link DxfGeometry}); {@link dxfImport} gives it as the model's objects.
  *
  * Reads LINE, LWPOLYLINE and 2-D POLYLINE (open or closed; each span a member; arc spans
  * taken as straight members and reported 'ignored-bulge') on the chosen layers, exploding
