@@ -27,6 +27,10 @@ interface DrawingCanvasProps {
 const HEIGHT = 480;
 const WHEEL_STEP = 1.15;
 const BUTTON_STEP = 1.5;
+/** Screen pixels around the frame within which members and joints are still drawn. */
+const VIEW_MARGIN = 24;
+/** More tags than this in view overlap into a blur (and slow the page): they wait for a closer view. */
+const MAX_TAGS = 600;
 // Labels stay readable on paper: a halo of the ground colour behind each.
 const LABEL_HALO = { paintOrder: 'stroke' as const, stroke: '#ffffff', strokeWidth: 3, strokeLinejoin: 'round' as const };
 
@@ -132,16 +136,57 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
     event.preventDefault();
   };
 
-  const ready = camera && size;
-  const at = (p: DxfPoint) => cameraToScreen(camera!, size!, p);
-  const visibleMembers = result.members.filter((m) => !hiddenLayers.has(m.layer));
-  const visibleJointIds = new Set<string>();
-  for (const m of visibleMembers) {
-    visibleJointIds.add(m.from);
-    visibleJointIds.add(m.to);
-  }
+  const ready = camera !== null && size !== null;
+  const visibleMembers = useMemo(() => result.members.filter((m) => !hiddenLayers.has(m.layer)), [result.members, hiddenLayers]);
+  const visibleJoints = useMemo(() => {
+    const ids = new Set<string>();
+    for (const m of visibleMembers) {
+      ids.add(m.from);
+      ids.add(m.to);
+    }
+    return result.joints.filter((j) => ids.has(j.id));
+  }, [result.joints, visibleMembers]);
   const dim = highlight !== null;
   const bar = camera ? scaleBarLength(camera.scale) : null;
+
+  // The geometry is drawn again only when the view or the model changes, not when the cursor
+  // moves; what lies outside the frame is left out, and tags only when few enough to read.
+  const drawn = useMemo(() => {
+    if (!camera || !size) return null;
+    const at = (p: DxfPoint) => cameraToScreen(camera, size, p);
+    const m = VIEW_MARGIN;
+    const pointIn = (p: DxfPoint) => p.x >= -m && p.y >= -m && p.x <= size.width + m && p.y <= size.height + m;
+    const segmentIn = (p: DxfPoint, q: DxfPoint) =>
+      Math.max(p.x, q.x) >= -m && Math.min(p.x, q.x) <= size.width + m && Math.max(p.y, q.y) >= -m && Math.min(p.y, q.y) <= size.height + m;
+    const members: { id: string; tag: string; layer: string; p: DxfPoint; q: DxfPoint }[] = [];
+    for (const member of visibleMembers) {
+      const a = joints.get(member.from);
+      const b = joints.get(member.to);
+      if (!a || !b) continue;
+      const p = at(a);
+      const q = at(b);
+      if (segmentIn(p, q)) members.push({ id: member.id, tag: member.tag, layer: member.layer, p, q });
+    }
+    const points: { id: string; tag: string; p: DxfPoint }[] = [];
+    for (const joint of visibleJoints) {
+      const p = at(joint);
+      if (pointIn(p)) points.push({ id: joint.id, tag: joint.tag, p });
+    }
+    return { at, members, points, jointTagsFit: points.length <= MAX_TAGS, memberTagsFit: members.length <= MAX_TAGS };
+  }, [camera, size, visibleMembers, visibleJoints, joints]);
+  // the elements too, so that a cursor move does not rebuild thousands of them
+  const memberLines = useMemo(
+    () => drawn?.members.map(({ id, layer, p, q }) => <line key={id} x1={p.x} y1={p.y} x2={q.x} y2={q.y} stroke={colours.get(layer) ?? '#2b2d2f'} strokeWidth={1.75} />),
+    [drawn, colours],
+  );
+  const jointDots = useMemo(
+    () =>
+      drawn?.points.map(({ id, p }) => (
+        <circle key={id} cx={p.x} cy={p.y} r={2.75} fill="#ffffff" stroke="#2b2d2f" strokeWidth={1.25} opacity={dim && !highlight?.jointIds.has(id) ? 0.45 : 1} />
+      )),
+    [drawn, dim, highlight],
+  );
+  const tagsHidden = drawn !== null && ((showJointTags && !drawn.jointTagsFit) || (showMemberTags && !drawn.memberTagsFit));
 
   return (
     <div>
@@ -194,14 +239,7 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
           {ready && (
             <>
               <g strokeLinecap="round" opacity={dim ? 0.35 : 1}>
-                {visibleMembers.map((m) => {
-                  const a = joints.get(m.from);
-                  const b = joints.get(m.to);
-                  if (!a || !b) return null;
-                  const p = at(a);
-                  const q = at(b);
-                  return <line key={m.id} x1={p.x} y1={p.y} x2={q.x} y2={q.y} stroke={colours.get(m.layer) ?? '#2b2d2f'} strokeWidth={1.75} />;
-                })}
+                {memberLines}
               </g>
 
               {highlight && (
@@ -209,8 +247,8 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
                   {visibleMembers
                     .filter((m) => highlight.memberIds.has(m.id))
                     .map((m) => {
-                      const p = at(joints.get(m.from)!);
-                      const q = at(joints.get(m.to)!);
+                      const p = drawn!.at(joints.get(m.from)!);
+                      const q = drawn!.at(joints.get(m.to)!);
                       return (
                         <g key={m.id}>
                           <line x1={p.x} y1={p.y} x2={q.x} y2={q.y} stroke="#d9ebe8" strokeWidth={11} strokeLinecap="round" />
@@ -221,25 +259,18 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
                 </g>
               )}
 
-              <g>
-                {result.joints
-                  .filter((j) => visibleJointIds.has(j.id))
-                  .map((j) => {
-                    const p = at(j);
-                    return <circle key={j.id} cx={p.x} cy={p.y} r={2.75} fill="#ffffff" stroke="#2b2d2f" strokeWidth={1.25} opacity={dim && !highlight?.jointIds.has(j.id) ? 0.45 : 1} />;
-                  })}
-              </g>
+              <g>{jointDots}</g>
 
               {highlight && (
                 <g aria-hidden fill="none">
                   {[...highlight.jointIds].map((id) => {
                     const joint = joints.get(id);
                     if (!joint) return null;
-                    const p = at(joint);
+                    const p = drawn!.at(joint);
                     return <circle key={id} cx={p.x} cy={p.y} r={10} fill="#12605a" fillOpacity={0.12} stroke="#12605a" strokeWidth={1.75} />;
                   })}
                   {highlight.points.map((point, i) => {
-                    const p = at(point);
+                    const p = drawn!.at(point);
                     return (
                       <g key={i}>
                         <circle cx={p.x} cy={p.y} r={13} stroke="#12605a" strokeWidth={1.5} strokeDasharray="4 3" />
@@ -250,40 +281,34 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
                 </g>
               )}
 
-              {showMemberTags && (
+              {showMemberTags && drawn!.memberTagsFit && (
                 <g fontSize={10} fill="#55585c" textAnchor="middle" dominantBaseline="central" style={LABEL_HALO}>
-                  {visibleMembers.map((m) => {
-                    const a = joints.get(m.from);
-                    const b = joints.get(m.to);
-                    if (!a || !b) return null;
-                    const p = at({ x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 });
-                    return (
-                      <text key={m.id} x={p.x} y={p.y} fontStyle="italic">
-                        {m.tag}
-                      </text>
-                    );
-                  })}
+                  {drawn!.members.map(({ id, tag, p, q }) => (
+                    <text key={id} x={(p.x + q.x) / 2} y={(p.y + q.y) / 2} fontStyle="italic">
+                      {tag}
+                    </text>
+                  ))}
                 </g>
               )}
 
-              {showJointTags && (
+              {showJointTags && drawn!.jointTagsFit && (
                 <g fontSize={11} fontWeight={600} fill="#2b2d2f" style={LABEL_HALO}>
-                  {result.joints
-                    .filter((j) => visibleJointIds.has(j.id))
-                    .map((j) => {
-                      const p = at(j);
-                      return (
-                        <text key={j.id} x={p.x + 5} y={p.y - 6}>
-                          {j.tag}
-                        </text>
-                      );
-                    })}
+                  {drawn!.points.map(({ id, tag, p }) => (
+                    <text key={id} x={p.x + 5} y={p.y - 6}>
+                      {tag}
+                    </text>
+                  ))}
                 </g>
               )}
             </>
           )}
         </svg>
 
+        {tagsHidden && (
+          <div className="pointer-events-none absolute top-2 left-3 rounded bg-white/90 px-1.5 py-0.5 text-[11px] text-ink-soft">
+            Tags show when {MAX_TAGS} or fewer are in view: zoom in to read them.
+          </div>
+        )}
         {bar && (
           <div className="pointer-events-none absolute bottom-2 left-3 flex flex-col items-start gap-0.5 text-[11px] text-ink-soft">
             <span className="figures">{formatScaleLength(bar.metres)}</span>
