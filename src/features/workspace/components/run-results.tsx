@@ -18,7 +18,7 @@ import {
   type ResultSource,
 } from '../utils/run-results';
 import { ForceTable } from './force-table';
-import { RunStatusBadge } from './runs-section';
+import { RunStatusBadge } from './run-status-badge';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
 

@@ -2,7 +2,7 @@ import { useSearchParams } from 'react-router-dom';
 import type { RunSummaryView } from '@shared/schemas/run.schema';
 import type { UnitSystemId } from '@shared/units';
 import { Button } from '@/components/ui/button';
-import { Badge, Panel } from '@/components/ui/page-header';
+import { Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { ApiError, errorMessage } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
@@ -11,26 +11,10 @@ import { useTrussModel } from '../api/get-model';
 import { useRuns } from '../api/get-runs';
 import { draftIsKept } from '../utils/draft-store';
 import { RunResults } from './run-results';
+import { RunStatusBadge } from './run-status-badge';
 import { TH, TH_RIGHT } from './supports-table';
 
 /** Status of a run in words, with its progress while it works. */
-export function RunStatusBadge({ run }: { run: Pick<RunSummaryView, 'status' | 'progress'> }) {
-  if (run.status === 'queued' || run.status === 'running') {
-    const pct = Math.round(run.progress.fraction * 100);
-    return (
-      <span className="inline-flex items-center gap-2" role="status">
-        <span className="text-xs font-medium text-ink-soft">{run.status === 'queued' ? 'Queued' : `Solving ${pct} %`}</span>
-        <span className="h-1.5 w-16 overflow-hidden rounded-full bg-paper-sunk" aria-hidden>
-          <span className="block h-full bg-accent transition-all" style={{ width: `${Math.max(4, pct)}%` }} />
-        </span>
-      </span>
-    );
-  }
-  if (run.status === 'solved') return <Badge tone="accent">Solved</Badge>;
-  if (run.status === 'unstable') return <Badge tone="danger">Unstable</Badge>;
-  return <Badge tone="danger">Failed</Badge>;
-}
-
 const KIND_WORDS = { determinate: 'determinate', indeterminate: 'indeterminate', unstable: 'unstable' } as const;
 
 /** "Runs & results": start a run, see every run with who and when, and read the chosen one. */
