@@ -10,6 +10,7 @@ import { initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
 import { seedDemo } from './seed/demo';
+import { firstAdminLink } from './modules/users/first-admin';
 import { runsFailInterrupted } from './modules/runs/runs.service';
 import { localFileStore } from './storage/file-store';
 
@@ -35,12 +36,23 @@ function sessionSecretFor(config: Config): string {
 
 /** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
 export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void; review?: ReviewDeps } = {}): Promise<Services> {
+  const say = options.log ?? ((m: string) => console.log(m));
+  if (config.env === 'production' && !config.publicUrl) {
+    say('Warning: PUBLIC_URL is not set, so links in e-mails (invitations, review notices) point at http://localhost. Set PUBLIC_URL to the address people use, e.g. https://panelpoint.example.com.');
+  }
   const sequelize = await openDatabase(config.databaseStorage);
   await migrate(sequelize);
   initModels(sequelize);
   fs.mkdirSync(config.uploadsDir, { recursive: true });
   await runsFailInterrupted();
   if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
+  const firstLink = config.env !== 'production' ? null : await firstAdminLink({
+    email: config.firstAdminEmail ?? 'admin@panelpoint.local',
+    publicUrl: config.publicUrl ?? `http://localhost:${config.port}`,
+  });
+  if (firstLink) {
+    say(`No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (it changes at every start until used): ${firstLink}`);
+  }
 
   const sink = config.smtpUrl ? undefined : await startSmtpSink();
   const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, from: config.mailFrom });
