@@ -68,12 +68,19 @@ export function createApp(deps: AppDeps): CreatedApp {
   const registry: RouteSpec[] = [];
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only when the operator says a proxy sits in front (TRUST_PROXY):
+  // otherwise anyone on the machine could claim any address to the sign-in limiter.
+  app.set('trust proxy', config.trustProxy ?? false);
 
+  // Over plain HTTP (an office server at http://panelpoint.lan) the browser must not be told
+  // to upgrade every request to HTTPS, or the app is a blank page; HSTS likewise only on HTTPS.
+  const overHttps = Boolean(config.publicUrl?.startsWith('https://'));
   app.use(
     helmet({
+      strictTransportSecurity: overHttps,
       contentSecurityPolicy: {
         directives: {
+          'upgrade-insecure-requests': overHttps ? [] : null,
           // KaTeX and the calc-sheet preview set inline styles.
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
@@ -86,7 +93,7 @@ export function createApp(deps: AppDeps): CreatedApp {
 
   const SequelizeStore = ConnectSessionSequelize(session.Store);
   const store = new SequelizeStore({ db: deps.sequelize, checkExpirationInterval: 15 * 60 * 1000, expiration: 12 * 3600 * 1000 });
-  const secure = Boolean(config.publicUrl?.startsWith('https://'));
+  const secure = overHttps;
   app.use(
     '/api',
     session({

@@ -19,6 +19,8 @@ const envSchema = z.object({
   SEED_DEMO: z.enum(['true', 'false']).optional(),
   /** E-mail of the first admin, whose one-time link a production start with no accounts prints. */
   FIRST_ADMIN_EMAIL: z.string().email().optional(),
+  /** Express's trust-proxy setting: unset trusts no proxy; e.g. "loopback", "10.0.0.0/8" or a hop count. */
+  TRUST_PROXY: z.string().optional(),
   SIGNIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
   SIGNIN_RATE_WINDOW_MS: z.coerce.number().int().min(1000).default(15 * 60 * 1000),
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
@@ -39,6 +41,8 @@ export interface Config {
   mailFrom: string;
   seedDemo: boolean;
   firstAdminEmail?: string;
+  /** Passed to Express's 'trust proxy'; false when no proxy is configured. */
+  trustProxy?: boolean | number | string;
   signInRateLimit: number;
   signInRateWindowMs: number;
   bcryptRounds: number;
@@ -69,10 +73,18 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     // production database unless someone asks for it by name.
     seedDemo: e.SEED_DEMO ? e.SEED_DEMO === 'true' : e.NODE_ENV !== 'production',
     firstAdminEmail: e.FIRST_ADMIN_EMAIL,
+    trustProxy: parseTrustProxy(e.TRUST_PROXY),
     signInRateLimit: e.SIGNIN_RATE_LIMIT,
     signInRateWindowMs: e.SIGNIN_RATE_WINDOW_MS,
     bcryptRounds: e.BCRYPT_ROUNDS,
     chromiumPath: e.CHROMIUM_PATH,
     maxUploadBytes: Math.round(e.MAX_UPLOAD_MB * 1024 * 1024),
   };
+}
+
+function parseTrustProxy(value: string | undefined): boolean | number | string {
+  if (value === undefined || value === '' || value === 'false') return false;
+  if (value === 'true') return true;
+  if (/^\d+$/.test(value)) return Number(value);
+  return value;
 }

@@ -31,6 +31,8 @@ export function authRoutes(registry: RouteSpec[], passport: PassportInstance, co
     legacyHeaders: false,
     // Only failed attempts count, so a busy office behind one address is not locked out.
     skipSuccessfulRequests: true,
+    // A forwarded address without TRUST_PROXY is ignored on purpose (see app.ts), not a mistake.
+    validate: { xForwardedForHeader: false },
     handler: (_req, _res, next) =>
       next(new AppError('too-many-attempts', 'Too many sign-in attempts from here. Wait a few minutes and try again.', 429)),
   });
