@@ -8,7 +8,7 @@ import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
 import type { Mailer } from './mail/mailer';
 import type { RouteSpec } from './middleware/access';
-import { csrfProtection } from './middleware/csrf';
+import { createCsrf } from './middleware/csrf';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { createPassport } from './modules/auth/passport';
 import { authRoutes } from './modules/auth/auth.routes';
@@ -93,6 +93,9 @@ export function createApp(deps: AppDeps): CreatedApp {
 
   const SequelizeStore = ConnectSessionSequelize(session.Store);
   const store = new SequelizeStore({ db: deps.sequelize, checkExpirationInterval: 15 * 60 * 1000, expiration: 12 * 3600 * 1000 });
+  // express-session touches the stored row on every request it does not save; the expiry is
+  // moved on by extendSignedInSession below instead, at most every few minutes.
+  (store as unknown as { touch: (sid: string, sess: unknown, cb?: () => void) => void }).touch = (_sid, _sess, cb) => cb?.();
   const secure = overHttps;
   app.use(
     '/api',
@@ -102,17 +105,19 @@ export function createApp(deps: AppDeps): CreatedApp {
       store,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 12 * 3600 * 1000 },
     }),
   );
   const passport = createPassport();
   app.use('/api', passport.initialize(), passport.session());
-  app.use('/api', csrfProtection);
+  app.use('/api', extendSignedInSession);
+  const csrf = createCsrf(deps.sessionSecret, secure);
+  app.use('/api', csrf.protection);
   app.use('/api', express.json({ limit: '1mb' }));
 
   const publicUrl = () => config.publicUrl ?? `http://localhost:${config.port}`;
-  app.use('/api', authRoutes(registry, passport, config));
+  app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor));
   app.use('/api', usersRoutes(registry, { mailer: deps.mailer, publicUrl }));
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));
@@ -158,3 +163,26 @@ export function createApp(deps: AppDeps): CreatedApp {
     },
   };
 }
+
+declare module 'express-session' {
+  interface SessionData {
+    /** When the session's expiry was last moved on (ms since epoch). */
+    seenAt?: number;
+  }
+}
+
+const EXTEND_EVERY_MS = 5 * 60 * 1000;
+
+/**
+ * A signed-in session stays alive while it is used, but its row is rewritten at most every
+ * five minutes (marking it modified saves it and re-sends the cookie with a new expiry), not on
+ * every request.
+ */
+const extendSignedInSession: express.RequestHandler = (req, _res, next) => {
+  const s = req.session as (typeof req.session & { passport?: { user?: unknown } }) | undefined;
+  if (s?.passport?.user && Date.now() - (s.seenAt ?? 0) > EXTEND_EVERY_MS) {
+    s.seenAt = Date.now();
+    s.touch();
+  }
+  next();
+};

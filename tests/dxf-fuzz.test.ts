@@ -5,7 +5,8 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { dxfImport, dxfParseBytes, isDxfImportError } from '@shared/dxf-import';
+import { dxfImport, dxfLayers, dxfParseBytes, isDxfImportError } from '@shared/dxf-import';
+import { block, blockBomb, deepNesting, dxf, insert, line, lineWithoutEnd, mutualInsert, selfInsert } from './support/hostile-dxf';
 import { kingPostInches, pitchedTrussMm } from './fixtures/dxf/writer-drawings';
 
 function mulberry32(seed: number): () => number {
@@ -74,6 +75,7 @@ describe('fuzzed drawings', () => {
       for (const v of variants(f.bytes, rnd, perFixture)) {
         try {
           const parsed = dxfParseBytes(v.bytes);
+          dxfLayers(parsed); // the upload lists layers first: the same must hold there
           dxfImport(parsed, { units: 'mm' });
           imported++;
         } catch (e) {
@@ -92,5 +94,63 @@ describe('fuzzed drawings', () => {
     expect(codes.has('truncated')).toBe(true);
     expect(refused).toBeGreaterThan(0);
     expect(imported).toBeGreaterThan(0);
+  });
+});
+
+/** A random drawing of blocks inserting blocks (cycles, deep chains, arrays, missing ends allowed). */
+function randomBlockDrawing(rnd: () => number): Buffer {
+  const nBlocks = 1 + Math.floor(rnd() * 8);
+  const names = Array.from({ length: nBlocks }, (_, i) => `K${i}`);
+  const blocks = names.map((name) => {
+    const body: string[][] = [];
+    const items = 1 + Math.floor(rnd() * 6);
+    for (let k = 0; k < items; k++) {
+      const r = rnd();
+      if (r < 0.45) body.push(line(rnd() * 10, rnd() * 10, rnd() * 10, rnd() * 10));
+      else if (r < 0.5) body.push(lineWithoutEnd(rnd(), rnd()));
+      else if (r < 0.55) body.push(line(1, 1, 1, 1));
+      else body.push(insert(names[Math.floor(rnd() * nBlocks)], rnd() * 20, rnd() * 20));
+    }
+    return block(name, body);
+  });
+  const top: string[][] = [line(0, 0, 1000, 0)];
+  const inserts = 1 + Math.floor(rnd() * 4);
+  for (let k = 0; k < inserts; k++) top.push(insert(names[Math.floor(rnd() * nBlocks)], rnd() * 100, rnd() * 100));
+  return dxf(top, blocks);
+}
+
+describe('fuzzed hostile drawings (block graphs)', () => {
+  // Several fixed seeds, 2 000 drawings in all, plus mutations of the worst cases; every one
+  // either lists its layers and imports, or is refused with a DxfImportError, and none takes long.
+  const seeds = [7, 1103, 2026, 424242];
+  it('2 000 random block graphs and their damaged copies: 0 crashes, 0 hangs', () => {
+    let count = 0;
+    let slowest = 0;
+    const codes = new Set<string>();
+    for (const seed of seeds) {
+      const rnd = mulberry32(seed);
+      const bases = [selfInsert(), mutualInsert(), deepNesting(36), blockBomb(9, 5)];
+      for (let k = 0; k < 500; k++) {
+        const base = k < 420 ? randomBlockDrawing(rnd) : bases[k % bases.length];
+        const v = k % 3 === 0 ? base : variants(new Uint8Array(base), rnd, 1 + (k % 3))[k % 3 === 1 ? 0 : 1].bytes;
+        const t = performance.now();
+        try {
+          const parsed = dxfParseBytes(new Uint8Array(v));
+          dxfLayers(parsed);
+          dxfImport(parsed, { units: 'mm' });
+        } catch (e) {
+          if (!isDxfImportError(e)) throw new Error(`seed ${seed}, drawing ${k}: ${e instanceof Error ? `${e.name}: ${e.message}` : String(e)}`);
+          expect(e.message.length).toBeGreaterThan(20);
+          codes.add(e.code);
+        }
+        slowest = Math.max(slowest, performance.now() - t);
+        count++;
+      }
+    }
+    expect(count).toBe(2000);
+    // the generator reaches the block checks, not only the parser
+    expect(codes.has('block-problem')).toBe(true);
+    expect(codes.has('drawing-too-large')).toBe(true);
+    expect(slowest).toBeLessThan(10_000);
   });
 });

@@ -20,7 +20,8 @@ export type DxfImportErrorCode =
   | 'bad-coordinate'
   | 'coordinate-too-large'
   | 'tolerance-too-large'
-  | 'block-problem';
+  | 'block-problem'
+  | 'drawing-too-large';
 
 /**
  * The one error type the drawing import throws. `message` is a full sentence naming the

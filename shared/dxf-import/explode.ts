@@ -81,6 +81,49 @@ export interface ExplodeSink {
 }
 
 const MAX_BLOCK_DEPTH = 32;
+/**
+ * Most line segments a drawing may explode into (blocks inside blocks multiply quickly: a
+ * 2.8 kB file can describe a million). Far above any truss drawing; a safety limit, no source.
+ */
+export const MAX_EXPLODED_SEGMENTS = 200_000;
+
+/**
+ * How many segments exploding the model space would give, counted over the block graph
+ * before anything is exploded (each block counted once, then multiplied by its inserts), so
+ * a drawing that would blow up memory is refused while it is still a few kilobytes. Stops
+ * counting past `cap`. Self-reference and nesting depth are reported by the walk itself.
+ */
+function explosionSize(dxf: IDxf, cap: number): number {
+  const blocks: Record<string, IBlock> = dxf.blocks ?? {};
+  const memo = new Map<string, number>();
+  const visiting = new Set<string>();
+  const count = (entities: IEntity[] | undefined, depth: number): number => {
+    let n = 0;
+    for (const raw of entities ?? []) {
+      const e = raw as AnyEntity;
+      if (!e || typeof e.type !== 'string' || e.inPaperSpace) continue;
+      if (e.type === 'LINE') n += 1;
+      else if (e.type === 'LWPOLYLINE' || e.type === 'POLYLINE') n += Array.isArray(e.vertices) ? e.vertices.length : 0;
+      else if (e.type === 'INSERT') {
+        const name = typeof e.name === 'string' ? e.name : '';
+        if (!blocks[name] || visiting.has(name) || depth >= MAX_BLOCK_DEPTH) continue; // the walk names these
+        let inner = memo.get(name);
+        if (inner === undefined) {
+          visiting.add(name);
+          inner = count(blocks[name].entities, depth + 1);
+          visiting.delete(name);
+          memo.set(name, inner);
+        }
+        const cols = Math.max(1, Math.min(10_000, Math.floor(num(e.columnCount, 1)) || 1));
+        const rows = Math.max(1, Math.min(10_000, Math.floor(num(e.rowCount, 1)) || 1));
+        n += inner * cols * rows;
+      }
+      if (n > cap) return n;
+    }
+    return n;
+  };
+  return count(dxf.entities, 0);
+}
 
 type AnyEntity = IEntity & Record<string, any>;
 
@@ -130,11 +173,19 @@ export function mtextPlain(s: string): string {
  * reported as ignored. Entities on layer "0" inside a block take the layer of the INSERT that
  * places them (DXF convention, from memory).
  *
- * @throws DxfImportError 'block-problem' for a block that contains itself or nests deeper than 32.
+ * @throws DxfImportError 'block-problem' for a block that contains itself or nests deeper than 32;
+ *   'drawing-too-large' when it would explode into more than `maxSegments` segments.
  */
-export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink): void {
+export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, maxSegments = MAX_EXPLODED_SEGMENTS): void {
   const blocks: Record<string, IBlock> = dxf.blocks ?? {};
   const stack: string[] = [];
+  const size = explosionSize(dxf, maxSegments);
+  if (size > maxSegments) {
+    throw new DxfImportError(
+      'drawing-too-large',
+      `This drawing explodes into more than ${maxSegments.toLocaleString('en-US')} line segments (blocks inserted inside blocks); Panelpoint takes at most that many. Upload a drawing of the one truss, with its blocks exploded.`,
+    );
+  }
 
   const walk = (entities: IEntity[] | undefined, m: Affine, parentLayer: string | null): void => {
     if (!entities) return;

@@ -453,6 +453,10 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     const L = Math.sqrt(dx * dx + dy * dy);
     if (L > 0) lens[nLens++] = L;
   }
+  if (nLens === 0) {
+    // Points spread over the drawing, but every line starts where it ends.
+    throw new DxfImportError('no-lines', `Every line on the chosen layers has zero length (each starts where it ends), so there is no member to import. Draw the truss members as lines between their joints and upload again.`);
+  }
   // the element sorting would put at ⌊n/2⌋, found without sorting
   const typical = quickMedian(lens.subarray(0, nLens));
   const tol = o.tolerance ?? defaultTolerance(Math.min(diagonal, 10 * typical));

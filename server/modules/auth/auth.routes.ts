@@ -4,14 +4,13 @@ import type { PassportInstance } from './passport';
 import { acceptInvitationSchema, signInSchema, type SessionView } from '@shared/schemas/auth.schema';
 import { ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { validateBody } from '../../middleware/validate';
-import { csrfTokenFor } from '../../middleware/csrf';
 import { AppError } from '../../errors/app-error';
 import type { User } from '../../db/models';
 import { toUserView } from '../users/users.views';
 import { acceptInvitation, getInvitation } from './auth.service';
 import type { Config } from '../../config';
 
-function sessionView(req: Request): SessionView {
+function sessionView(req: Request, csrfTokenFor: (req: Request) => string): SessionView {
   const user = req.user as User | undefined;
   return { user: user ? toUserView(user) : null, csrfToken: csrfTokenFor(req) };
 }
@@ -21,7 +20,7 @@ function logIn(req: Request, user: User): Promise<void> {
   return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 }
 
-export function authRoutes(registry: RouteSpec[], passport: PassportInstance, config: Config) {
+export function authRoutes(registry: RouteSpec[], passport: PassportInstance, config: Config, csrfTokenFor: (req: Request) => string) {
   const routes = new ApiRoutes('/api', registry);
 
   const signInLimiter = rateLimit({
@@ -38,7 +37,7 @@ export function authRoutes(registry: RouteSpec[], passport: PassportInstance, co
   });
 
   routes.add('get', '/session', 'public', (req, res) => {
-    res.json(sessionView(req));
+    res.json(sessionView(req, csrfTokenFor));
   });
 
   routes.add('post', '/session', 'public', signInLimiter, validateBody(signInSchema), (req: Request, res: Response, next: NextFunction) => {
@@ -52,7 +51,7 @@ export function authRoutes(registry: RouteSpec[], passport: PassportInstance, co
           throw new AppError('bad-credentials', 'That e-mail and password do not match an account. Check both and try again.', 401);
         }
         await logIn(req, user);
-        res.json(sessionView(req));
+        res.json(sessionView(req, csrfTokenFor));
       } catch (e) {
         next(e);
       }
@@ -77,7 +76,7 @@ export function authRoutes(registry: RouteSpec[], passport: PassportInstance, co
   routes.add('post', '/invitations/accept', 'public', validateBody(acceptInvitationSchema), async (req, res) => {
     const user = await acceptInvitation(req.body, config.bcryptRounds);
     await logIn(req, user);
-    res.json(sessionView(req));
+    res.json(sessionView(req, csrfTokenFor));
   });
 
   return routes.router;

@@ -46,11 +46,21 @@ export function parseUploadOptions(fields: Record<string, unknown>): DxfImportOp
 
 type ImportOutcome = { status: 'imported'; result: DxfImportResult } | { status: 'failed'; error: { code: string; message: string } };
 
+/**
+ * Import failures that other import options can fix (units, layers, tolerance) keep the upload
+ * as a failed version to re-import; a fault in the drawing itself (a block inside itself, too
+ * many segments, a line without an end) refuses the upload with its sentence, storing nothing.
+ */
+const FIXED_BY_OPTIONS = new Set<string>(['units-required', 'unknown-layer', 'no-lines', 'tolerance-too-large', 'bad-option']);
+
 function runImport(parsed: DxfParsed, options: DxfImportOptions): ImportOutcome {
   try {
     return { status: 'imported', result: dxfImport(parsed, options) };
   } catch (err) {
-    if (isDxfImportError(err)) return { status: 'failed', error: { code: err.code, message: err.message } };
+    if (isDxfImportError(err)) {
+      if (!FIXED_BY_OPTIONS.has(err.code)) throw new AppError(err.code, err.message, 422);
+      return { status: 'failed', error: { code: err.code, message: err.message } };
+    }
     throw err;
   }
 }
@@ -59,6 +69,20 @@ function runImport(parsed: DxfParsed, options: DxfImportOptions): ImportOutcome 
 function parseOrRefuse(bytes: Buffer): DxfParsed {
   try {
     return dxfParseBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+  } catch (err) {
+    if (isDxfImportError(err)) throw new AppError(err.code, err.message, 422);
+    throw err;
+  }
+}
+
+/**
+ * Lists the drawing's layers for the layer picker. Listing explodes the blocks, so a drawing
+ * whose blocks cannot be exploded (a block inside itself, nesting too deep, too many segments)
+ * is refused here with the import's own sentence, and nothing is stored.
+ */
+function listLayersOrRefuse(parsed: DxfParsed) {
+  try {
+    return dxfLayers(parsed);
   } catch (err) {
     if (isDxfImportError(err)) throw new AppError(err.code, err.message, 422);
     throw err;
@@ -80,7 +104,7 @@ export async function uploadDrawing(
     const bytes = await store.read(input.file.storedName);
     const sha256 = crypto.createHash('sha256').update(bytes).digest('hex');
     const parsed = parseOrRefuse(bytes);
-    const layers = dxfLayers(parsed);
+    const layers = listLayersOrRefuse(parsed);
     const outcome = runImport(parsed, options);
 
     const sequelize = Drawing.sequelize!;
