@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { BOUNDS, withinMagnitude, withinRange } from './bounds';
 
 /**
  * The truss model every part of Panelpoint speaks: the drawing import produces its geometry,
@@ -11,8 +12,8 @@ import { z } from 'zod';
 export const jointSchema = z.object({
   id: z.string().min(1),
   tag: z.string().min(1),
-  x: z.number().finite(),
-  y: z.number().finite(),
+  x: withinMagnitude('a joint’s x coordinate', ' m', BOUNDS.coordinateM),
+  y: withinMagnitude('a joint’s y coordinate', ' m', BOUNDS.coordinateM),
 });
 export type Joint = z.infer<typeof jointSchema>;
 
@@ -26,11 +27,11 @@ export const memberSchema = z.object({
   to: z.string().min(1),
   group: memberGroupSchema.optional(),
   /** Young's modulus, kN/m². */
-  E: z.number().positive().finite().optional(),
+  E: withinRange("a member's E", ' kN/m²', BOUNDS.E.min, BOUNDS.E.max).optional(),
   /** Cross-section area, m². */
-  A: z.number().positive().finite().optional(),
+  A: withinRange("a member's area A", ' m²', BOUNDS.A.min, BOUNDS.A.max).optional(),
   /** Axial stiffness EA, kN; wins over E·A when both are given. */
-  EA: z.number().positive().finite().optional(),
+  EA: withinRange("a member's EA", ' kN', BOUNDS.EA.min, BOUNDS.EA.max).optional(),
   material: z.string().max(120).optional(),
   section: z.string().max(120).optional(),
 });
@@ -42,7 +43,7 @@ export const supportSchema = z.discriminatedUnion('kind', [
     joint: z.string().min(1),
     kind: z.literal('roller'),
     /** Angle of the reaction line from +x, degrees; 90 = vertical reaction. */
-    angleDeg: z.number().finite().default(90),
+    angleDeg: withinMagnitude("a roller's angle", '°', 360).default(90),
   }),
 ]);
 export type Support = z.infer<typeof supportSchema>;
@@ -63,9 +64,9 @@ export const LOAD_CATEGORY_NAMES: Record<LoadCategory, string> = {
 export const jointLoadSchema = z.object({
   joint: z.string().min(1),
   /** kN, +x to the right. */
-  fx: z.number().finite(),
+  fx: withinMagnitude('a joint load’s fx', ' kN', BOUNDS.jointLoadKn),
   /** kN, +y up. */
-  fy: z.number().finite(),
+  fy: withinMagnitude('a joint load’s fy', ' kN', BOUNDS.jointLoadKn),
   note: z.string().max(200).optional(),
 });
 export type JointLoad = z.infer<typeof jointLoadSchema>;
@@ -81,7 +82,7 @@ export type LoadCase = z.infer<typeof loadCaseSchema>;
 export const combinationSchema = z.object({
   name: z.string().min(1).max(80),
   /** Load case id → factor. */
-  factors: z.record(z.string(), z.number().finite()),
+  factors: z.record(z.string(), withinMagnitude('a combination factor', '', BOUNDS.factor)),
   /** Where the factors come from, e.g. "ASCE/SEI 7-16 §2.3.1 (3)". */
   clause: z.string().max(200).optional(),
 });

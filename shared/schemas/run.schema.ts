@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { TrussModel } from '@shared/model/truss';
+import { BOUNDS, withinMagnitude } from '@shared/model/bounds';
 import type { TrussAnalysis, DeterminacyKind } from '@shared/solver';
 import type { RoofTakeoffResult } from '@shared/takeoff';
 
@@ -28,7 +29,7 @@ export const takeoffAreaLoadSchema = z.object({
   /** Id of a load case of the model; the takeoff replaces that case's joint loads when a run starts. */
   caseId: z.string().min(1, { error: 'Choose the load case this area load writes.' }).max(40),
   /** Vertical area load, downward positive (negative for uplift), in `unit`. */
-  q: z.number({ error: 'Enter the area load q as a number.' }).finite(),
+  q: withinMagnitude('the area load q', ' kPa (or psf)', BOUNDS.areaLoadKpa),
   unit: z.enum(['kPa', 'psf']).default('kPa'),
   /** 'slope': per m² of roof surface; 'plan': per m² of horizontal projection. */
   basis: z.enum(['slope', 'plan'], { error: "Choose the load basis: 'slope' (per m² of roof) or 'plan' (per m² of horizontal projection)." }),
@@ -38,7 +39,8 @@ export type TakeoffAreaLoad = z.infer<typeof takeoffAreaLoadSchema>;
 const spacingValue = z
   .number({ error: 'Enter the truss spacing in metres.' })
   .finite()
-  .positive({ error: 'The truss spacing must be greater than 0 m.' });
+  .positive({ error: 'The truss spacing must be greater than 0 m.' })
+  .max(BOUNDS.spacingM, { error: `The truss spacing is above ${BOUNDS.spacingM} m; check the value and its unit.` });
 
 /**
  * The roof takeoff as the engineer enters it and as it is saved in the model's `takeoff`:

@@ -17,7 +17,24 @@ function summaryOf(analysis: TrussAnalysis): SolveSummary {
 function solve(job: SolveJob): SolveReply {
   try {
     const analysis = trussSolve(job.model);
-    return { jobId: job.jobId, type: 'solved', analysisJson: JSON.stringify(analysis), summary: summaryOf(analysis) };
+    // JSON writes Infinity and NaN as null: a result that is not a finite number everywhere
+    // is a failed run with a sentence, never "solved" with empty forces.
+    let nonFinite = 0;
+    const analysisJson = JSON.stringify(analysis, (_key, value) => {
+      if (typeof value === 'number' && !Number.isFinite(value)) nonFinite++;
+      return value;
+    });
+    if (nonFinite > 0) {
+      return {
+        jobId: job.jobId,
+        type: 'failed',
+        error: {
+          code: 'non-finite-result',
+          message: `The solution has ${nonFinite} value${nonFinite === 1 ? '' : 's'} that ${nonFinite === 1 ? 'is' : 'are'} not a finite number (the loads or stiffnesses are too large or too small for the arithmetic). Check the loads, factors and member properties for a unit slip, then run again.`,
+        },
+      };
+    }
+    return { jobId: job.jobId, type: 'solved', analysisJson, summary: summaryOf(analysis) };
   } catch (err) {
     if (err instanceof SolverError) return { jobId: job.jobId, type: 'failed', error: { code: err.code, message: err.message } };
     const message = err instanceof Error ? err.message : String(err);
