@@ -22,13 +22,13 @@ import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
 import { localFileStore } from './storage/file-store';
-import { reviewRoutes } from './modules/review/review.routes';
-import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/review/firm-key';
-import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/review/sheet-renderer';
-import { calcSheetRenderer } from './modules/review/calc-sheet-renderer';
+import { reviewRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
+import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/records/firm-key';
+import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/sheet-revisions/sheet-renderer';
+import { calcSheetRenderer } from './modules/sheet-revisions/calc-sheet-renderer';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
-import { runSheetsRoutes } from './modules/run-sheets/run-sheets.routes';
-import { loadRunSheet } from './modules/run-sheets/run-sheets.service';
+import { runSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
+import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
 
 export interface AppDeps {
   config: Config;

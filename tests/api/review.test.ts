@@ -7,8 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { OutboxMessage, SheetRevision, User } from '../../server/db/models';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
-import type { RunRef } from '../../server/modules/review/sheet-renderer';
-import { reviewRepository } from '../../server/modules/review/review.repository';
+import type { RunRef } from '../../server/modules/sheet-revisions/sheet-renderer';
+import { reviewRepository } from '../../server/modules/sheet-revisions/sheet-revisions.repository';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 import { tinyPdf, tinyPdfRenderer } from '../support/tiny-pdf';
 

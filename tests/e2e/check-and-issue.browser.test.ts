@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { OutboxMessage } from '../../server/db/models';
 import { launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
-import { stepLabel } from '../../src/features/sheets/utils/step-anchor';
+import { stepLabel } from '../../src/features/sheet-revisions/utils/step-anchor';
 
 // The whole check-and-issue loop on the demo project's T2 (which has no drawing yet), driven
 // through the built app in Chromium by three people, each in a browser context of their own.

@@ -1,4 +1,4 @@
-import type { SheetRenderInput, SheetRenderer } from '../../server/modules/review/sheet-renderer';
+import type { SheetRenderInput, SheetRenderer } from '../../server/modules/sheet-revisions/sheet-renderer';
 
 /**
  * A real, small one-page PDF with the given lines of text (Helvetica, no compression), built

@@ -2,8 +2,8 @@ import { useDeferredValue } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
-import { useArchive } from '@/features/archive/api/get-archive';
-import { ArchiveTable } from '@/features/archive/components/archive-table';
+import { useArchive } from '@/features/records/api/get-archive';
+import { ArchiveTable } from '@/features/records/components/archive-table';
 
 export function ArchiveRoute() {
   // The search lives in the address, so a found sheet can be shared as a link.

@@ -1,13 +1,13 @@
 import { Link, useParams } from 'react-router-dom';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
-import { sheetPdfUrl, sheetPreviewUrl, useSheet } from '@/features/sheets/api/get-sheet';
-import { SheetActions } from '@/features/sheets/components/sheet-actions';
-import { SheetAuditLog } from '@/features/sheets/components/sheet-audit-log';
-import { SheetIssueRecord } from '@/features/sheets/components/sheet-issue-record';
-import { SheetReview } from '@/features/sheets/components/sheet-review';
-import { SheetSigners } from '@/features/sheets/components/sheet-signers';
-import { SheetStatusBadge } from '@/features/sheets/components/sheet-status-badge';
+import { sheetPdfUrl, sheetPreviewUrl, useSheet } from '@/features/sheet-revisions/api/get-sheet';
+import { SheetActions } from '@/features/sheet-revisions/components/sheet-actions';
+import { SheetAuditLog } from '@/features/sheet-revisions/components/sheet-audit-log';
+import { SheetIssueRecord } from '@/features/records/components/sheet-issue-record';
+import { SheetReview } from '@/features/sheet-revisions/components/sheet-review';
+import { SheetSigners } from '@/features/sheet-revisions/components/sheet-signers';
+import { SheetStatusBadge } from '@/features/sheet-revisions/components/sheet-status-badge';
 import { useCurrentUser } from '../current-user';
 
 export function SheetRoute() {

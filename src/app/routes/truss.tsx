@@ -2,7 +2,7 @@ import { Link, useParams } from 'react-router-dom';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { DrawingSection } from '@/features/drawings/components/drawing-section';
 import { useProject } from '@/features/projects/api/get-project';
-import { TrussSheets } from '@/features/sheets/components/truss-sheets';
+import { TrussSheets } from '@/features/sheet-revisions/components/truss-sheets';
 import { useTruss } from '@/features/trusses/api/get-truss';
 import { TrussPage } from '@/features/trusses/components/truss-page';
 import { TrussTabs, type TrussTab } from '@/features/trusses/components/truss-tabs';

@@ -1,5 +1,5 @@
 import { PageHeader } from '@/components/ui/page-header';
-import { VerifyDrop } from '@/features/archive/components/verify-drop';
+import { VerifyDrop } from '@/features/records/components/verify-drop';
 
 export function VerifyRoute() {
   return (

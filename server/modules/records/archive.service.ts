@@ -4,7 +4,7 @@ import { AppError, notFound } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
 import type { FirmKey } from './firm-key';
 import { issuedRecordVerify, issuedSigners } from './issued-record';
-import { reviewRepository as repo, type RevisionRow, type TrussContext } from './review.repository';
+import { reviewRepository as repo, type RevisionRow, type TrussContext } from '../sheet-revisions/sheet-revisions.repository';
 
 /** Issued (and superseded) sheets across projects, their archived bytes, and verification. */
 

@@ -1,7 +1,7 @@
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam } from '../../middleware/validate';
-import type { SheetPrinter } from '../calc-sheets/sheet-printer';
-import { revisionSheetHtml, runSheetHtml, runSheetPdf } from './run-sheets.service';
+import type { SheetPrinter } from './sheet-printer';
+import { revisionSheetHtml, runSheetHtml, runSheetPdf } from './run-sheet.service';
 
 export function runSheetsRoutes(registry: RouteSpec[], deps: { printer: SheetPrinter; publicUrl: () => string }) {
   const routes = new ApiRoutes('/api', registry);

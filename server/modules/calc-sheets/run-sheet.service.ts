@@ -5,11 +5,11 @@ import { conflict, notFound } from '../../errors/app-error';
 import { Project, Truss } from '../../db/models';
 import { getFirm } from '../firm/firm.service';
 import * as runsRepo from '../runs/runs.repository';
-import { renderCalcSheetPdf, renderCalcSheetPreview } from '../calc-sheets/calc-sheets.service';
-import type { CalcSheetInput } from '../calc-sheets/calc-sheet-view';
-import type { SheetPrinter } from '../calc-sheets/sheet-printer';
-import type { RunSheetInput } from '../review/calc-sheet-renderer';
-import { getRevision } from '../review/review.service';
+import { renderCalcSheetPdf, renderCalcSheetPreview } from './calc-sheets.service';
+import type { CalcSheetInput } from './calc-sheet-view';
+import type { SheetPrinter } from './sheet-printer';
+import type { RunSheetInput } from '../sheet-revisions/calc-sheet-renderer';
+import { getRevision } from '../sheet-revisions/sheet-revisions.service';
 
 /**
  * A calc sheet is always made from one stored analysis run: its immutable snapshot of the

@@ -13,8 +13,8 @@ import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import { validationError } from '../../middleware/error-handler';
 import { AppError } from '../../errors/app-error';
-import * as review from './review.service';
-import * as archive from './archive.service';
+import * as review from './sheet-revisions.service';
+import * as archive from '../records/archive.service';
 
 export type ReviewRouteDeps = review.ReviewServiceDeps & { maxVerifyBytes: number };
 

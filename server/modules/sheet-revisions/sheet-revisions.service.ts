@@ -13,10 +13,10 @@ import {
 import { AppError, notFound } from '../../errors/app-error';
 import type { Mailer } from '../../mail/mailer';
 import type { FileStore } from '../../storage/file-store';
-import type { FirmKey } from './firm-key';
-import { issuedRecordText, issuedSigners } from './issued-record';
-import { reviewMailSend, type ReviewMailKind } from './review.mail';
-import { reviewRepository as repo, type CommentRow, type RevisionRow, type TrussContext } from './review.repository';
+import type { FirmKey } from '../records/firm-key';
+import { issuedRecordText, issuedSigners } from '../records/issued-record';
+import { reviewMailSend, type ReviewMailKind } from './sheet-revisions.mail';
+import { reviewRepository as repo, type CommentRow, type RevisionRow, type TrussContext } from './sheet-revisions.repository';
 import type { RunSource, SheetRenderer } from './sheet-renderer';
 
 export interface Actor {
