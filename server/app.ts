@@ -22,13 +22,14 @@ import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
 import { localFileStore } from './storage/file-store';
-import { reviewRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
-import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/records/firm-key';
+import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
+import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
+import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
+import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
 import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/sheet-revisions/sheet-renderer';
 import { calcSheetRenderer } from './modules/sheet-revisions/calc-sheet-renderer';
-import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
-import { runSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
-import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
+import { recordsRoutes } from './modules/records/records.routes';
+import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/records/firm-key';
 
 export interface AppDeps {
   config: Config;
@@ -130,20 +131,22 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
-  app.use('/api', runSheetsRoutes(registry, { printer, publicUrl }));
+  app.use('/api', calcSheetsRoutes(registry, { printer }));
+  const key = deps.review?.firmKey ?? (config.databaseStorage === ':memory:' ? firmKeyInMemory() : firmKeyLoadOrCreate(config.dataDir));
+  const issuedSheets = localFileStore(path.join(config.dataDir, 'issued-sheets'));
   app.use(
     '/api',
-    reviewRoutes(registry, {
+    sheetRevisionsRoutes(registry, {
       mailer: deps.mailer,
       publicUrl,
       renderer: deps.review?.renderer ?? calcSheetRenderer({ printer, loadRunSheet }),
       runs: deps.review?.runs ?? analysisRunsTable(deps.sequelize),
-      key: deps.review?.firmKey ?? (config.databaseStorage === ':memory:' ? firmKeyInMemory() : firmKeyLoadOrCreate(config.dataDir)),
-      sheets: localFileStore(path.join(config.dataDir, 'issued-sheets')),
-      maxVerifyBytes: config.maxUploadBytes,
+      key,
+      sheets: issuedSheets,
       log,
     }),
   );
+  app.use('/api', recordsRoutes(registry, { key, sheets: issuedSheets, maxVerifyBytes: config.maxUploadBytes }));
   app.use('/api', notFoundHandler);
 
   if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {

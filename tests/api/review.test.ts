@@ -8,7 +8,8 @@ import type { Services } from '../../server/bootstrap';
 import { OutboxMessage, SheetRevision, User } from '../../server/db/models';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import type { RunRef } from '../../server/modules/sheet-revisions/sheet-renderer';
-import { reviewRepository } from '../../server/modules/sheet-revisions/sheet-revisions.repository';
+import { recordsRepository } from '../../server/modules/records/records.repository';
+import { sheetRevisionsRepository as reviewRepository } from '../../server/modules/sheet-revisions/sheet-revisions.repository';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 import { tinyPdf, tinyPdfRenderer } from '../support/tiny-pdf';
 
@@ -373,7 +374,7 @@ describe('check, sign and archive', () => {
     expect(await reviewRepository.transition(id, 'draft', 'in-check', reviewerId, 'first')).toBe(true);
     // A second writer that still believes the revision is a draft.
     expect(await reviewRepository.transition(id, 'draft', 'in-check', reviewerId, 'second')).toBe(false);
-    const events = await reviewRepository.events(id);
+    const events = await recordsRepository.events(id);
     expect(events.map((e) => `${e.fromStatus}->${e.toStatus}:${e.note}`)).toEqual(['null->draft:', 'draft->in-check:first']);
   });
 

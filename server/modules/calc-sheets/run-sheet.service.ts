@@ -8,8 +8,9 @@ import * as runsRepo from '../runs/runs.repository';
 import { renderCalcSheetPdf, renderCalcSheetPreview } from './calc-sheets.service';
 import type { CalcSheetInput } from './calc-sheet-view';
 import type { SheetPrinter } from './sheet-printer';
-import type { RunSheetInput } from '../sheet-revisions/calc-sheet-renderer';
-import { getRevision } from '../sheet-revisions/sheet-revisions.service';
+
+/** A run's calc-sheet input without what a revision adds (revision, signers, print time). */
+export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'issuedBy' | 'generatedAt'>;
 
 /**
  * A calc sheet is always made from one stored analysis run: its immutable snapshot of the
@@ -59,18 +60,4 @@ export async function runSheetPdf(runId: number, printer: SheetPrinter, now = ne
   const base = await loadRunSheet(runId);
   const bytes = await renderCalcSheetPdf(draftInput(base, now), printer);
   return { bytes, fileName: `${base.project.jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-') };
-}
-
-/** The preview of a sheet revision: its label and whoever has signed so far. */
-export async function revisionSheetHtml(sheetId: number, publicUrl: () => string, now = new Date()): Promise<string> {
-  const revision = await getRevision(sheetId, { publicUrl });
-  const base = await loadRunSheet(revision.runId);
-  const signedAt = (event: string) => revision.events.find((e) => e.to === event)?.at.slice(0, 10);
-  return renderCalcSheetPreview({
-    ...base,
-    revision: revision.label,
-    preparedBy: { name: revision.preparedBy.name, date: signedAt('in-check') },
-    checkedBy: revision.checkedBy ? { name: revision.checkedBy.name, date: signedAt('checked') } : undefined,
-    generatedAt: now,
-  });
 }

@@ -1,7 +1,7 @@
 import { sheetRevisionLabel, type SheetSignerView } from '@shared/schemas/review.schema';
 import { canonicalJson } from './canonical-json';
 import type { FirmKey } from './firm-key';
-import type { RevisionRow } from '../sheet-revisions/sheet-revisions.repository';
+import type { RevisionRow } from './records.repository';
 
 /**
  * The record the firm key signs when a revision is issued, built only from columns the

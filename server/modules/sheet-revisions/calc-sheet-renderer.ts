@@ -1,15 +1,12 @@
-import type { CalcSheetInput } from '../calc-sheets/calc-sheet-view';
-import { buildCalcSheetView } from '../calc-sheets/calc-sheet-view';
+import { buildCalcSheetView, type CalcSheetInput } from '../calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../calc-sheets/calc-sheet-html';
 import type { SheetPrinter } from '../calc-sheets/sheet-printer';
+import type { RunSheetInput } from '../calc-sheets/run-sheet.service';
 import type { SheetRenderer } from './sheet-renderer';
-
-/** A run's calc-sheet input without what the review adds (revision, signers, print time). */
-export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'issuedBy' | 'generatedAt'>;
 
 /**
  * The issued calc sheet through the calc-sheet module: view builder → Handlebars HTML → the
- * app's Chromium printer. `loadRunSheet` (run-sheets module) reads the run's snapshot,
+ * app's Chromium printer. `loadRunSheet` (calc-sheets/run-sheet.service.ts) reads the run's snapshot,
  * analysis, takeoff steps, project and firm.
  */
 export function calcSheetRenderer(deps: {

@@ -2,7 +2,7 @@ import type { Sequelize } from 'sequelize';
 import { AppError } from '../../errors/app-error';
 
 /**
- * What the review module needs from the rest of the server, as two small interfaces passed in
+ * What the sheet-revisions module needs from the rest of the server, as two small interfaces passed in
  * from app.ts: something that prints a run's calc sheet to PDF, and something that finds a run.
  */
 

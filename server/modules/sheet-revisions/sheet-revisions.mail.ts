@@ -1,5 +1,5 @@
 import type { Mailer } from '../../mail/mailer';
-import type { TrussContext } from './sheet-revisions.repository';
+import type { TrussContext } from '../records/records.repository';
 
 /** The e-mails of the review: who is told, and what the message says. */
 

@@ -1,49 +1,15 @@
 import { Op, UniqueConstraintError, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
-import { Drawing, Project, SheetComment, SheetRevision, SheetRevisionEvent, Truss, User } from '../../db/models';
+import { Drawing, SheetComment, SheetRevision, Truss, User } from '../../db/models';
+import { revisionRow, type RevisionRow } from '../records/records.repository';
 
 /**
- * The only place the review module talks to Sequelize. Returns plain objects. Status changes
- * are conditional updates (WHERE status = expected); the database's triggers write the audit
- * line, supersede earlier issued revisions and refuse any change to an issued one.
+ * The writes of the check flow and the reads only it needs (comments, people, e-mail
+ * addresses). Status changes are conditional updates (WHERE status = expected); the
+ * database's triggers write the audit line, supersede earlier issued revisions and refuse any
+ * change to an issued one. Revision rows, the audit log and truss contexts are read through
+ * records.repository.ts.
  */
-
-export interface RevisionRow {
-  id: number;
-  trussId: number;
-  runId: number;
-  number: number;
-  status: SheetStatus;
-  preparedById: number;
-  checkedById: number | null;
-  issuedById: number | null;
-  preparedByName: string | null;
-  checkedByName: string | null;
-  issuedByName: string | null;
-  submittedAt: Date | null;
-  checkedAt: Date | null;
-  issuedAt: Date | null;
-  supersededAt: Date | null;
-  supersededById: number | null;
-  pdfStoredName: string | null;
-  pdfSize: number | null;
-  sha256: string | null;
-  signedRecord: string | null;
-  signature: string | null;
-  keyFingerprint: string | null;
-  createdAt: Date;
-  updatedAt: Date;
-}
-
-export interface EventRow {
-  id: number;
-  revisionId: number;
-  fromStatus: SheetStatus | null;
-  toStatus: SheetStatus;
-  actorId: number | null;
-  note: string;
-  at: Date;
-}
 
 export interface CommentRow {
   id: number;
@@ -58,45 +24,9 @@ export interface CommentRow {
   createdAt: Date;
 }
 
-export interface TrussContext {
-  trussId: number;
-  trussName: string;
-  projectId: number;
-  projectName: string;
-  jobNumber: string;
-}
-
 const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(v as string));
 
-function revisionRow(r: SheetRevision): RevisionRow {
-  const p = r.get({ plain: true }) as unknown as RevisionRow;
-  return {
-    ...p,
-    submittedAt: toDate(p.submittedAt),
-    checkedAt: toDate(p.checkedAt),
-    issuedAt: toDate(p.issuedAt),
-    supersededAt: toDate(p.supersededAt),
-    createdAt: new Date(p.createdAt),
-    updatedAt: new Date(p.updatedAt),
-  };
-}
-
-export const reviewRepository = {
-  async findRevision(id: number): Promise<RevisionRow | null> {
-    const r = await SheetRevision.findByPk(id);
-    return r ? revisionRow(r) : null;
-  },
-
-  async listRevisions(where: { trussId?: number; trussIds?: number[]; statuses?: SheetStatus[]; sha256?: string }): Promise<RevisionRow[]> {
-    const w: WhereOptions = {};
-    if (where.trussId !== undefined) Object.assign(w, { trussId: where.trussId });
-    if (where.trussIds !== undefined) Object.assign(w, { trussId: where.trussIds });
-    if (where.statuses !== undefined) Object.assign(w, { status: where.statuses });
-    if (where.sha256 !== undefined) Object.assign(w, { sha256: where.sha256 });
-    const rows = await SheetRevision.findAll({ where: w, order: [['trussId', 'ASC'], ['number', 'DESC']] });
-    return rows.map(revisionRow);
-  },
-
+export const sheetRevisionsRepository = {
   /**
    * A new draft numbered one past the truss's highest. Two engineers starting a revision at
    * once both read the same highest number; the unique (trussId, number) index refuses the
@@ -150,11 +80,6 @@ export const reviewRepository = {
     return r ? revisionRow(r) : null;
   },
 
-  async events(revisionId: number): Promise<EventRow[]> {
-    const rows = await SheetRevisionEvent.findAll({ where: { revisionId }, order: [['id', 'ASC']] });
-    return rows.map((e) => ({ ...(e.get({ plain: true }) as unknown as EventRow), at: new Date(e.at) }));
-  },
-
   /** Comments of a truss made on revisions numbered up to `upToNumber`, oldest first. */
   async commentsUpTo(trussId: number, upToNumber: number): Promise<CommentRow[]> {
     const revisionIds = (
@@ -186,26 +111,6 @@ export const reviewRepository = {
     await SheetComment.update({ resolvedById: by?.userId ?? null, resolvedAt: by?.at ?? null }, { where: { id } });
   },
 
-  async trussContext(trussId: number): Promise<TrussContext | null> {
-    const truss = await Truss.findByPk(trussId);
-    if (!truss) return null;
-    const project = await Project.findByPk(truss.projectId);
-    if (!project) return null;
-    return { trussId, trussName: truss.name, projectId: project.id, projectName: project.name, jobNumber: project.jobNumber };
-  },
-
-  async trussContexts(trussIds: number[]): Promise<Map<number, TrussContext>> {
-    const out = new Map<number, TrussContext>();
-    if (trussIds.length === 0) return out;
-    const trusses = await Truss.findAll({ where: { id: trussIds } });
-    const projects = new Map((await Project.findAll({ where: { id: [...new Set(trusses.map((t) => t.projectId))] } })).map((p) => [p.id, p]));
-    for (const t of trusses) {
-      const p = projects.get(t.projectId);
-      if (p) out.set(t.id, { trussId: t.id, trussName: t.name, projectId: p.id, projectName: p.name, jobNumber: p.jobNumber });
-    }
-    return out;
-  },
-
   async userNames(ids: (number | null)[]): Promise<Map<number, string>> {
     const wanted = [...new Set(ids.filter((i): i is number => i !== null))];
     if (wanted.length === 0) return new Map();
@@ -232,26 +137,6 @@ export const reviewRepository = {
     for (const r of revisions) for (const id of [r.preparedById, r.checkedById, r.issuedById]) if (id) ids.add(id);
     for (const d of drawings) if (d.uploadedById) ids.add(d.uploadedById);
     return [...ids];
-  },
-
-  /** Trusses whose job number, project or truss name contain the given texts (case-insensitive). */
-  async trussIdsMatching(filter: { text?: string; jobNumber?: string; project?: string; truss?: string }): Promise<number[]> {
-    // Filtered here rather than with LIKE, whose escaping differs between SQLite and PostgreSQL.
-    const projects = new Map((await Project.findAll({ attributes: ['id', 'name', 'jobNumber'], raw: true })).map((p) => [p.id, p]));
-    const trusses = await Truss.findAll({ attributes: ['id', 'name', 'projectId'], raw: true });
-    const has = (value: string, part?: string) => !part || value.toLowerCase().includes(part.toLowerCase());
-    return trusses
-      .filter((t) => {
-        const p = projects.get(t.projectId);
-        if (!p) return false;
-        return (
-          has(p.jobNumber, filter.jobNumber) &&
-          has(p.name, filter.project) &&
-          has(t.name, filter.truss) &&
-          (!filter.text || [t.name, p.name, p.jobNumber].some((s) => has(s, filter.text)))
-        );
-      })
-      .map((t) => t.id);
   },
 };
 

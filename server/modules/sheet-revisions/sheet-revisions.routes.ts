@@ -1,30 +1,16 @@
-import multer from 'multer';
 import type { Request } from 'express';
-import {
-  archiveQuerySchema,
-  newSheetCommentSchema,
-  newSheetRevisionSchema,
-  sheetCommentResolveSchema,
-  sheetTransitionSchema,
-  type FirmSigningKeyView,
-  type SheetAction,
-} from '@shared/schemas/review.schema';
+import { newSheetCommentSchema, newSheetRevisionSchema, sheetCommentResolveSchema, sheetTransitionSchema, type SheetAction } from '@shared/schemas/review.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
-import { validationError } from '../../middleware/error-handler';
-import { AppError } from '../../errors/app-error';
 import * as review from './sheet-revisions.service';
-import * as archive from '../records/archive.service';
-
-export type ReviewRouteDeps = review.ReviewServiceDeps & { maxVerifyBytes: number };
+import * as comments from './sheet-comments.service';
+import { revisionSheetHtml } from './revision-preview';
 
 const actorOf = (req: Request): review.Actor => ({ id: req.user!.id, name: req.user!.name, role: req.user!.role });
 
-/** Sheet revisions, their review and comments, the archive and the verify route. */
-export function reviewRoutes(registry: RouteSpec[], deps: ReviewRouteDeps) {
+/** Sheet revisions: starting one, its status moves, its preview and its comments. */
+export function sheetRevisionsRoutes(registry: RouteSpec[], deps: review.ReviewServiceDeps) {
   const routes = new ApiRoutes('/api', registry);
-  // Held in memory only: a verify upload is hashed and dropped, never written anywhere.
-  const verifyUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: deps.maxVerifyBytes, files: 1, fields: 5 } });
 
   routes.add('get', '/trusses/:id/sheets', ANY_ROLE, async (req, res) => {
     res.json(await review.listTrussRevisions(idParam(req.params.id, 'That truss')));
@@ -36,6 +22,9 @@ export function reviewRoutes(registry: RouteSpec[], deps: ReviewRouteDeps) {
   routes.add('get', '/sheets/:id', ANY_ROLE, async (req, res) => {
     res.json(await review.getRevision(idParam(req.params.id, 'That sheet revision'), deps));
   });
+  routes.add('get', '/sheets/:id/preview', ANY_ROLE, async (req, res) => {
+    res.type('html').send(await revisionSheetHtml(idParam(req.params.id, 'That sheet revision'), deps.publicUrl));
+  });
 
   const transition = (action: SheetAction, who: readonly ('engineer' | 'reviewer')[]) =>
     routes.add('post', `/sheets/:id/${action}`, who, validateBody(sheetTransitionSchema), async (req, res) => {
@@ -46,31 +35,11 @@ export function reviewRoutes(registry: RouteSpec[], deps: ReviewRouteDeps) {
   transition('check', ['reviewer']);
   transition('issue', ['engineer']);
 
-  routes.add('get', '/sheets/:id/pdf', ANY_ROLE, async (req, res) => {
-    const { bytes, name } = await archive.getIssuedPdf(idParam(req.params.id, 'That sheet revision'), deps.sheets);
-    res.attachment(name).type('application/pdf').send(bytes);
-  });
   routes.add('post', '/sheets/:id/comments', ['engineer', 'reviewer'], validateBody(newSheetCommentSchema), async (req, res) => {
-    res.status(201).json(await review.addComment(idParam(req.params.id, 'That sheet revision'), req.body, actorOf(req), deps));
+    res.status(201).json(await comments.addComment(idParam(req.params.id, 'That sheet revision'), req.body, actorOf(req), deps));
   });
   routes.add('patch', '/sheet-comments/:id', ['engineer', 'reviewer'], validateBody(sheetCommentResolveSchema), async (req, res) => {
-    res.json(await review.resolveComment(idParam(req.params.id, 'That comment'), req.body.resolved, actorOf(req), deps));
-  });
-
-  routes.add('get', '/archive', ANY_ROLE, async (req, res) => {
-    const parsed = archiveQuerySchema.safeParse(req.query);
-    if (!parsed.success) throw validationError(parsed.error);
-    res.json(await archive.searchArchive(parsed.data));
-  });
-  routes.add('post', '/archive/verify', ANY_ROLE, verifyUpload.single('file'), async (req, res) => {
-    if (!req.file) {
-      throw new AppError('file-missing', 'No file came with the upload. Drop a PDF and send it in the field named "file".', 400);
-    }
-    res.json(await archive.verifyPdf(req.file.buffer, deps));
-  });
-  routes.add('get', '/firm/signing-key', ['admin'], (_req, res) => {
-    const view: FirmSigningKeyView = { algorithm: 'Ed25519', publicKeyPem: deps.key.publicKeyPem, fingerprint: deps.key.fingerprint };
-    res.json(view);
+    res.json(await comments.resolveComment(idParam(req.params.id, 'That comment'), req.body.resolved, actorOf(req), deps));
   });
   return routes.router;
 }

@@ -1,22 +1,16 @@
 import crypto from 'node:crypto';
 import type { Role } from '@shared/schemas/auth.schema';
-import {
-  sheetRevisionLabel,
-  type PersonRef,
-  type SheetAction,
-  type SheetCommentView,
-  type SheetEventView,
-  type SheetRevisionSummaryView,
-  type SheetRevisionView,
-  type SheetStatus,
-} from '@shared/schemas/review.schema';
+import { sheetRevisionLabel, type SheetAction, type SheetEventView, type SheetRevisionSummaryView, type SheetRevisionView } from '@shared/schemas/review.schema';
 import { AppError, notFound } from '../../errors/app-error';
 import type { Mailer } from '../../mail/mailer';
 import type { FileStore } from '../../storage/file-store';
 import type { FirmKey } from '../records/firm-key';
 import { issuedRecordText, issuedSigners } from '../records/issued-record';
+import { recordsRepository as records, type RevisionRow, type TrussContext } from '../records/records.repository';
+import { statusConflict, TRANSITIONS } from './revision-status';
 import { reviewMailSend, type ReviewMailKind } from './sheet-revisions.mail';
-import { reviewRepository as repo, type CommentRow, type RevisionRow, type TrussContext } from './sheet-revisions.repository';
+import { sheetRevisionsRepository as repo } from './sheet-revisions.repository';
+import { commentThreads, pageUrl, peopleOf, person, summaryView } from './sheet-revisions.views';
 import type { RunSource, SheetRenderer } from './sheet-renderer';
 
 export interface Actor {
@@ -37,52 +31,14 @@ export interface ReviewServiceDeps {
   now?: () => Date;
 }
 
-const FROZEN: readonly SheetStatus[] = ['issued', 'superseded'];
-
-const STATUS_WORDS: Record<SheetStatus, string> = {
-  draft: 'a draft',
-  'in-check': 'in check',
-  returned: 'returned',
-  checked: 'checked',
-  issued: 'issued',
-  superseded: 'superseded',
-};
-
-const TRANSITIONS: Record<SheetAction, { from: SheetStatus; to: SheetStatus; verb: string; mail: ReviewMailKind }> = {
-  submit: { from: 'draft', to: 'in-check', verb: 'submitted for check', mail: 'submitted' },
-  return: { from: 'in-check', to: 'returned', verb: 'returned', mail: 'returned' },
-  check: { from: 'in-check', to: 'checked', verb: 'checked', mail: 'checked' },
-  issue: { from: 'checked', to: 'issued', verb: 'issued', mail: 'issued' },
-};
-
-const pageUrl = (deps: Pick<ReviewServiceDeps, 'publicUrl'>, id: number) => `${deps.publicUrl().replace(/\/+$/, '')}/sheets/${id}`;
-
-function frozenError(row: RevisionRow): AppError {
-  return new AppError(
-    'sheet-issued',
-    `Revision ${sheetRevisionLabel(row.number)} is ${STATUS_WORDS[row.status]} and can no longer change. Start a new revision from a new analysis run instead.`,
-    409,
-  );
-}
-
-function statusConflict(row: RevisionRow, action: SheetAction): AppError {
-  if (FROZEN.includes(row.status)) return frozenError(row);
-  const t = TRANSITIONS[action];
-  return new AppError(
-    'sheet-status-conflict',
-    `Revision ${sheetRevisionLabel(row.number)} is ${STATUS_WORDS[row.status]}; it can be ${t.verb} only when it is ${STATUS_WORDS[t.from]}. Reload the sheet to see its current status.`,
-    409,
-  );
-}
-
-async function revisionOr404(id: number): Promise<RevisionRow> {
-  const row = await repo.findRevision(id);
+export async function revisionOr404(id: number): Promise<RevisionRow> {
+  const row = await records.findRevision(id);
   if (!row) throw notFound('That sheet revision');
   return row;
 }
 
-async function contextOr404(trussId: number): Promise<TrussContext> {
-  const context = await repo.trussContext(trussId);
+export async function contextOr404(trussId: number): Promise<TrussContext> {
+  const context = await records.trussContext(trussId);
   if (!context) throw notFound('That truss');
   return context;
 }
@@ -104,7 +60,7 @@ export async function createRevision(input: { trussId: number; runId: number; no
 
 export async function listTrussRevisions(trussId: number): Promise<SheetRevisionSummaryView[]> {
   const context = await contextOr404(trussId);
-  const rows = await repo.listRevisions({ trussId });
+  const rows = await records.listRevisions({ trussId });
   const [names, open] = await Promise.all([repo.userNames(rows.flatMap(peopleOf)), repo.openThreadCounts(rows.map((r) => r.id))]);
   const labels = new Map(rows.map((r) => [r.id, sheetRevisionLabel(r.number)]));
   return rows.map((r) => summaryView(r, context, names, open.get(r.id) ?? 0, labels));
@@ -114,9 +70,9 @@ export async function getRevision(id: number, deps: Pick<ReviewServiceDeps, 'pub
   const row = await revisionOr404(id);
   const context = await contextOr404(row.trussId);
   const [events, comments, siblings] = await Promise.all([
-    repo.events(row.id),
+    records.events(row.id),
     repo.commentsUpTo(row.trussId, row.number),
-    repo.listRevisions({ trussId: row.trussId }),
+    records.listRevisions({ trussId: row.trussId }),
   ]);
   const labels = new Map(siblings.map((r) => [r.id, sheetRevisionLabel(r.number)]));
   const names = await repo.userNames([
@@ -291,109 +247,3 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
   }
 }
 
-/** Adds a comment on a step of a revision, or a reply to a thread. */
-export async function addComment(
-  revisionId: number,
-  input: { anchor?: string; body: string; parentId?: number },
-  actor: Actor,
-  deps: Pick<ReviewServiceDeps, 'publicUrl'>,
-): Promise<SheetCommentView> {
-  const row = await revisionOr404(revisionId);
-  if (FROZEN.includes(row.status)) throw frozenError(row);
-  let anchor = input.anchor;
-  if (input.parentId !== undefined) {
-    const parent = await repo.findComment(input.parentId);
-    if (!parent || parent.trussId !== row.trussId) throw notFound('The comment you are replying to');
-    if (parent.parentId !== null) {
-      throw new AppError('reply-to-reply', 'Reply to the thread’s first comment; threads are one level deep.', 422);
-    }
-    anchor = parent.anchor;
-    const parentRevision = await revisionOr404(parent.revisionId);
-    if (parentRevision.number > row.number) throw notFound('The comment you are replying to');
-  }
-  const created = await repo.createComment({
-    revisionId: row.id,
-    trussId: row.trussId,
-    parentId: input.parentId ?? null,
-    anchor: anchor!,
-    body: input.body,
-    authorId: actor.id,
-  });
-  return commentView(created.parentId ?? created.id, deps, created.id);
-}
-
-/** Marks a thread resolved (or open again). Threads on issued revisions stay as they were. */
-export async function resolveComment(id: number, resolved: boolean, actor: Actor, deps: Pick<ReviewServiceDeps, 'publicUrl' | 'now'>): Promise<SheetCommentView> {
-  const comment = await repo.findComment(id);
-  if (!comment) throw notFound('That comment');
-  if (comment.parentId !== null) {
-    throw new AppError('resolve-thread', 'Resolve the thread through its first comment, not a reply.', 422);
-  }
-  const row = await revisionOr404(comment.revisionId);
-  if (FROZEN.includes(row.status)) throw frozenError(row);
-  await repo.setResolved(id, resolved ? { userId: actor.id, at: (deps.now ?? (() => new Date()))() } : null);
-  return commentView(id, deps);
-}
-
-async function commentView(threadId: number, _deps: unknown, pick?: number): Promise<SheetCommentView> {
-  const root = await repo.findComment(threadId);
-  if (!root) throw notFound('That comment');
-  const revision = await revisionOr404(root.revisionId);
-  const all = (await repo.commentsUpTo(root.trussId, Number.MAX_SAFE_INTEGER)).filter((c) => c.id === root.id || c.parentId === root.id);
-  const siblings = await repo.listRevisions({ trussId: root.trussId });
-  const labels = new Map(siblings.map((r) => [r.id, sheetRevisionLabel(r.number)]));
-  labels.set(revision.id, sheetRevisionLabel(revision.number));
-  const names = await repo.userNames(all.flatMap((c) => [c.authorId, c.resolvedById]));
-  const [thread] = commentThreads(all, names, labels);
-  if (pick !== undefined && pick !== thread.id) return thread.replies.find((r) => r.id === pick)!;
-  return thread;
-}
-
-function commentThreads(rows: CommentRow[], names: Map<number, string>, labels: Map<number, string>): SheetCommentView[] {
-  const toView = (c: CommentRow): SheetCommentView => ({
-    id: c.id,
-    revisionId: c.revisionId,
-    revisionLabel: labels.get(c.revisionId) ?? '',
-    anchor: c.anchor,
-    body: c.body,
-    author: person(c.authorId, names)!,
-    createdAt: c.createdAt.toISOString(),
-    parentId: c.parentId,
-    resolved: c.parentId === null && c.resolvedAt !== null,
-    resolvedBy: person(c.resolvedById, names),
-    resolvedAt: c.resolvedAt?.toISOString() ?? null,
-    replies: [],
-  });
-  const threads = new Map<number, SheetCommentView>();
-  for (const c of rows) if (c.parentId === null) threads.set(c.id, toView(c));
-  for (const c of rows) if (c.parentId !== null) threads.get(c.parentId)?.replies.push(toView(c));
-  return [...threads.values()];
-}
-
-function peopleOf(r: RevisionRow): (number | null)[] {
-  return [r.preparedById, r.checkedById, r.issuedById];
-}
-
-function person(id: number | null, names: Map<number, string>): PersonRef | null {
-  return id === null ? null : { id, name: names.get(id) ?? '(unknown)' };
-}
-
-function summaryView(r: RevisionRow, c: TrussContext, names: Map<number, string>, openCommentCount: number, labels: Map<number, string>): SheetRevisionSummaryView {
-  return {
-    id: r.id,
-    projectId: c.projectId,
-    trussId: r.trussId,
-    runId: r.runId,
-    number: r.number,
-    label: sheetRevisionLabel(r.number),
-    status: r.status,
-    // Signed names are the ones printed; the live name is only for revisions not yet signed.
-    preparedBy: { id: r.preparedById, name: r.preparedByName ?? names.get(r.preparedById) ?? '(unknown)' },
-    checkedBy: r.checkedById === null ? null : { id: r.checkedById, name: r.checkedByName ?? names.get(r.checkedById) ?? '(unknown)' },
-    issuedBy: r.issuedById === null ? null : { id: r.issuedById, name: r.issuedByName ?? names.get(r.issuedById) ?? '(unknown)' },
-    createdAt: r.createdAt.toISOString(),
-    updatedAt: r.updatedAt.toISOString(),
-    supersededBy: r.supersededById === null ? null : { id: r.supersededById, label: labels.get(r.supersededById) ?? '' },
-    openCommentCount,
-  };
-}

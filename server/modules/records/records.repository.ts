@@ -1,0 +1,132 @@
+import type { WhereOptions } from 'sequelize';
+import type { SheetStatus } from '@shared/schemas/review.schema';
+import { Project, SheetRevision, SheetRevisionEvent, Truss } from '../../db/models';
+
+/**
+ * Reads of what is kept: sheet revisions as stored (the issued ones are frozen by the
+ * database's triggers), their audit log (written by a trigger, append-only), the truss and
+ * project they belong to, and the archive search. Returns plain objects. The writes of the
+ * check flow are in sheet-revisions.repository.ts, which builds on these rows.
+ */
+
+export interface RevisionRow {
+  id: number;
+  trussId: number;
+  runId: number;
+  number: number;
+  status: SheetStatus;
+  preparedById: number;
+  checkedById: number | null;
+  issuedById: number | null;
+  preparedByName: string | null;
+  checkedByName: string | null;
+  issuedByName: string | null;
+  submittedAt: Date | null;
+  checkedAt: Date | null;
+  issuedAt: Date | null;
+  supersededAt: Date | null;
+  supersededById: number | null;
+  pdfStoredName: string | null;
+  pdfSize: number | null;
+  sha256: string | null;
+  signedRecord: string | null;
+  signature: string | null;
+  keyFingerprint: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+export interface EventRow {
+  id: number;
+  revisionId: number;
+  fromStatus: SheetStatus | null;
+  toStatus: SheetStatus;
+  actorId: number | null;
+  note: string;
+  at: Date;
+}
+
+export interface TrussContext {
+  trussId: number;
+  trussName: string;
+  projectId: number;
+  projectName: string;
+  jobNumber: string;
+}
+
+const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(v as string));
+
+export function revisionRow(r: SheetRevision): RevisionRow {
+  const p = r.get({ plain: true }) as unknown as RevisionRow;
+  return {
+    ...p,
+    submittedAt: toDate(p.submittedAt),
+    checkedAt: toDate(p.checkedAt),
+    issuedAt: toDate(p.issuedAt),
+    supersededAt: toDate(p.supersededAt),
+    createdAt: new Date(p.createdAt),
+    updatedAt: new Date(p.updatedAt),
+  };
+}
+
+export const recordsRepository = {
+  async findRevision(id: number): Promise<RevisionRow | null> {
+    const r = await SheetRevision.findByPk(id);
+    return r ? revisionRow(r) : null;
+  },
+
+  async listRevisions(where: { trussId?: number; trussIds?: number[]; statuses?: SheetStatus[]; sha256?: string }): Promise<RevisionRow[]> {
+    const w: WhereOptions = {};
+    if (where.trussId !== undefined) Object.assign(w, { trussId: where.trussId });
+    if (where.trussIds !== undefined) Object.assign(w, { trussId: where.trussIds });
+    if (where.statuses !== undefined) Object.assign(w, { status: where.statuses });
+    if (where.sha256 !== undefined) Object.assign(w, { sha256: where.sha256 });
+    const rows = await SheetRevision.findAll({ where: w, order: [['trussId', 'ASC'], ['number', 'DESC']] });
+    return rows.map(revisionRow);
+  },
+
+  async events(revisionId: number): Promise<EventRow[]> {
+    const rows = await SheetRevisionEvent.findAll({ where: { revisionId }, order: [['id', 'ASC']] });
+    return rows.map((e) => ({ ...(e.get({ plain: true }) as unknown as EventRow), at: new Date(e.at) }));
+  },
+
+  async trussContext(trussId: number): Promise<TrussContext | null> {
+    const truss = await Truss.findByPk(trussId);
+    if (!truss) return null;
+    const project = await Project.findByPk(truss.projectId);
+    if (!project) return null;
+    return { trussId, trussName: truss.name, projectId: project.id, projectName: project.name, jobNumber: project.jobNumber };
+  },
+
+  async trussContexts(trussIds: number[]): Promise<Map<number, TrussContext>> {
+    const out = new Map<number, TrussContext>();
+    if (trussIds.length === 0) return out;
+    const trusses = await Truss.findAll({ where: { id: trussIds } });
+    const projects = new Map((await Project.findAll({ where: { id: [...new Set(trusses.map((t) => t.projectId))] } })).map((p) => [p.id, p]));
+    for (const t of trusses) {
+      const p = projects.get(t.projectId);
+      if (p) out.set(t.id, { trussId: t.id, trussName: t.name, projectId: p.id, projectName: p.name, jobNumber: p.jobNumber });
+    }
+    return out;
+  },
+
+  /** Trusses whose job number, project or truss name contain the given texts (case-insensitive). */
+  async trussIdsMatching(filter: { text?: string; jobNumber?: string; project?: string; truss?: string }): Promise<number[]> {
+    // Filtered here rather than with LIKE, whose escaping differs between SQLite and PostgreSQL.
+    const projects = new Map((await Project.findAll({ attributes: ['id', 'name', 'jobNumber'], raw: true })).map((p) => [p.id, p]));
+    const trusses = await Truss.findAll({ attributes: ['id', 'name', 'projectId'], raw: true });
+    const has = (value: string, part?: string) => !part || value.toLowerCase().includes(part.toLowerCase());
+    return trusses
+      .filter((t) => {
+        const p = projects.get(t.projectId);
+        if (!p) return false;
+        return (
+          has(p.jobNumber, filter.jobNumber) &&
+          has(p.name, filter.project) &&
+          has(t.name, filter.truss) &&
+          (!filter.text || [t.name, p.name, p.jobNumber].some((s) => has(s, filter.text)))
+        );
+      })
+      .map((t) => t.id);
+  },
+};

@@ -1,0 +1,46 @@
+import multer from 'multer';
+import { archiveQuerySchema, type FirmSigningKeyView } from '@shared/schemas/review.schema';
+import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
+import { idParam } from '../../middleware/validate';
+import { validationError } from '../../middleware/error-handler';
+import { AppError } from '../../errors/app-error';
+import type { FileStore } from '../../storage/file-store';
+import * as archive from './archive.service';
+import type { FirmKey } from './firm-key';
+import { verifyPdf } from './verify.service';
+
+export interface RecordsRouteDeps {
+  /** The firm's Ed25519 key, which signed every issued record. */
+  key: FirmKey;
+  /** Where issued PDFs are kept. */
+  sheets: FileStore;
+  maxVerifyBytes: number;
+}
+
+/** What is issued and kept: the archived PDFs, the archive search, verification, the firm key. */
+export function recordsRoutes(registry: RouteSpec[], deps: RecordsRouteDeps) {
+  const routes = new ApiRoutes('/api', registry);
+  // Held in memory only: a verify upload is hashed and dropped, never written anywhere.
+  const verifyUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: deps.maxVerifyBytes, files: 1, fields: 5 } });
+
+  routes.add('get', '/sheets/:id/pdf', ANY_ROLE, async (req, res) => {
+    const { bytes, name } = await archive.getIssuedPdf(idParam(req.params.id, 'That sheet revision'), deps.sheets);
+    res.attachment(name).type('application/pdf').send(bytes);
+  });
+  routes.add('get', '/archive', ANY_ROLE, async (req, res) => {
+    const parsed = archiveQuerySchema.safeParse(req.query);
+    if (!parsed.success) throw validationError(parsed.error);
+    res.json(await archive.searchArchive(parsed.data));
+  });
+  routes.add('post', '/archive/verify', ANY_ROLE, verifyUpload.single('file'), async (req, res) => {
+    if (!req.file) {
+      throw new AppError('file-missing', 'No file came with the upload. Drop a PDF and send it in the field named "file".', 400);
+    }
+    res.json(await verifyPdf(req.file.buffer, deps));
+  });
+  routes.add('get', '/firm/signing-key', ['admin'], (_req, res) => {
+    const view: FirmSigningKeyView = { algorithm: 'Ed25519', publicKeyPem: deps.key.publicKeyPem, fingerprint: deps.key.fingerprint };
+    res.json(view);
+  });
+  return routes.router;
+}
