@@ -1,9 +1,10 @@
 import { Link, useParams } from 'react-router-dom';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
-import { sheetPdfUrl, sheetPreviewUrl, useSheet } from '@/features/sheet-revisions/api/get-sheet';
+import { sheetPreviewUrl, useSheet } from '@/features/sheet-revisions/api/get-sheet';
 import { SheetActions } from '@/features/sheet-revisions/components/sheet-actions';
 import { SheetAuditLog } from '@/features/sheet-revisions/components/sheet-audit-log';
+import { archivedPdfUrl } from '@/features/records/api/get-archive';
 import { SheetIssueRecord } from '@/features/records/components/sheet-issue-record';
 import { SheetReview } from '@/features/sheet-revisions/components/sheet-review';
 import { SheetSigners } from '@/features/sheet-revisions/components/sheet-signers';
@@ -69,7 +70,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
             </a>
             {archived && (
               <a
-                href={sheetPdfUrl(s.id)}
+                href={archivedPdfUrl(s.id)}
                 download
                 className="inline-flex h-9 items-center rounded-md border border-accent bg-accent px-4 text-sm font-medium text-paper-raised hover:bg-accent-hover"
               >

@@ -20,7 +20,3 @@ export function sheetPreviewUrl(sheetId: number): string {
   return `/api/sheets/${sheetId}/preview`;
 }
 
-/** The archived PDF's exact bytes (issued and superseded revisions only). */
-export function sheetPdfUrl(sheetId: number): string {
-  return `/api/sheets/${sheetId}/pdf`;
-}
