@@ -1,0 +1,87 @@
+import katex from 'katex';
+import type { JointLoad, TrussModel } from '@shared/model/truss';
+import { stepToKatex, type SolverStep } from '@shared/solver';
+import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
+import { forceSenseOf, jointFbdSvg } from '../truss-svg';
+import type { StepView } from './types';
+
+/** How the sheet writes numbers, units, member forces and equations. Pure. */
+
+/** Typesets KaTeX source to HTML (display mode). Throws on bad source so a sheet never prints raw TeX. */
+export function katexHtml(source: string, display = true): string {
+  return katex.renderToString(source, { displayMode: display, output: 'html', throwOnError: true, strict: 'ignore' });
+}
+
+/**
+ * Typesets one equation of a step in display style but as inline math, so that a long equation
+ * (a moment sum over many joints) breaks after a relation or an operator instead of running off
+ * the page. KaTeX breaks inline math only there.
+ */
+function equationHtml(source: string): string {
+  return katex.renderToString(`\\displaystyle ${source}`, { displayMode: false, output: 'html', throwOnError: true, strict: 'ignore' });
+}
+
+export interface Formatters {
+  system: UnitSystemId;
+  unit(q: Quantity): string;
+  /** Number in display units, fixed decimals, no unit. */
+  num(valueInBase: number, q: Quantity, signed?: boolean): string;
+  /** Number with its unit. */
+  qty(valueInBase: number, q: Quantity): string;
+  /** Member force: "+18.75 kN (T)", "−33.75 kN (C)", "0.00 kN". */
+  member(kN: number): string;
+  /** Member force without unit, for tables with the unit in the heading: "+18.75", "−33.75", "0.00". */
+  memberNum(kN: number): string;
+  sense(kN: number): string;
+  zeroTol: number;
+}
+
+export function formatters(system: UnitSystemId, zeroTol: number): Formatters {
+  const unit = (q: Quantity) => UNIT_SYSTEMS[system][q];
+  const num = (v: number, q: Quantity, signed = false) => {
+    const u = unit(q);
+    return numberFormat(unitFromBase(v, u), UNIT_DECIMALS[u], { signed });
+  };
+  const qty = (v: number, q: Quantity) => `${num(v, q)}\u202f${unit(q)}`;
+  const sense = (kN: number) => {
+    const s = forceSenseOf(kN, zeroTol);
+    return s === '0' ? '0' : `(${s})`;
+  };
+  const memberNum = (kN: number) => (forceSenseOf(kN, zeroTol) === '0' ? num(0, 'force') : num(kN, 'force', true));
+  const member = (kN: number) => {
+    const s = forceSenseOf(kN, zeroTol);
+    return s === '0' ? `${num(0, 'force')}\u202f${unit('force')}` : `${memberNum(kN)}\u202f${unit('force')} (${s})`;
+  };
+  return { system, unit, num, qty, member, memberNum, sense, zeroTol };
+}
+
+export function isoMinute(at: Date | string): string {
+  const d = typeof at === 'string' ? new Date(at) : at;
+  if (Number.isNaN(d.getTime())) return String(at);
+  return `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+}
+
+export function stepView(step: SolverStep, fmt: Formatters): StepView {
+  const lines = stepToKatex(step, { decimals: 3 }).map((src) => equationHtml(src));
+  const view: StepView = { id: step.id, title: step.title, lines };
+  if (step.kind === 'joint') {
+    view.svg = jointFbdSvg(step, { formatForce: (kN) => fmt.qty(kN, 'force'), zeroTolerance: fmt.zeroTol });
+  }
+  return view;
+}
+
+export function loadsOf(model: TrussModel, caseId: string): JointLoad[] {
+  return model.loadCases.find((c) => c.id === caseId)?.loads ?? [];
+}
+
+export function tagOf(model: TrussModel) {
+  const joints = new Map(model.joints.map((j) => [j.id, j.tag]));
+  const members = new Map(model.members.map((m) => [m.id, m.tag]));
+  return { joint: (id: string) => joints.get(id) ?? id, member: (id: string) => members.get(id) ?? id };
+}
+
+export function factorsText(factors: Record<string, number>): string {
+  return Object.entries(factors)
+    .map(([id, f], i) => `${i === 0 ? '' : ' + '}${numberFormat(f, 2).replace(/\.?0+$/, '') || '0'}\u2009${id}`)
+    .join('');
+}

@@ -1,0 +1,55 @@
+import { sheetContext, type SectionKeys } from './context';
+import { coverOf } from './cover';
+import { titleBlockSection } from './title-block';
+import { designBasisSection } from './design-basis';
+import { geometrySection } from './geometry';
+import { supportsSection } from './supports';
+import { takeoffSection } from './takeoff';
+import { loadsSection } from './loads';
+import { stabilitySection } from './stability';
+import { casesSection } from './cases';
+import { combinationsSection } from './combinations';
+import { envelopeSection } from './envelope';
+import { residualSection } from './residual';
+import type { CalcSheetInput, CalcSheetView } from './types';
+
+/**
+ * The sections of the sheet in the order of its contents. A new section is a new file in this
+ * folder (a `SheetSection` naming the view fields it fills) and one line here.
+ */
+const SECTIONS = [
+  titleBlockSection,
+  designBasisSection,
+  geometrySection,
+  supportsSection,
+  takeoffSection,
+  loadsSection,
+  stabilitySection,
+  casesSection,
+  combinationsSection,
+  envelopeSection,
+  residualSection,
+] as const;
+
+/** An unstable truss's sheet leads with the finding and lists only these sections, in this order. */
+const UNSTABLE_CONTENTS = ['stability', 'geometry', 'design-basis'];
+
+// Compile-time check that the sections (and the cover) fill every field of the view.
+type Unfilled = Exclude<keyof CalcSheetView, SectionKeys<(typeof SECTIONS)[number]> | 'cover' | 'numbers'>;
+const everyFieldFilled: [Unfilled] extends [never] ? true : Unfilled = true;
+void everyFieldFilled;
+
+/**
+ * Builds the calc sheet's view from a model and its analysis. Every number is written with
+ * its unit in the project's unit system (tables) — the joint-by-joint equations are the solver's
+ * own KaTeX, in kN and m.
+ */
+export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
+  const ctx = sheetContext(input);
+  const parts = SECTIONS.map((s) => s.build(ctx));
+  const view = Object.assign({}, ...parts.map((p) => p.view)) as Omit<CalcSheetView, 'cover' | 'numbers'>;
+  const listed = parts.flatMap((p) => p.contents ?? []);
+  const contents = ctx.unstable ? UNSTABLE_CONTENTS.flatMap((a) => listed.filter((c) => c.anchor === a)) : listed;
+  const summary = parts.flatMap((p) => p.summary ?? []);
+  return { ...view, ...coverOf(ctx, view.units, contents, summary) };
+}

@@ -1,0 +1,16 @@
+import { takeoffStepKatex } from '@shared/takeoff';
+import type { StepView } from './types';
+import { katexHtml } from './format';
+import type { SheetSection } from './context';
+
+/** The roof load takeoff, step by step, when the loads came from one. */
+export const takeoffSection: SheetSection<'takeoff'> = {
+  build({ input, system }) {
+    const takeoff: StepView[] = (input.takeoffSteps ?? []).map((s) => ({
+      id: s.id,
+      title: s.title,
+      lines: [katexHtml(takeoffStepKatex(s, { system }))],
+    }));
+    return { view: { takeoff }, contents: takeoff.length ? [{ anchor: 'takeoff', title: 'Roof load takeoff' }] : [] };
+  },
+};

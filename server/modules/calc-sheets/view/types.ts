@@ -1,0 +1,136 @@
+import type { TrussModel } from '@shared/model/truss';
+import type { FirmSettings, UnitSystem } from '@shared/schemas/project.schema';
+import type { TrussAnalysis } from '@shared/solver';
+import type { TakeoffStep } from '@shared/takeoff';
+
+/** A person who prepared or checked the sheet, with the date they did it (as it should print). */
+export interface SheetSigner {
+  name: string;
+  date?: string;
+}
+
+/** What a calc sheet is made from. */
+export interface CalcSheetInput {
+  firm: FirmSettings;
+  project: {
+    name: string;
+    jobNumber: string;
+    client?: string;
+    site?: string;
+    /** Free text: codes, materials, assumptions. */
+    designBasis?: string;
+    unitSystem: UnitSystem;
+  };
+  trussName: string;
+  /** The sheet's subject line, e.g. "Truss T1: member forces". */
+  subject: string;
+  /** Revision label, e.g. "A", "P1". */
+  revision: string;
+  preparedBy?: SheetSigner;
+  checkedBy?: SheetSigner;
+  /** Set on the issued print only: the engineer who issued it. */
+  issuedBy?: SheetSigner;
+  model: TrussModel;
+  analysis: TrussAnalysis;
+  /** Roof takeoff steps (shared/takeoff), when the loads came from a takeoff. */
+  takeoffSteps?: TakeoffStep[];
+  /** Which analysis run the sheet was made from (printed on the cover and every page). */
+  runLabel?: string;
+  /** When the sheet was generated. */
+  generatedAt: Date | string;
+}
+
+/** A step of the sheet: a stable anchor id (the solver's step id), a title and typeset lines. */
+export interface StepView {
+  id: string;
+  title: string;
+  /** KaTeX HTML, one display equation per entry. */
+  lines: string[];
+  /** Free-body diagram SVG (joint steps). */
+  svg?: string;
+  /** Plain-language note under the equations. */
+  note?: string;
+}
+
+export interface TableRow {
+  cells: string[];
+  /** Extra CSS class for the row (e.g. 'zero'). */
+  cls?: string;
+}
+
+export interface CaseView {
+  id: string;
+  anchor: string;
+  caseId: string;
+  title: string;
+  method: string;
+  loadingSvg: string;
+  loadRows: TableRow[];
+  zeroForce: { rows: TableRow[]; steps: StepView[] };
+  reactionSteps: StepView[];
+  reactionNote?: string;
+  reactionRows: TableRow[];
+  jointSteps: StepView[];
+  simultaneousSteps: StepView[];
+  stiffnessSteps: StepView[];
+  forceRows: TableRow[];
+  forceSvg: string;
+  check: StepView & { verdict: string; ok: boolean };
+  symmetryNote?: string;
+}
+
+/** A line of the cover's contents: the section's anchor and its title. */
+export interface ContentsEntry {
+  anchor: string;
+  title: string;
+}
+
+/** A line of the cover's summary. */
+export interface SummaryRow {
+  label: string;
+  value: string;
+}
+
+export interface CalcSheetView {
+  paper: 'A4' | 'Letter';
+  documentTitle: string;
+  unstable: boolean;
+  units: { system: string; force: string; length: string; note?: string };
+  titleBlock: {
+    firm: string;
+    firmAddress: string;
+    project: string;
+    jobNumber: string;
+    subject: string;
+    revision: string;
+    preparedBy: string;
+    preparedDate: string;
+    checkedBy: string;
+    checkedDate: string;
+    /** Empty until the sheet is issued. */
+    issuedBy: string;
+    issuedDate: string;
+    run: string;
+  };
+  cover: {
+    rows: SummaryRow[];
+    summary: SummaryRow[];
+    contents: ContentsEntry[];
+  };
+  /** Section number by anchor ("1", "2", …), in the order of the contents. */
+  numbers: Record<string, string>;
+  caution: string;
+  designBasis: { paragraphs: string[]; clauses: string[]; method: string[] };
+  geometry: { svg: string; jointRows: TableRow[]; memberRows: TableRow[] };
+  supports: { rows: TableRow[]; materialRows: TableRow[]; materialNote: string };
+  takeoff: StepView[];
+  loadCases: { rows: TableRow[] };
+  combinations: { rows: TableRow[] };
+  stability: StepView & { verdict: string; message: string; mechanism: string; symmetry: string };
+  cases: CaseView[];
+  comboTables: { title: string; head: string[]; rows: TableRow[] }[];
+  comboResidualRows: TableRow[];
+  envelope: { source: string; rows: TableRow[] };
+  residual: { rows: TableRow[]; verdict: string; ok: boolean };
+  generatedAt: string;
+}
