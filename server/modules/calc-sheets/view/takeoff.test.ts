@@ -1,0 +1,37 @@
+import { describe, expect, it } from 'vitest';
+import { roofTakeoff } from '@shared/takeoff';
+import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
+import { buildCalcSheetView } from './index';
+import { katexText, sheetInput, triangleModel } from './view-fixtures';
+
+describe('sheet view: roof load takeoff', () => {
+  it('when the loads came from a takeoff, then each step prints under its own id and an interior purlin line load is q times the panel width', () => {
+    // Four 2.5 m panels, flat top chord; 0.6 kPa on plan, trusses at 4 m.
+    const model = modelFromSketch(parallelChordSketch('pratt', 4, 2.5, 2, 1));
+    const top = model.joints.filter((j) => j.tag.startsWith('U'));
+    const takeoff = roofTakeoff({
+      joints: model.joints,
+      topChordJoints: top.map((j) => j.id),
+      areaLoads: [{ caseId: 'D', q: 0.6, basis: 'plan' }],
+      spacing: 4,
+      trussCount: 5,
+      trussIndex: 2,
+      method: 'exact',
+    });
+    const view = buildCalcSheetView(sheetInput(model, { takeoffSteps: takeoff.steps }));
+    expect(view.takeoff.map((s) => s.id)).toEqual(takeoff.steps.map((s) => s.id));
+    expect(view.takeoff.every((s) => s.lines.length === 1 && s.lines[0].includes('class="katex"'))).toBe(true);
+    // An interior purlin takes half of each neighbouring panel: b = 2.5 m, w = q·b = 0.6 × 2.5 = 1.50 kN/m
+    // (tributary width, common practice, no source).
+    const lineStep = takeoff.steps.find((t) => t.kind === 'line-load' && t.jointTag === 'U2');
+    const line = view.takeoff.find((s) => s.id === lineStep?.id);
+    expect(katexText(line!.lines[0])).toContain((0.6 * 2.5).toFixed(2));
+    expect(view.cover.contents.map((c) => c.anchor)).toContain('takeoff');
+  });
+
+  it('when the loads were entered by hand, then there is no takeoff section and no contents line for it', () => {
+    const view = buildCalcSheetView(sheetInput(triangleModel()));
+    expect(view.takeoff).toEqual([]);
+    expect(view.cover.contents.map((c) => c.anchor)).not.toContain('takeoff');
+  });
+});
