@@ -24,6 +24,7 @@ const RULES: Rule[] = [
     from: /^src\/features\/([^/]+)\//,
     not: (f, m) => f.startsWith('src/features/') && !f.startsWith(`src/features/${m[1]}/`),
   },
+  { why: 'app/ composes the features; they, components/ and lib/ never import it', from: /^src\/(features|components|lib)\//, not: (f) => f.startsWith('src/app/') },
   {
     why: 'calc-sheets renders and knows nothing of revisions or records',
     from: /^server\/modules\/calc-sheets\//,
