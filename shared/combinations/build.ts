@@ -37,6 +37,12 @@ export interface CodeCombination extends Combination {
   expression: string;
   /** Load case id → why its factor is what it is, with the clause. */
   factorNotes: Record<string, string>;
+  /** Ids of the cases that act (factor ≠ 0), in the order of the rule. */
+  acting: string[];
+  /** Ids of the variable cases left out of this combination (absent, or an alternative not chosen). */
+  notActing: string[];
+  /** Clauses of other rules that give the same factors (listed once, here). */
+  alsoBy: string[];
 }
 
 /** The most combinations one set may produce before the builder refuses (too many alternatives). */
@@ -71,21 +77,25 @@ interface Choice {
 }
 
 function ruleExpand(rule: CombinationRule, byCategory: Map<LoadCategory, CaseRef[]>): Choice[][] {
-  // Alternatives per group: 'all' is a single alternative with every case; 'one-of' is one
-  // alternative per case of any listed category (or an empty one when none is present).
-  const groups: Choice[][][] = rule.groups.map((group) => {
+  // Alternatives per group. 'all': every case of the category with the unfavourable factor and,
+  // where the rule gives one, every case with the favourable factor (the whole permanent action
+  // takes one factor). 'one-of': one alternative per case of a listed category, plus "none
+  // acting" (a variable action is left out where it is favourable); a principal group has no
+  // "none" alternative, and a rule whose principal category has no case is not formed.
+  const groups: Choice[][][] = [];
+  for (const group of rule.groups) {
     if (group.kind === 'all') {
-      return [(byCategory.get(group.term.category) ?? []).map((c) => ({ caseId: c.id, term: group.term }))];
+      const members = byCategory.get(group.term.category) ?? [];
+      const terms = group.favourable && members.length > 0 ? [group.term, group.favourable] : [group.term];
+      groups.push(terms.map((term) => members.map((c) => ({ caseId: c.id, term }))));
+      continue;
     }
     const alternatives = group.options.flatMap((term) =>
       (byCategory.get(term.category) ?? []).map((c) => [{ caseId: c.id, term }]),
     );
-    return alternatives.length > 0 ? alternatives : [[]];
-  });
-  const hasVariable = rule.groups.some(
-    (group, i) => group.kind === 'one-of' && groups[i].some((alternative) => alternative.length > 0),
-  );
-  if (rule.needs === 'variable' && !hasVariable) return [];
+    if (group.principal && alternatives.length === 0) return [];
+    groups.push(group.principal ? alternatives : [...alternatives, []]);
+  }
   let combos: Choice[][] = [[]];
   for (const alternatives of groups) {
     const next: Choice[][] = [];
@@ -98,8 +108,33 @@ function ruleExpand(rule: CombinationRule, byCategory: Map<LoadCategory, CaseRef
       );
     }
   }
-  return combos.filter((choices) => choices.length > 0);
+  return combos.filter((choices) => {
+    if (choices.length === 0) return false;
+    // A 'variable' rule needs at least one variable action acting (else it repeats 1.4D or D).
+    return rule.needs === 'always' || choices.some((x) => x.term.category !== 'dead');
+  });
 }
+
+/**
+ * The name tail that says which loads act: "D + S1 + W1" or "D + S1; W1 not acting". The
+ * not-acting list holds the variable cases that some combination of the set could carry.
+ */
+function actingText(choices: Choice[], variableIds: readonly string[]): string {
+  const acting = choices.map((x) => x.caseId);
+  const absent = variableIds.filter((id) => !acting.includes(id));
+  return absent.length === 0 ? acting.join(' + ') : `${acting.join(' + ')}; ${absent.join(', ')} not acting`;
+}
+
+/** Case ids with their factors, sorted: equal keys mean identical combinations. */
+function factorKey(choices: Choice[]): string {
+  return choices
+    .map((x) => `${x.caseId}=${factorText(x.term.factor)}`)
+    .sort()
+    .join('|');
+}
+
+/** Combination names are at most this long (the model's limit). */
+const NAME_MAX = 80;
 
 const LETTERS = 'abcdefghijklmnopqrstuvwxyz';
 function suffix(i: number): string {
@@ -109,17 +144,22 @@ function suffix(i: number): string {
 /**
  * Builds the combinations of a built-in set over the given load cases.
  *
- * - Dead cases act together, each with the dead-load factor.
+ * - Dead cases act together, each with the dead-load factor; where the set has a favourable
+ *   factor (EN 1990 γ_G,inf = 1.00), each rule is also formed with it on the whole permanent action.
  * - Each case of a variable category (live, roof live, snow, wind) is an alternative: one case
  *   per category at a time ("Lr or S or R" takes each roof live and snow case in turn). Split a
  *   variable load into several cases only when they are alternatives (e.g. wind from the left or
  *   the right); cases that always act together belong in one case.
- * - A rule whose variable categories have no case is skipped (the permanent-only rules, such as
- *   1.4D, stay). Wind is taken in the direction its case was entered; no sign reversal is added.
+ * - Every variable action is also left out in turn (ASCE/SEI 7-16 §2.3.1, §2.4.1: "the effects
+ *   of one or more loads not acting"; EN 1990 Table A1.2(B): γ_Q = 0 where favourable), so the
+ *   envelope over the result equals the envelope over every presence pattern of the rules. The
+ *   principal (leading) load of a rule is always present; a rule whose principal category has no
+ *   case is not formed. The permanent-only rules (1.4D, D, γ_G G) stay.
+ * - Wind is taken in the direction its case was entered; no sign reversal is added.
  * - Cases of category 'other' appear in no built-in combination (see {@link combinationsIgnoredCases}).
- * - Identical factor sets from different rules are kept once (the first).
+ * - Identical factor sets from different rules are kept once (the first), naming the others in `alsoBy`.
  *
- * @returns combinations in the order of the standard's rules; names like "LRFD 3a"
+ * @returns combinations in the order of the standard's rules; names like "LRFD 3b: D + S; W not acting"
  * @throws CombinationError 'unknown-set', 'duplicate-load-case', 'unknown-category', 'too-many-combinations'
  */
 export function combinationsBuild(setId: CombinationSetId, loadCases: readonly CaseRef[]): CodeCombination[] {
@@ -134,17 +174,20 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
   const byCategory = new Map<LoadCategory, CaseRef[]>();
   for (const c of loadCases) byCategory.set(c.category, [...(byCategory.get(c.category) ?? []), c]);
 
+  // Variable cases some rule of this set can carry (category 'other' is in no rule).
+  const carried = new Set<LoadCategory>();
+  for (const rule of set.rules)
+    for (const group of rule.groups) if (group.kind === 'one-of') for (const o of group.options) carried.add(o.category);
+  const variableIds = loadCases.filter((c) => carried.has(c.category)).map((c) => c.id);
+
   const result: CodeCombination[] = [];
-  const seen = new Set<string>();
+  const seen = new Map<string, CodeCombination>();
   for (const rule of set.rules) {
     const expanded = ruleExpand(rule, byCategory).filter((choices) => {
-      const key = choices
-        .map((x) => `${x.caseId}=${factorText(x.term.factor)}`)
-        .sort()
-        .join('|');
-      if (seen.has(key)) return false;
-      seen.add(key);
-      return true;
+      const earlier = seen.get(factorKey(choices));
+      // Identical factors from an earlier rule: listed once, with this rule named there.
+      if (earlier && !earlier.alsoBy.includes(rule.clause) && earlier.clause !== rule.clause) earlier.alsoBy.push(rule.clause);
+      return !earlier;
     });
     expanded.forEach((choices, i) => {
       const factors: Record<string, number> = {};
@@ -153,8 +196,10 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
         factors[caseId] = term.factor;
         factorNotes[caseId] = term.note;
       }
-      result.push({
-        name: `${set.prefix} ${rule.id}${expanded.length > 1 ? suffix(i) : ''}`,
+      const label = `${set.prefix} ${rule.id}${expanded.length > 1 ? `${/[A-Za-z]$/.test(rule.id) ? '-' : ''}${suffix(i)}` : ''}`;
+      const long = `${label}: ${actingText(choices, variableIds)}`;
+      const combination: CodeCombination = {
+        name: long.length <= NAME_MAX ? long : label,
         factors,
         clause: rule.clause,
         setId: set.id,
@@ -162,7 +207,12 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
         formula: rule.formula,
         expression: choices.map(({ caseId, term }) => `${factorText(term.factor)} ${caseId}`).join(' + '),
         factorNotes,
-      });
+        acting: choices.map((x) => x.caseId),
+        notActing: variableIds.filter((id) => !choices.some((x) => x.caseId === id)),
+        alsoBy: [],
+      };
+      seen.set(factorKey(choices), combination);
+      result.push(combination);
     });
   }
   return result;

@@ -23,34 +23,34 @@ describe('ASCE/SEI 7-16 strength design (LRFD)', () => {
   // ASCE/SEI 7-16 §2.3.1 (from memory, high confidence):
   // (1) 1.4D  (2) 1.2D + 1.6L + 0.5(Lr or S or R)  (3) 1.2D + 1.6(Lr or S or R) + (L or 0.5W)
   // (4) 1.2D + 1.0W + L + 0.5(Lr or S or R)  (5) 0.9D + 1.0W
-  it('when D, L, Lr, S and W are present, then the ten combinations of (1)–(5) are built with their clauses', () => {
-    const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['L', 'live'], ['Lr', 'roof-live'], ['S', 'snow'], ['W', 'wind']));
+  it('when D, S and W are present, then (1), (3) and (4) are formed with and without each companion load, and (2) is not (no L)', () => {
+    // §2.3.1: "where the effects of one or more loads not acting" shall be investigated, so the
+    // companion 0.5W of (3) and 0.5S of (4) are each also left out; (2) is led by L, which has no case.
+    const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['S', 'snow'], ['W', 'wind']));
     expect(combos.map((c) => [c.name, c.factors])).toEqual([
-      ['LRFD 1', { D: 1.4 }],
-      ['LRFD 2a', { D: 1.2, L: 1.6, Lr: 0.5 }],
-      ['LRFD 2b', { D: 1.2, L: 1.6, S: 0.5 }],
-      ['LRFD 3a', { D: 1.2, Lr: 1.6, L: 1.0 }],
-      ['LRFD 3b', { D: 1.2, Lr: 1.6, W: 0.5 }],
-      ['LRFD 3c', { D: 1.2, S: 1.6, L: 1.0 }],
-      ['LRFD 3d', { D: 1.2, S: 1.6, W: 0.5 }],
-      ['LRFD 4a', { D: 1.2, W: 1.0, L: 1.0, Lr: 0.5 }],
-      ['LRFD 4b', { D: 1.2, W: 1.0, L: 1.0, S: 0.5 }],
-      ['LRFD 5', { D: 0.9, W: 1.0 }],
+      ['LRFD 1: D; S, W not acting', { D: 1.4 }],
+      ['LRFD 3a: D + S + W', { D: 1.2, S: 1.6, W: 0.5 }],
+      ['LRFD 3b: D + S; W not acting', { D: 1.2, S: 1.6 }],
+      ['LRFD 4a: D + W + S', { D: 1.2, W: 1.0, S: 0.5 }],
+      ['LRFD 4b: D + W; S not acting', { D: 1.2, W: 1.0 }],
+      ['LRFD 5: D + W; S not acting', { D: 0.9, W: 1.0 }],
     ]);
-    expect(combos[4].clause).toBe('ASCE/SEI 7-16 §2.3.1 (3)');
-    expect(combos[4].expression).toBe('1.2 D + 1.6 Lr + 0.5 W');
+    expect(combos[2].clause).toBe('ASCE/SEI 7-16 §2.3.1 (3)');
+    expect(combos[2].acting).toEqual(['D', 'S']);
+    expect(combos[2].notActing).toEqual(['W']);
+    expect(combos[1].expression).toBe('1.2 D + 1.6 S + 0.5 W');
   });
 
   it('when D = 15, Lr = 20 and S = 25 psf, then 1.2D + 1.6S = 58.0 psf governs', () => {
-    // Worked check from the factors of ASCE/SEI 7-16 §2.3.1: (1) 21.0, (2) 30.5, (3) 58.0 psf.
+    // Worked check from the factors of ASCE/SEI 7-16 §2.3.1: (1) 21.0, (3) 58.0 psf. (2) is led
+    // by 1.6L and there is no live case, so it is not formed (its 1.2D + 0.5S = 30.5 psf is below (3)).
     const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['Lr', 'roof-live'], ['S', 'snow']));
     const { results, max } = extremes(combos, { D: 15, Lr: 20, S: 25 });
     expect(max.value).toBeCloseTo(58.0, 10);
     expect(combos.find((c) => c.name === max.name)!.clause).toBe('ASCE/SEI 7-16 §2.3.1 (3)');
-    expect(results.find((r) => r.name === 'LRFD 1')!.value).toBeCloseTo(21.0, 10);
-    expect(Math.max(...results.filter((r) => r.name.startsWith('LRFD 2')).map((r) => r.value))).toBeCloseTo(30.5, 10);
-    // (4) without W or L is 1.2D + 0.5(Lr or S), the same as (2): kept once.
-    expect(combos.filter((c) => c.name.startsWith('LRFD 4'))).toHaveLength(0);
+    expect(results.find((r) => r.name.startsWith('LRFD 1'))!.value).toBeCloseTo(21.0, 10);
+    // (2) is led by L and (4) by W: neither has a case, so neither is formed.
+    expect(combos.filter((c) => c.rule === '2' || c.rule === '4')).toHaveLength(0);
   });
 
   it('when D = 15 psf and wind uplift W = −18 psf, then 0.9D + 1.0W = −4.5 psf is the least', () => {
@@ -58,7 +58,7 @@ describe('ASCE/SEI 7-16 strength design (LRFD)', () => {
     const combos = combinationsBuild('asce7-16-strength', cases(['D', 'dead'], ['W', 'wind']));
     const { min } = extremes(combos, { D: 15, W: -18 });
     expect(min.value).toBeCloseTo(-4.5, 10);
-    expect(min.name).toBe('LRFD 5');
+    expect(min.name).toBe('LRFD 5: D + W');
   });
 });
 
@@ -71,7 +71,7 @@ describe('ASCE/SEI 7-16 allowable stress design (ASD)', () => {
     const { results, max } = extremes(combos, { D: 15, Lr: 20, S: 25 });
     expect(max.value).toBeCloseTo(40.0, 10);
     expect(combos.find((c) => c.name === max.name)!.clause).toBe('ASCE/SEI 7-16 §2.4.1 (3)');
-    expect(results.find((r) => r.name === 'ASD 4b')!.value).toBeCloseTo(33.75, 10);
+    expect(results.find((r) => r.name.startsWith('ASD 4b'))!.value).toBeCloseTo(33.75, 10);
   });
 
   it('when D = 15 psf and W = −18 psf, then 0.6D + 0.6W = −1.8 psf is the least', () => {
@@ -84,10 +84,25 @@ describe('ASCE/SEI 7-16 allowable stress design (ASD)', () => {
   it('when wind accompanies live and snow in (6), then its factor is 0.75 × 0.6 = 0.45 and the note says so', () => {
     const combos = combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['L', 'live'], ['S', 'snow'], ['W', 'wind']));
     const six = combos.filter((c) => c.rule === '6');
-    expect(six).toHaveLength(1);
     expect(six[0].factors).toEqual({ D: 1, L: 0.75, W: 0.45, S: 0.75 });
     expect(six[0].factorNotes.W).toContain('0.75 × 0.6 = 0.45');
     expect(six[0].factorNotes.W).toContain('§2.4.1 (6)');
+  });
+
+  it('when D, S and W are present, then (6) is formed with and without each load, and identical combinations are listed once', () => {
+    // §2.4.1 (1) D, (3) D + S, (4) D + 0.75S, (5) D + 0.6W, (6) D + 0.75(0.6W) + 0.75S, (7) 0.6D + 0.6W;
+    // (6) without W is D + 0.75S, the same factors as (4): listed once, under (4).
+    const combos = combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['S', 'snow'], ['W', 'wind']));
+    expect(combos.map((c) => [c.rule, c.factors])).toEqual([
+      ['1', { D: 1 }],
+      ['3', { D: 1, S: 1 }],
+      ['4', { D: 1, S: 0.75 }],
+      ['5', { D: 1, W: 0.6 }],
+      ['6', { D: 1, W: 0.45, S: 0.75 }],
+      ['6', { D: 1, W: 0.45 }],
+      ['7', { D: 0.6, W: 0.6 }],
+    ]);
+    expect(combos[2].alsoBy).toEqual(['ASCE/SEI 7-16 §2.4.1 (6)']);
   });
 });
 
@@ -97,34 +112,69 @@ describe('EN 1990:2002+A1 fundamental combination', () => {
   const snowAndWind = cases(['G', 'dead'], ['S', 'snow'], ['W', 'wind']);
   const values = { G: 2.0, S: 1.0, W: 0.5 };
 
+  const byFactors = (combos: CodeCombination[], factors: Record<string, number>) =>
+    combos.find((c) => JSON.stringify(c.factors) === JSON.stringify(factors))!;
+
   it('when G = 2.0, S = 1.0 and W = 0.5 kPa by (6.10), then snow leading gives 4.65 kPa and wind leading 4.20 kPa', () => {
     const combos = combinationsBuild('en1990-6.10', snowAndWind);
-    const value = (rule: string) => combinationApply(combos.find((c) => c.rule === rule)!, values);
-    expect(value('6.10 S-lead')).toBeCloseTo(4.65, 10);
-    expect(value('6.10 W-lead')).toBeCloseTo(4.2, 10);
-    expect(value('6.10 G')).toBeCloseTo(2.7, 10);
-    // Wind uplift with G favourable: γ_G,inf = 1.00.
-    expect(combos.find((c) => c.rule === '6.10 W-lead G-fav')!.factors).toEqual({ G: 1, W: 1.5 });
+    expect(combinationApply(byFactors(combos, { G: 1.35, S: 1.5, W: 0.9 }), values)).toBeCloseTo(4.65, 10);
+    expect(combinationApply(byFactors(combos, { G: 1.35, W: 1.5, S: 0.75 }), values)).toBeCloseTo(4.2, 10);
+    expect(combinationApply(byFactors(combos, { G: 1.35 }), values)).toBeCloseTo(2.7, 10);
+  });
+
+  it('when G, S and W are present by (6.10), then each leading action is formed with γ_G,sup and γ_G,inf and with and without its companion', () => {
+    // Table A1.2(B): γ_G,sup 1.35 / γ_G,inf 1.00 on the whole permanent action, γ_Q 1.5 (0 where
+    // favourable); ψ0 snow 0.5, wind 0.6 (Table A1.1). No imposed-load case: nothing led by Q or H.
+    const combos = combinationsBuild('en1990-6.10', snowAndWind);
+    expect(combos.map((c) => [c.rule, c.factors])).toEqual([
+      ['6.10 G', { G: 1.35 }],
+      ['6.10 G', { G: 1 }],
+      ['6.10 S-lead', { G: 1.35, S: 1.5, W: 0.9 }],
+      ['6.10 S-lead', { G: 1.35, S: 1.5 }],
+      ['6.10 S-lead', { G: 1, S: 1.5, W: 0.9 }],
+      ['6.10 S-lead', { G: 1, S: 1.5 }],
+      ['6.10 W-lead', { G: 1.35, W: 1.5, S: 0.75 }],
+      ['6.10 W-lead', { G: 1.35, W: 1.5 }],
+      ['6.10 W-lead', { G: 1, W: 1.5, S: 0.75 }],
+      ['6.10 W-lead', { G: 1, W: 1.5 }],
+    ]);
+    expect(combos[9].name).toBe('EN 6.10 W-lead-d: G + W; S not acting');
+    expect(combos[9].factorNotes.G).toContain('γ_G,inf = 1.00');
   });
 
   it('when the same loads are combined by (6.10a) and (6.10b), then 3.90, 4.245 and 3.795 kPa result and 4.245 kPa governs', () => {
     const combos = combinationsBuild('en1990-6.10ab', snowAndWind);
-    const value = (rule: string) => combinationApply(combos.find((c) => c.rule === rule)!, values);
-    expect(value('6.10a')).toBeCloseTo(3.9, 10);
-    expect(value('6.10b S-lead')).toBeCloseTo(4.245, 10);
-    expect(value('6.10b W-lead')).toBeCloseTo(3.795, 10);
+    expect(combinationApply(byFactors(combos, { G: 1.35, S: 0.75, W: 0.9 }), values)).toBeCloseTo(3.9, 10);
+    expect(combinationApply(byFactors(combos, { G: 1.1475, S: 1.5, W: 0.9 }), values)).toBeCloseTo(4.245, 10);
+    expect(combinationApply(byFactors(combos, { G: 1.1475, W: 1.5, S: 0.75 }), values)).toBeCloseTo(3.795, 10);
     expect(extremes(combos, values).max.value).toBeCloseTo(4.245, 10);
-    const b = combos.find((c) => c.rule === '6.10b S-lead')!;
-    expect(b.factors.G).toBeCloseTo(0.85 * 1.35, 12);
+    // (6.10a): 2 × 2 × 2 presence patterns; (6.10b) S-lead and W-lead: 2 × 2 each.
+    expect(combos.filter((c) => c.rule === '6.10a')).toHaveLength(8);
+    expect(combos).toHaveLength(16);
+    const b = byFactors(combos, { G: 1.1475, S: 1.5, W: 0.9 });
     expect(b.factorNotes.G).toContain('ξ');
     expect(b.factorNotes.W).toContain('ψ0');
     expect(b.clause).toBe('EN 1990:2002+A1 eq. (6.10b), Table A1.2(B), Table A1.1');
   });
 
-  it('when roof imposed load H accompanies, then ψ0 = 0 leaves it out; when it leads, snow accompanies at 1.5 × 0.5', () => {
-    const combos = combinationsBuild('en1990-6.10', cases(['G', 'dead'], ['H', 'roof-live'], ['S', 'snow']));
-    expect(combos.find((c) => c.rule === '6.10 S-lead')!.factors).toEqual({ G: 1.35, S: 1.5 });
-    expect(combos.find((c) => c.rule === '6.10 H-lead')!.factors).toEqual({ G: 1.35, H: 1.5, S: 0.75 });
+  it('when roof imposed load H is present with snow and wind, then H leads alone (EN 1991-1-1 §3.3.2(1)) and never accompanies (ψ0 = 0)', () => {
+    const combos = combinationsBuild('en1990-6.10', cases(['G', 'dead'], ['H', 'roof-live'], ['S', 'snow'], ['W', 'wind']));
+    const hLead = combos.filter((c) => c.rule === '6.10 H-lead');
+    expect(hLead.map((c) => c.factors)).toEqual([
+      { G: 1.35, H: 1.5 },
+      { G: 1, H: 1.5 },
+    ]);
+    expect(hLead[0].clause).toContain('EN 1991-1-1:2002 §3.3.2(1)');
+    expect(combos.filter((c) => c.rule !== '6.10 H-lead').some((c) => 'H' in c.factors)).toBe(false);
+    const notes = COMBINATION_SETS.find((s) => s.id === 'en1990-6.10')!.notes.join(' ');
+    expect(notes).toContain('§3.3.2(1)');
+    expect(notes).toMatch(/would not be "on the safe side"/);
+  });
+
+  it('when there is no imposed-load case, then no combination is led by imposed load', () => {
+    const combos = combinationsBuild('en1990-6.10ab', cases(['G', 'dead'], ['S', 'snow']));
+    expect(combos.some((c) => /Q-lead|H-lead/.test(c.rule))).toBe(false);
+    expect(combos.map((c) => c.rule)).toEqual(['6.10a', '6.10a', '6.10a', '6.10a', '6.10b S-lead', '6.10b S-lead']);
   });
 });
 
@@ -133,8 +183,9 @@ describe('alternatives, skipping and traceability', () => {
     const dead = cases(['D', 'dead']);
     expect(combinationsBuild('asce7-16-strength', dead).map((c) => c.expression)).toEqual(['1.4 D']);
     expect(combinationsBuild('asce7-16-asd', dead).map((c) => c.expression)).toEqual(['1 D']);
-    expect(combinationsBuild('en1990-6.10', dead).map((c) => c.expression)).toEqual(['1.35 D']);
-    expect(combinationsBuild('en1990-6.10ab', dead).map((c) => c.expression)).toEqual(['1.35 D']);
+    // EN: γ_G,sup and γ_G,inf (Table A1.2(B)) on the permanent action alone.
+    expect(combinationsBuild('en1990-6.10', dead).map((c) => c.expression)).toEqual(['1.35 D', '1 D']);
+    expect(combinationsBuild('en1990-6.10ab', dead).map((c) => c.expression)).toEqual(['1.35 D', '1 D']);
   });
 
   it('when there are two dead cases and two wind cases, then the dead cases act together and the wind cases are alternatives', () => {
@@ -144,13 +195,13 @@ describe('alternatives, skipping and traceability', () => {
       { D1: 0.9, D2: 0.9, WL: 1 },
       { D1: 0.9, D2: 0.9, WR: 1 },
     ]);
-    expect(five.map((c) => c.name)).toEqual(['LRFD 5a', 'LRFD 5b']);
+    expect(five.map((c) => c.name)).toEqual(['LRFD 5a: D1 + D2 + WL; WR not acting', 'LRFD 5b: D1 + D2 + WR; WL not acting']);
   });
 
-  it('when no dead case exists, then variable-only combinations are still built and 1.4D is skipped', () => {
+  it('when no dead case exists, then variable-only combinations are still built, 1.4D is skipped and (2) is not led by a missing L', () => {
     const combos = combinationsBuild('asce7-16-strength', cases(['S', 'snow']));
-    expect(combos.map((c) => c.rule)).toEqual(['2', '3']);
-    expect(combos[1].factors).toEqual({ S: 1.6 });
+    expect(combos.map((c) => c.rule)).toEqual(['3']);
+    expect(combos[0].factors).toEqual({ S: 1.6 });
   });
 
   it('when any set is built over all categories, then every factor has a note naming its clause', () => {

@@ -19,6 +19,8 @@ import type { LoadCategory } from '@shared/model/truss';
 /** Ids of the built-in sets. */
 export type CombinationSetId = 'asce7-16-strength' | 'asce7-16-asd' | 'en1990-6.10' | 'en1990-6.10ab';
 
+type OneOfGroup = Extract<RuleGroup, { kind: 'one-of' }>;
+
 /** What the client lists when the engineer picks a set. */
 export interface CombinationSetInfo {
   id: CombinationSetId;
@@ -41,10 +43,20 @@ export interface RuleTerm {
 
 /** A group of terms in a rule. */
 export type RuleGroup =
-  /** Every case of the category, all with the same factor (permanent actions act together). */
-  | { kind: 'all'; term: RuleTerm }
-  /** One case out of all cases of the listed categories, or nothing when none is present. */
-  | { kind: 'one-of'; options: RuleTerm[] };
+  /**
+   * Every case of the category, all with the same factor (permanent actions act together).
+   * With `favourable`, the rule is also formed with that factor on the whole permanent action
+   * (EN 1990 Table A1.2(B): γ_G,inf = 1.00 where the permanent action is favourable).
+   */
+  | { kind: 'all'; term: RuleTerm; favourable?: RuleTerm }
+  /**
+   * One case out of all cases of the listed categories, or none of them: a variable action may
+   * always be left out where it is favourable (ASCE/SEI 7-16 §2.3.1 and §2.4.1, "the effects of
+   * one or more loads not acting"; EN 1990 Table A1.2(B), γ_Q = 0 where favourable).
+   * `principal`: the load that names the rule (1.6 on snow in 1.2D + 1.6S, the leading action of
+   * EN 6.10); the rule is not formed without it.
+   */
+  | { kind: 'one-of'; options: RuleTerm[]; principal?: boolean };
 
 export interface CombinationRule {
   /** Short id within the set, e.g. "3" or "6.10b S-lead". */
@@ -65,6 +77,9 @@ export interface CombinationSet extends CombinationSetInfo {
   rules: CombinationRule[];
 }
 
+const ASCE_ABSENT_NOTE =
+  'Each variable load is also left out in turn ("the effects of one or more loads not acting", ASCE/SEI 7-16 §2.3.1 and §2.4.1), so a load that relieves a member (wind uplift against snow) cannot lower the envelope; the load that names a combination (1.6 in 1.2D + 1.6S) is always present.';
+
 const ASCE_SEISMIC_NOTE =
   'Seismic combinations are not included: Panelpoint has no seismic load category. Rain (R) has no category either; where the standard says "Lr or S or R" the roof live and snow cases are the alternatives.';
 
@@ -75,7 +90,7 @@ function asceStrength(): CombinationSet {
     factor,
     note: `${factor} ${why}: ${c(rule)}`,
   });
-  const roof = (factor: number, rule: number, why: string): RuleGroup => ({
+  const roof = (factor: number, rule: number, why: string): OneOfGroup => ({
     kind: 'one-of',
     options: [t('roof-live', factor, rule, `on roof live load (Lr) ${why}`), t('snow', factor, rule, `on snow (S) ${why}`)],
   });
@@ -86,7 +101,7 @@ function asceStrength(): CombinationSet {
     title: 'ASCE/SEI 7-16 strength design (LRFD), basic combinations',
     basis: 'ASCE/SEI 7-16 §2.3.1, combinations (1) to (5)',
     prefix: 'LRFD',
-    notes: [ASCE_SEISMIC_NOTE, `The factor on L in (3) and (4) is 1.0; ${c(3)} exception 1 (0.5L) is not applied.`],
+    notes: [ASCE_ABSENT_NOTE, ASCE_SEISMIC_NOTE, `The factor on L in (3) and (4) is 1.0; ${c(3)} exception 1 (0.5L) is not applied.`],
     rules: [
       {
         id: '1',
@@ -102,7 +117,7 @@ function asceStrength(): CombinationSet {
         needs: 'variable',
         groups: [
           { kind: 'all', term: t('dead', 1.2, 2, 'on dead load (D)') },
-          { kind: 'one-of', options: [t('live', 1.6, 2, 'on live load (L), principal')] },
+          { kind: 'one-of', principal: true, options: [t('live', 1.6, 2, 'on live load (L), principal')] },
           roof(0.5, 2, 'as companion load'),
         ],
       },
@@ -113,7 +128,7 @@ function asceStrength(): CombinationSet {
         needs: 'variable',
         groups: [
           { kind: 'all', term: t('dead', 1.2, 3, 'on dead load (D)') },
-          roof(1.6, 3, 'as principal roof load'),
+          { ...roof(1.6, 3, 'as principal roof load'), principal: true },
           { kind: 'one-of', options: [t('live', 1.0, 3, liveNote), t('wind', 0.5, 3, 'on wind (W) as companion load')] },
         ],
       },
@@ -124,7 +139,7 @@ function asceStrength(): CombinationSet {
         needs: 'variable',
         groups: [
           { kind: 'all', term: t('dead', 1.2, 4, 'on dead load (D)') },
-          { kind: 'one-of', options: [t('wind', 1.0, 4, 'on wind (W), principal')] },
+          { kind: 'one-of', principal: true, options: [t('wind', 1.0, 4, 'on wind (W), principal')] },
           { kind: 'one-of', options: [t('live', 1.0, 4, liveNote)] },
           roof(0.5, 4, 'as companion load'),
         ],
@@ -136,7 +151,7 @@ function asceStrength(): CombinationSet {
         needs: 'variable',
         groups: [
           { kind: 'all', term: t('dead', 0.9, 5, 'on dead load (D), counteracting wind') },
-          { kind: 'one-of', options: [t('wind', 1.0, 5, 'on wind (W)')] },
+          { kind: 'one-of', principal: true, options: [t('wind', 1.0, 5, 'on wind (W)')] },
         ],
       },
     ],
@@ -150,7 +165,7 @@ function asceAllowable(): CombinationSet {
     factor,
     note: `${why}: ${c(rule)}`,
   });
-  const roof = (factor: number, rule: number, why: string): RuleGroup => ({
+  const roof = (factor: number, rule: number, why: string): OneOfGroup => ({
     kind: 'one-of',
     options: [
       t('roof-live', factor, rule, `${why} on roof live load (Lr)`),
@@ -163,7 +178,7 @@ function asceAllowable(): CombinationSet {
     title: 'ASCE/SEI 7-16 allowable stress design (ASD), basic combinations',
     basis: 'ASCE/SEI 7-16 §2.4.1, combinations (1) to (7)',
     prefix: 'ASD',
-    notes: [ASCE_SEISMIC_NOTE],
+    notes: [ASCE_ABSENT_NOTE, ASCE_SEISMIC_NOTE],
     rules: [
       { id: '1', clause: c(1), formula: 'D', needs: 'always', groups: [D(1.0, 1)] },
       {
@@ -171,9 +186,9 @@ function asceAllowable(): CombinationSet {
         clause: c(2),
         formula: 'D + L',
         needs: 'variable',
-        groups: [D(1.0, 2), { kind: 'one-of', options: [t('live', 1.0, 2, '1.0 on live load (L)')] }],
+        groups: [D(1.0, 2), { kind: 'one-of', principal: true, options: [t('live', 1.0, 2, '1.0 on live load (L)')] }],
       },
-      { id: '3', clause: c(3), formula: 'D + (Lr or S or R)', needs: 'variable', groups: [D(1.0, 3), roof(1.0, 3, '1.0')] },
+      { id: '3', clause: c(3), formula: 'D + (Lr or S or R)', needs: 'variable', groups: [D(1.0, 3), { ...roof(1.0, 3, '1.0'), principal: true }] },
       {
         id: '4',
         clause: c(4),
@@ -186,7 +201,7 @@ function asceAllowable(): CombinationSet {
         clause: c(5),
         formula: 'D + 0.6W',
         needs: 'variable',
-        groups: [D(1.0, 5), { kind: 'one-of', options: [t('wind', 0.6, 5, '0.6 on wind (W)')] }],
+        groups: [D(1.0, 5), { kind: 'one-of', principal: true, options: [t('wind', 0.6, 5, '0.6 on wind (W)')] }],
       },
       {
         id: '6',
@@ -205,7 +220,7 @@ function asceAllowable(): CombinationSet {
         clause: c(7),
         formula: '0.6D + 0.6W',
         needs: 'variable',
-        groups: [D(0.6, 7), { kind: 'one-of', options: [t('wind', 0.6, 7, '0.6 on wind (W)')] }],
+        groups: [D(0.6, 7), { kind: 'one-of', principal: true, options: [t('wind', 0.6, 7, '0.6 on wind (W)')] }],
       },
     ],
   };
@@ -228,9 +243,17 @@ const VARIABLE: Array<keyof typeof PSI0> = ['live', 'roof-live', 'snow', 'wind']
 
 const round = (x: number) => Math.round(x * 1e10) / 1e10;
 
+/** EN 1991-1-1 §3.3.2(1): roof imposed load is not applied together with snow or wind. */
+const H_EXCLUSION_CLAUSE = 'EN 1991-1-1:2002 §3.3.2(1)';
+
 function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
   const table = 'EN 1990:2002+A1 Table A1.2(B)';
   const clause = (eq: string) => `EN 1990:2002+A1 eq. (${eq}), Table A1.2(B), Table A1.1`;
+  const favourable = (eq: string): RuleTerm => ({
+    category: 'dead',
+    factor: GAMMA_G_INF,
+    note: `γ_G,inf = ${GAMMA_G_INF.toFixed(2)} on the whole permanent action (G), favourable: EN 1990 eq. (${eq}), ${table}`,
+  });
   const permanent = (eq: string, xi: boolean): RuleGroup => ({
     kind: 'all',
     term: xi
@@ -244,9 +267,11 @@ function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
           factor: GAMMA_G_SUP,
           note: `γ_G,sup = ${GAMMA_G_SUP} on permanent actions (G), unfavourable: EN 1990 eq. (${eq}), ${table}`,
         },
+    favourable: favourable(eq),
   });
   const leading = (category: keyof typeof PSI0, eq: string): RuleGroup => ({
     kind: 'one-of',
+    principal: true,
     options: [
       {
         category,
@@ -272,52 +297,28 @@ function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
       },
     ];
   };
-  const favourableWind = (eq: string): CombinationRule => ({
-    id: `${eq} W-lead G-fav`,
-    clause: clause(eq),
-    formula: `${GAMMA_G_INF}G + ${GAMMA_Q}W`,
-    needs: 'variable',
-    groups: [
-      {
-        kind: 'all',
-        term: {
-          category: 'dead',
-          factor: GAMMA_G_INF,
-          note: `γ_G,inf = ${GAMMA_G_INF} on permanent actions (G), favourable (wind uplift): EN 1990 eq. (${eq}), ${table}`,
-        },
-      },
-      {
-        kind: 'one-of',
-        options: [
-          {
-            category: 'wind',
-            factor: GAMMA_Q,
-            note: `γ_Q = ${GAMMA_Q} on wind (W), leading; favourable variable actions are taken as 0: EN 1990 eq. (${eq}), ${table}`,
-          },
-        ],
-      },
-    ],
-  });
+  /** Who may accompany a leading action: nothing goes with roof imposed load but other imposed load. */
+  const companions = (lead: keyof typeof PSI0) =>
+    VARIABLE.filter((other) => other !== lead).filter(
+      (other) => !(lead === 'roof-live' && (other === 'snow' || other === 'wind')),
+    );
   const leadingRules = (eq: string, xi: boolean): CombinationRule[] =>
     VARIABLE.map((lead) => ({
       id: `${eq} ${PSI0[lead].symbol}-lead`,
-      clause: clause(eq),
+      clause: lead === 'roof-live' ? `${clause(eq)}; ${H_EXCLUSION_CLAUSE}` : clause(eq),
       formula: xi
         ? `ξγ_G G + γ_Q ${PSI0[lead].symbol} + Σ γ_Q ψ0 Q_i`
         : `γ_G G + γ_Q ${PSI0[lead].symbol} + Σ γ_Q ψ0 Q_i`,
       needs: 'variable' as const,
-      groups: [
-        permanent(eq, xi),
-        leading(lead, eq),
-        ...VARIABLE.filter((other) => other !== lead).flatMap((other) => accompanying(other, eq)),
-      ],
+      groups: [permanent(eq, xi), leading(lead, eq), ...companions(lead).flatMap((other) => accompanying(other, eq))],
     }));
 
   const notes = [
     'Recommended values of EN 1990:2002+A1 Annex A1; a National Annex may set other γ, ξ and ψ0 values or choose between (6.10) and (6.10a)/(6.10b).',
     'ψ0 (Table A1.1): imposed load 0.7 (categories A/B assumed), roofs (H) 0, snow 0.5 (site ≤ 1000 m a.s.l.), wind 0.6.',
-    'Roof imposed load (H) is combined with snow and wind (EN 1991-1-1 §3.3.2(1) allows leaving them out; keeping them is on the safe side).',
-    'Each variable case leads in turn; cases of the same category are alternatives.',
+    'Each variable action is also left out in turn (γ_Q = 0 where favourable, Table A1.2(B)), and each combination is formed with γ_G,sup and with γ_G,inf = 1.00 on the whole permanent action.',
+    `Roof imposed load (category H) is not combined with snow or wind (${H_EXCLUSION_CLAUSE}). Adding them would not be "on the safe side" here: wind suction lifts the roof and would reduce the effect of the imposed load.`,
+    'Each variable case leads in turn; cases of the same category are alternatives. A category with no case leads no combination.',
   ];
   if (id === 'en1990-6.10') {
     return {
@@ -335,7 +336,6 @@ function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
           groups: [permanent('6.10', false)],
         },
         ...leadingRules('6.10', false),
-        favourableWind('6.10'),
       ],
     };
   }
@@ -354,7 +354,6 @@ function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
         groups: [permanent('6.10a', false), ...VARIABLE.flatMap((category) => accompanying(category, '6.10a'))],
       },
       ...leadingRules('6.10b', true),
-      favourableWind('6.10b'),
     ],
   };
 }
