@@ -161,3 +161,38 @@ describe('member envelope against every presence pattern (dead, snow, wind uplif
     }
   });
 });
+
+describe('reaction envelope against statics by hand (pin L0, roller L4, span 12 m)', () => {
+  const model = pitchedTruss();
+  const at = new Map(model.joints.map((j) => [j.id, j]));
+  /** Reactions of one load case from ΣM about L0, ΣFy and ΣFx (closed-form statics). */
+  const statics = (caseId: string) => {
+    const loads = model.loadCases.find((c) => c.id === caseId)!.loads;
+    const fx = loads.reduce((t, l) => t + l.fx, 0);
+    const fy = loads.reduce((t, l) => t + l.fy, 0);
+    // ΣM about L0 (counter-clockwise +): Σ(x·fy − y·fx) + 12·R4 = 0
+    const m = loads.reduce((t, l) => t + at.get(l.joint)!.x * l.fy - at.get(l.joint)!.y * l.fx, 0);
+    const r4 = -m / 12;
+    return { L0: { rx: -fx, ry: -fy - r4 }, L4: { rx: 0, ry: r4 } };
+  };
+
+  it('when the LRFD combinations are solved, then each support max/min equals the hand statics over every presence pattern, and uplift is said in words', () => {
+    const combos = combinationsBuild('asce7-16-strength', model.loadCases);
+    const analysis = trussSolve({ ...model, combinations: combos.map((c) => ({ name: c.name, factors: c.factors })) });
+    const byCase = Object.fromEntries(['D', 'S', 'W'].map((id) => [id, statics(id)]));
+    const patterns = everyPattern(LRFD);
+    for (const joint of ['L0', 'L4'] as const) {
+      const ry = patterns.map((f) => Object.entries(f).reduce((t, [c, k]) => t + k * (byCase[c]?.[joint].ry ?? 0), 0));
+      const rx = patterns.map((f) => Object.entries(f).reduce((t, [c, k]) => t + k * (byCase[c]?.[joint].rx ?? 0), 0));
+      const row = analysis.reactionEnvelope!.find((r) => r.joint === joint)!;
+      expect(row.ryMax).toBeCloseTo(Math.max(...ry), 9);
+      expect(row.ryMin).toBeCloseTo(Math.min(...ry), 9);
+      expect(row.rxMax).toBeCloseTo(Math.max(...rx), 9);
+      expect(row.rxMin).toBeCloseTo(Math.min(...rx), 9);
+      if (Math.min(...ry) < 0) expect(row.uplift).toMatch(new RegExp(`^Support ${joint} is lifted under LRFD 5`));
+      else expect(row.uplift).toBeNull();
+    }
+    // Dead load alone: 16 kN shared equally by symmetry, 1.4 × 8 = 11.2 kN is not the max (snow adds).
+    expect(statics('D').L0.ry).toBeCloseTo(8, 12);
+  });
+});

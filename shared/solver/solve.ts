@@ -10,6 +10,7 @@ import type {
   CaseResult,
   CombinationResult,
   EnvelopeRow,
+  ReactionEnvelopeRow,
   SolvedForce,
   SupportReaction,
   TrussAnalysis,
@@ -64,7 +65,7 @@ export function trussSolve(model: TrussModel): TrussAnalysis {
   const mirror = mirrorFind(pm, indeterminate);
   const symmetry = symmetryDescribe(pm, mirror);
   if (classification.kind === 'unstable') {
-    return { classification, symmetry, cases: [], combinations: [], envelope: [], envelopeSource: 'cases' };
+    return { classification, symmetry, cases: [], combinations: [], envelope: [], reactionEnvelope: [], envelopeSource: 'cases' };
   }
 
   const raw: { N: Float64Array; R: Float64Array }[] = [];
@@ -178,5 +179,41 @@ export function trussSolve(model: TrussModel): TrussAnalysis {
     return row;
   });
 
-  return { classification, symmetry, cases, combinations, envelope, envelopeSource };
+  const reactionSources = combinations.length
+    ? combinations.map((c) => ({ name: c.name, reactions: c.reactions }))
+    : cases.map((c) => ({ name: c.caseId, reactions: c.reactions }));
+  const reactionEnvelope = reactionEnvelopeBuild(reactionSources);
+
+  return { classification, symmetry, cases, combinations, envelope, reactionEnvelope, envelopeSource };
+}
+
+/** Reactions below this (kN) count as zero: no uplift is reported for round-off. */
+const UPLIFT_TOLERANCE = 1e-9;
+
+/**
+ * Max and min of each support's rx and ry over the sources, with the source that gives each,
+ * and uplift said in words when ry goes below zero (the bearing must be held down).
+ */
+export function reactionEnvelopeBuild(sources: { name: string; reactions: SupportReaction[] }[]): ReactionEnvelopeRow[] {
+  const rows = new Map<string, ReactionEnvelopeRow>();
+  for (const s of sources) {
+    for (const r of s.reactions) {
+      let row = rows.get(r.joint);
+      if (!row) {
+        row = { joint: r.joint, at: r.tag, rxMax: r.rx, rxMaxCombo: s.name, rxMin: r.rx, rxMinCombo: s.name, ryMax: r.ry, ryMaxCombo: s.name, ryMin: r.ry, ryMinCombo: s.name, uplift: null };
+        rows.set(r.joint, row);
+        continue;
+      }
+      if (r.rx > row.rxMax) [row.rxMax, row.rxMaxCombo] = [r.rx, s.name];
+      if (r.rx < row.rxMin) [row.rxMin, row.rxMinCombo] = [r.rx, s.name];
+      if (r.ry > row.ryMax) [row.ryMax, row.ryMaxCombo] = [r.ry, s.name];
+      if (r.ry < row.ryMin) [row.ryMin, row.ryMinCombo] = [r.ry, s.name];
+    }
+  }
+  for (const row of rows.values()) {
+    if (row.ryMin < -UPLIFT_TOLERANCE) {
+      row.uplift = `Support ${row.at} is lifted under ${row.ryMinCombo}: it must hold the truss down with ${(-row.ryMin).toFixed(2)} kN (design the hold-down for it).`;
+    }
+  }
+  return [...rows.values()];
 }

@@ -322,6 +322,25 @@ export interface EnvelopeRow {
   governingForce: number;
 }
 
+/** Extremes of one support's reaction components over the combinations (or the cases). */
+export interface ReactionEnvelopeRow {
+  joint: string;
+  /** The joint's tag. */
+  at: string;
+  /** kN, +x to the right; with the combination (or case) that gives it. */
+  rxMax: number;
+  rxMaxCombo: string | null;
+  rxMin: number;
+  rxMinCombo: string | null;
+  /** kN, +y up; ryMin < 0 is uplift (the support must hold the truss down). */
+  ryMax: number;
+  ryMaxCombo: string | null;
+  ryMin: number;
+  ryMinCombo: string | null;
+  /** In words when the support is pulled up under some combination, else null. */
+  uplift: string | null;
+}
+
 /** Mirror symmetry of geometry and supports about a vertical axis. */
 export interface Symmetry {
   detected: boolean;
@@ -341,6 +360,8 @@ export interface TrussAnalysis {
   cases: CaseResult[];
   combinations: CombinationResult[];
   envelope: EnvelopeRow[];
+  /** Per support, over the same source as `envelope`; absent in runs stored before it existed. */
+  reactionEnvelope?: ReactionEnvelopeRow[];
   /** What the envelope runs over. */
   envelopeSource: 'combinations' | 'cases';
 }
