@@ -59,6 +59,9 @@ export const jobSchema = z
     combinations: z
       .array(z.object({ name: z.string().min(1).max(80), factors: z.record(z.string(), z.number().finite()), clause: z.string().max(200).optional() }))
       .default([]),
+    /** Parsed and run by scripts/job-design.ts after the analysis. */
+    design: z.unknown().optional(),
+    deflection: z.unknown().optional(),
   })
   .strict();
 export type Job = z.infer<typeof jobSchema>;

@@ -12,6 +12,7 @@
  *   loads        [{ "at": [x, y], "fx": kN, "fy": kN, "case": "D" }]
  *   EA           optional kN for every member (needed when the truss is indeterminate)
  *   combinations optional [{ "name": "C1", "factors": { "D": 1.2, "S": 1.6 }, "clause": "…" }]
+ *   design, deflection  optional member checks and unit-load deflections (see scripts/job-design.ts)
  *
  * Exit 0 with the result for a solved or classified (also unstable) truss; exit 2 with one line
  * on stderr for bad input; exit 1 for an unexpected failure.
@@ -20,6 +21,7 @@ import type { TrussModel } from '@shared/model/truss';
 import { caseSteps, SolverError, trussSolve, type SupportReaction } from '@shared/solver/index';
 import { DxfImportError } from '@shared/dxf-import/index';
 import { JobError, jobLoad } from './job';
+import { jobDesignOutputs } from './job-design';
 
 function reactionsOut(list: SupportReaction[], joints: Map<string, TrussModel['joints'][number]>) {
   return list.map((r) => {
@@ -30,7 +32,7 @@ function reactionsOut(list: SupportReaction[], joints: Map<string, TrussModel['j
 
 function run(jobPath: string | undefined): unknown {
   if (!jobPath) throw new JobError('Usage: npm run -s solve -- JOB.json');
-  const { model } = jobLoad(jobPath);
+  const { job, model } = jobLoad(jobPath);
   const analysis = trussSolve(model);
   const jointById = new Map(model.joints.map((j) => [j.id, j]));
   const cls = analysis.classification;
@@ -70,6 +72,7 @@ function run(jobPath: string | undefined): unknown {
       analysis.combinations.map((c) => [c.name, { factors: c.factors, ...(c.clause ? { clause: c.clause } : {}), forces: c.forces, reactions: reactionsOut(c.reactions, jointById), residual: c.residual }]),
     ),
     envelope: analysis.envelope,
+    ...jobDesignOutputs(job, model, analysis),
   };
 }
 
