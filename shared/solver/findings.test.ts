@@ -150,8 +150,8 @@ describe('steps as KaTeX', () => {
     const r = trussSolve(modelFromSketch(king([{ id: 'D', loads: [['C', 0, -100]] }])));
     const stA = r.cases[0].jointSteps.find((s) => s.joint === 'A')!;
     const tex = stepToKatex(stA).join('\n');
-    expect(tex).toContain('\\Sigma F_y = 0:\\quad 0.600\\,F_{\\mathrm{AC}} + 50.000 = 0');
-    expect(tex).toContain('F_{\\mathrm{AC}} = -83.333\\ \\mathrm{kN}\\ (\\mathrm{C})');
-    expect(tex).toContain('F_{\\mathrm{AD}} = 66.667\\ \\mathrm{kN}\\ (\\mathrm{T})');
+    expect(tex).toContain('\\Sigma F_y = 0:\\quad 0.600\\,F_{\\text{AC}} + 50.000 = 0');
+    expect(tex).toContain('F_{\\text{AC}} = -83.333\\ \\mathrm{kN}\\ (\\mathrm{C})');
+    expect(tex).toContain('F_{\\text{AD}} = 66.667\\ \\mathrm{kN}\\ (\\mathrm{T})');
   });
 });

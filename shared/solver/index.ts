@@ -8,11 +8,11 @@ export {
   stepToKatex,
   equationToKatex,
   numberFormat,
-  texEscape,
   symbolMember,
   symbolReaction,
   symbolLoad,
   type KatexOptions,
 } from './katex';
 export { caseSteps } from './steps';
+export { texText, plainText } from '../text/safe-text';
 export type * from './types';

@@ -5,6 +5,7 @@ import type {
   SolvedForce,
   SolverStep,
 } from './types';
+import { texText } from '../text/safe-text';
 
 /** Options for `stepToKatex`. */
 export interface KatexOptions {
@@ -12,32 +13,20 @@ export interface KatexOptions {
   decimals?: number;
 }
 
-const TEX_SPECIAL = /[\\{}_^#$%&~]/g;
-
-/** Escapes a plain string (a tag, a name) for use inside `\mathrm{}` or `\text{}`. */
-export function texEscape(text: string): string {
-  return text.replace(TEX_SPECIAL, (ch) => {
-    if (ch === '\\') return '\\textbackslash{}';
-    if (ch === '~') return '\\textasciitilde{}';
-    if (ch === '^') return '\\textasciicircum{}';
-    return `\\${ch}`;
-  });
-}
-
 /** KaTeX symbol of a member force: F_{AB}. */
 export function symbolMember(tag: string): string {
-  return `F_{\\mathrm{${texEscape(tag)}}}`;
+  return `F_{${texText(tag)}}`;
 }
 
 /** KaTeX symbol of a reaction component at a joint: R_{A,x}, R_{A,y} or R_{A} along a line. */
 export function symbolReaction(jointTag: string, component: 'x' | 'y' | 'n'): string {
-  const t = texEscape(jointTag);
-  return component === 'n' ? `R_{\\mathrm{${t}}}` : `R_{\\mathrm{${t}},${component}}`;
+  const t = texText(jointTag);
+  return component === 'n' ? `R_{${t}}` : `R_{${t},${component}}`;
 }
 
 /** KaTeX symbol of a load component at a joint: P_{C,x}, P_{C,y}. */
 export function symbolLoad(jointTag: string, component: 'x' | 'y'): string {
-  return `P_{\\mathrm{${texEscape(jointTag)}},${component}}`;
+  return `P_{${texText(jointTag)},${component}}`;
 }
 
 /** Formats a number with fixed decimals, never "-0.000". */
@@ -67,10 +56,10 @@ function valueBody(term: { symbol: string; value: number | null }, d: number): s
 }
 
 function equationLabel(eq: EquilibriumEquation): string {
-  const at = eq.about ? `\\big|_{\\mathrm{${texEscape(eq.about.tag)}}}` : '';
+  const at = eq.about ? `\\big|_{${texText(eq.about.tag)}}` : '';
   if (eq.kind === 'sum-fx') return `\\Sigma F_x${at} = 0`;
   if (eq.kind === 'sum-fy') return `\\Sigma F_y${at} = 0`;
-  const about = eq.about ? `_{\\mathrm{${texEscape(eq.about.tag)}}}` : '';
+  const about = eq.about ? `_{${texText(eq.about.tag)}}` : '';
   return `\\Sigma M${about} = 0`;
 }
 
@@ -127,9 +116,11 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'zero-force': {
       const why =
         step.rule === 1
-          ? `rule 1 at joint ${texEscape(step.jointTag)}: two non-collinear members, no load, no support`
-          : `rule 2 at joint ${texEscape(step.jointTag)}: three members, two collinear, no load, no support`;
-      return [`${symbolMember(step.memberTag)} = 0 \\quad \\text{(${why}; pass ${step.pass})}`];
+          ? ': two non-collinear members, no load, no support'
+          : ': three members, two collinear, no load, no support';
+      return [
+        `${symbolMember(step.memberTag)} = 0 \\quad \\text{(rule ${step.rule} at joint }${texText(step.jointTag)}\\text{${why}; pass ${step.pass})}`,
+      ];
     }
     case 'reaction': {
       const lines = [equationToKatex(step.equation, options)];
@@ -138,7 +129,7 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     }
     case 'joint': {
       const lines = [
-        `\\text{Joint ${texEscape(step.jointTag)} at } (${numberFormat(step.x, d)},\\ ${numberFormat(step.y, d)})\\ \\mathrm{m}`,
+        `\\text{Joint }${texText(step.jointTag)}\\text{ at } (${numberFormat(step.x, d)},\\ ${numberFormat(step.y, d)})\\ \\mathrm{m}`,
       ];
       for (const u of step.unknowns) lines.push(cosinesToKatex(u, d));
       for (const eq of step.equations) {
@@ -149,7 +140,7 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       return lines;
     }
     case 'simultaneous': {
-      const lines = [`\\text{${texEscape(step.reason)}}`];
+      const lines = [texText(step.reason)];
       for (const eq of step.equations) lines.push(equationToKatex(eq, options));
       for (const s of step.solution) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
       return lines;
@@ -157,14 +148,14 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'stiffness-members':
       return step.rows.map(
         (r) =>
-          `k_{\\mathrm{${texEscape(r.tag)}}} = \\frac{EA}{L} = \\frac{${numberFormat(r.EA, 0)}}{${numberFormat(r.length, d)}} = ${numberFormat(r.k, 1)}\\ \\mathrm{kN/m},\\quad (c, s) = (${numberFormat(r.c, d)},\\ ${numberFormat(r.s, d)})`,
+          `k_{${texText(r.tag)}} = \\frac{EA}{L} = \\frac{${numberFormat(r.EA, 0)}}{${numberFormat(r.length, d)}} = ${numberFormat(r.k, 1)}\\ \\mathrm{kN/m},\\quad (c, s) = (${numberFormat(r.c, d)},\\ ${numberFormat(r.s, d)})`,
       );
     case 'stiffness-assembly': {
       const lines = [
-        `\\mathbf{u} = [${step.dofs.map((f) => `\\mathrm{${texEscape(f.label)}}`).join(',\\ ')}]^{T}`,
+        `\\mathbf{u} = [${step.dofs.map((f) => texText(f.label)).join(',\\ ')}]^{T}`,
       ];
       if (step.matrix) lines.push(`\\mathbf{K} = ${matrixToKatex(step.matrix, 1)}\\ \\mathrm{kN/m}`);
-      if (step.note) lines.push(`\\text{${texEscape(step.note)}}`);
+      if (step.note) lines.push(texText(step.note));
       lines.push(`\\mathbf{P} = [${step.loads.map((v) => numberFormat(v, d)).join(',\\ ')}]^{T}\\ \\mathrm{kN}`);
       lines.push('\\mathbf{K}\\,\\mathbf{u} = \\mathbf{P}');
       return lines;
@@ -172,7 +163,7 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'stiffness-displacements':
       return step.displacements.map(
         (u) =>
-          `u_{\\mathrm{${texEscape(u.tag)}}} = ${numberFormat(u.ux * 1000, d)}\\ \\mathrm{mm},\\quad v_{\\mathrm{${texEscape(u.tag)}}} = ${numberFormat(u.uy * 1000, d)}\\ \\mathrm{mm}`,
+          `u_{${texText(u.tag)}} = ${numberFormat(u.ux * 1000, d)}\\ \\mathrm{mm},\\quad v_{${texText(u.tag)}} = ${numberFormat(u.uy * 1000, d)}\\ \\mathrm{mm}`,
       );
     case 'stiffness-forces':
       return step.rows.map(
@@ -180,7 +171,7 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
           `${symbolMember(r.tag)} = k\\,\\delta = ${numberFormat(r.k, 1)} \\times ${numberFormat(r.elongation * 1000, d)}\\times 10^{-3} = ${numberFormat(r.force, d)}\\ \\mathrm{kN}${senseText(r.sense)}`,
       );
     case 'check': {
-      const at = step.residualJointTag ? `\\ \\text{at joint ${texEscape(step.residualJointTag)}}` : '';
+      const at = step.residualJointTag ? `\\ \\text{at joint }${texText(step.residualJointTag)}` : '';
       const ratio = step.largestLoad > 0 ? step.residual / step.largestLoad : 0;
       return [
         `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${step.residual.toExponential(2)}\\ \\mathrm{kN}${at}`,

@@ -1,5 +1,6 @@
 import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Unit, type UnitSystemId } from '@shared/units';
 import type { TakeoffStep, TakeoffUnit, TakeoffValue } from './steps';
+import { texText } from '../text/safe-text';
 
 /** How a step is written: which unit system the numbers are shown in. */
 export interface TakeoffKatexOptions {
@@ -42,14 +43,8 @@ function find(step: TakeoffStep, key: string): TakeoffValue {
   return v;
 }
 
-const TEXT_ESCAPES: Record<string, string> = {
-  '\\': '\\textbackslash{}',
-  '^': '\\textasciicircum{}',
-  '~': '\\textasciitilde{}',
-};
-
-/** Plain text (a joint tag, a remark) inside KaTeX, with its special characters escaped. */
-const text = (s: string) => `\\text{${s.replace(/[\\{}$&#^_%~]/g, (c) => TEXT_ESCAPES[c] ?? `\\${c}`)}}`;
+/** Plain text (a joint tag, a remark) inside KaTeX: the one shared escaping function. */
+const text = texText;
 
 /**
  * KaTeX source for one takeoff step, with every number substituted and its unit written
