@@ -8,11 +8,25 @@ import { startServices, type Services } from '../../server/bootstrap';
 import type { ReviewDeps } from '../../server/app';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 
-/** A full server on an in-memory SQLite database with the demo data and a real SMTP sink. */
-export async function startTestServices(overrides: Partial<Config> = {}, options: { review?: ReviewDeps } = {}): Promise<Services> {
+/** A temp data folder with a real SQLite file in it, for tests of concurrency and restarts. */
+export function tempDataDir(): { dataDir: string; databaseStorage: string } {
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-data-'));
+  return { dataDir, databaseStorage: path.join(dataDir, 'panelpoint.sqlite') };
+}
+
+/**
+ * A full server with the demo data and a real SMTP sink: on an in-memory SQLite database, or
+ * with `realFile: true` on a SQLite file in a fresh temp folder (pass `dataDir` and
+ * `databaseStorage` in overrides to reopen the same file, as after a restart).
+ */
+export async function startTestServices(
+  overrides: Partial<Config> = {},
+  options: { review?: ReviewDeps; realFile?: boolean } = {},
+): Promise<Services> {
   const config: Config = {
     ...loadConfig({ NODE_ENV: 'test' }),
     databaseStorage: ':memory:',
+    ...(options.realFile ? tempDataDir() : {}),
     bcryptRounds: 4,
     publicUrl: 'http://panelpoint.test',
     uploadsDir: fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-uploads-')),
@@ -29,13 +43,14 @@ export interface Tab {
   csrf: string;
 }
 
-export async function openTab(app: Express): Promise<Tab> {
+/** `app` is the Express app, or the base URL of a listening server. */
+export async function openTab(app: Express | string): Promise<Tab> {
   const agent = request.agent(app);
   const res = await agent.get('/api/session').expect(200);
   return { agent, csrf: res.body.csrfToken };
 }
 
-export async function signIn(app: Express, email: string, password = DEMO_PASSWORD): Promise<Tab> {
+export async function signIn(app: Express | string, email: string, password = DEMO_PASSWORD): Promise<Tab> {
   const tab = await openTab(app);
   const res = await tab.agent.post('/api/session').set('X-CSRF-Token', tab.csrf).send({ email, password });
   if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
