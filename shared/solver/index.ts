@@ -6,6 +6,7 @@ export { reactionEnvelopeBuild, trussSolve } from './solve';
 export { SolverError, type SolverErrorCode } from './errors';
 export {
   stepToKatex,
+  stepsToKatex,
   equationToKatex,
   numberFormat,
   symbolMember,
@@ -14,5 +15,6 @@ export {
   type KatexOptions,
 } from './katex';
 export { caseSteps } from './steps';
+export { stepsOperandDecimals, MAX_EXTRA_DECIMALS } from './printed-digits';
 export { texText, plainText } from '../text/safe-text';
 export type * from './types';

@@ -6,11 +6,18 @@ import type {
   SolverStep,
 } from './types';
 import { texText } from '../text/safe-text';
+import { stepOperandDecimals, stepsOperandDecimals } from './printed-digits';
 
 /** Options for `stepToKatex`. */
 export interface KatexOptions {
-  /** Decimals for forces (kN) and lengths (m); default 3. */
+  /** Decimals for results — forces (kN) and coordinates (m); default 3. */
   decimals?: number;
+  /**
+   * Decimals for operands: cosines, lever arms, known values substituted, lengths, elongations.
+   * Default: the fewest (at least `decimals`) with which the step redone from its printed
+   * numbers gives its printed results (printed-digits.ts).
+   */
+  operandDecimals?: number;
 }
 
 /** KaTeX symbol of a member force: F_{AB}. */
@@ -68,7 +75,7 @@ function equationLabel(eq: EquilibriumEquation): string {
  * `\Sigma F_x = 0:\quad -0.800\,F_{AC} + 50.000 = 0`. Terms with a zero coefficient are left out.
  */
 export function equationToKatex(eq: EquilibriumEquation, options: KatexOptions = {}): string {
-  const d = options.decimals ?? 3;
+  const d = options.operandDecimals ?? options.decimals ?? 3;
   const parts: string[] = [];
   for (const term of eq.terms) {
     if (Math.abs(term.coefficient) < 1e-12) continue;
@@ -98,6 +105,8 @@ function matrixToKatex(rows: number[][], d: number): string {
  */
 export function stepToKatex(step: SolverStep, options: KatexOptions = {}): string[] {
   const d = options.decimals ?? 3;
+  const op = options.operandDecimals ?? stepOperandDecimals(step, d);
+  const eqOptions: KatexOptions = { decimals: d, operandDecimals: op };
   switch (step.kind) {
     case 'determinacy': {
       const rel = step.degree === 0 ? '=' : step.degree > 0 ? '>' : '<';
@@ -123,7 +132,7 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       ];
     }
     case 'reaction': {
-      const lines = [equationToKatex(step.equation, options)];
+      const lines = [equationToKatex(step.equation, eqOptions)];
       for (const s of step.solves) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
       return lines;
     }
@@ -131,24 +140,24 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       const lines = [
         `\\text{Joint }${texText(step.jointTag)}\\text{ at } (${numberFormat(step.x, d)},\\ ${numberFormat(step.y, d)})\\ \\mathrm{m}`,
       ];
-      for (const u of step.unknowns) lines.push(cosinesToKatex(u, d));
+      for (const u of step.unknowns) lines.push(cosinesToKatex(u, op));
       for (const eq of step.equations) {
         const used = step.solvedFrom === 'both' || step.solvedFrom === eq.kind;
-        lines.push(equationToKatex(eq, options) + (used ? '' : '\\quad\\text{(check)}'));
+        lines.push(equationToKatex(eq, eqOptions) + (used ? '' : '\\quad\\text{(check)}'));
       }
       for (const s of step.solution) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
       return lines;
     }
     case 'simultaneous': {
       const lines = [texText(step.reason)];
-      for (const eq of step.equations) lines.push(equationToKatex(eq, options));
+      for (const eq of step.equations) lines.push(equationToKatex(eq, eqOptions));
       for (const s of step.solution) lines.push(`\\Rightarrow\\ ${solvedToKatex(s, d)}`);
       return lines;
     }
     case 'stiffness-members':
       return step.rows.map(
         (r) =>
-          `k_{${texText(r.tag)}} = \\frac{EA}{L} = \\frac{${numberFormat(r.EA, 0)}}{${numberFormat(r.length, d)}} = ${numberFormat(r.k, 1)}\\ \\mathrm{kN/m},\\quad (c, s) = (${numberFormat(r.c, d)},\\ ${numberFormat(r.s, d)})`,
+          `k_{${texText(r.tag)}} = \\frac{EA}{L} = \\frac{${numberFormat(r.EA, Math.max(0, op - d))}}{${numberFormat(r.length, op)}} = ${numberFormat(r.k, 1)}\\ \\mathrm{kN/m},\\quad (c, s) = (${numberFormat(r.c, op)},\\ ${numberFormat(r.s, op)})`,
       );
     case 'stiffness-assembly': {
       const lines = [
@@ -168,15 +177,29 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'stiffness-forces':
       return step.rows.map(
         (r) =>
-          `${symbolMember(r.tag)} = k\\,\\delta = ${numberFormat(r.k, 1)} \\times ${numberFormat(r.elongation * 1000, d)}\\times 10^{-3} = ${numberFormat(r.force, d)}\\ \\mathrm{kN}${senseText(r.sense)}`,
+          `${symbolMember(r.tag)} = k\\,\\delta = ${numberFormat(r.k, Math.max(1, op - 2))} \\times ${numberFormat(r.elongation * 1000, op)}\\times 10^{-3} = ${numberFormat(r.force, d)}\\ \\mathrm{kN}${senseText(r.sense)}`,
       );
     case 'check': {
       const at = step.residualJointTag ? `\\ \\text{at joint }${texText(step.residualJointTag)}` : '';
-      const ratio = step.largestLoad > 0 ? step.residual / step.largestLoad : 0;
+      // The ratio is worked from the residual and the load as printed, so it divides out by hand.
+      const residualShown = step.residual.toExponential(2);
+      const largestShown = numberFormat(step.largestLoad, d);
+      const ratio = Number(largestShown) > 0 ? Number(residualShown) / Number(largestShown) : 0;
       return [
-        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${step.residual.toExponential(2)}\\ \\mathrm{kN}${at}`,
-        `\\text{relative to the largest load } ${numberFormat(step.largestLoad, d)}\\ \\mathrm{kN}:\\ ${ratio.toExponential(2)}`,
+        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${residualShown}\\ \\mathrm{kN}${at}`,
+        `\\text{relative to the largest load } ${largestShown}\\ \\mathrm{kN}:\\ ${ratio.toExponential(2)}`,
       ];
     }
   }
+}
+
+/**
+ * KaTeX source lines for the steps of one case (or the model), in order. Unlike `stepToKatex`
+ * one step at a time, reaction steps that are solved together get the operand decimals their
+ * group needs.
+ */
+export function stepsToKatex(steps: SolverStep[], options: KatexOptions = {}): string[][] {
+  const d = options.decimals ?? 3;
+  const ops = stepsOperandDecimals(steps, d);
+  return steps.map((s) => stepToKatex(s, { decimals: d, operandDecimals: options.operandDecimals ?? ops.get(s.id) }));
 }

@@ -1,4 +1,5 @@
-import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Unit, type UnitSystemId } from '@shared/units';
+import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, unitToBase, type Unit, type UnitSystemId } from '@shared/units';
+import { MAX_EXTRA_DECIMALS, carries, carryDecimals, printedValue } from '../solver/printed-digits';
 import type { TakeoffStep, TakeoffUnit, TakeoffValue } from './steps';
 import { texText } from '../text/safe-text';
 
@@ -25,16 +26,59 @@ const KATEX_UNIT: Partial<Record<Unit | '%', string>> = {
   '%': '\\%',
 };
 
-/** A number with its unit as KaTeX source, in the chosen unit system. */
-function quantity(v: TakeoffValue, system: UnitSystemId, withUnit = true): string {
-  if (v.unit === '%') return `${numberFormat(v.value, 1, { asciiMinus: true })}${withUnit ? '\\,\\%' : ''}`;
-  if (v.unit === '1') return numberFormat(v.value, 4, { asciiMinus: true });
+/** The display unit of a takeoff value in a unit system ('%' and '1' stay as they are). */
+function displayUnit(v: Pick<TakeoffValue, 'unit'>, system: UnitSystemId): Unit | '%' | '1' {
+  if (v.unit === '%' || v.unit === '1') return v.unit;
   const q = QUANTITY_OF[v.unit];
-  const unit: Unit = q ? UNIT_SYSTEMS[system][q] : (v.unit as Unit);
-  const shown = unitFromBase(v.value, unit);
-  const digits = numberFormat(shown, UNIT_DECIMALS[unit], { asciiMinus: true });
-  if (!withUnit) return digits;
-  return `${digits}\\,${KATEX_UNIT[unit] ?? `\\mathrm{${unit}}`}`;
+  return q ? UNIT_SYSTEMS[system][q] : (v.unit as Unit);
+}
+
+/** Decimals a value is printed with by default: the display unit's fixed decimals. */
+function baseDecimals(v: Pick<TakeoffValue, 'unit'>, system: UnitSystemId): number {
+  const u = displayUnit(v, system);
+  return u === '%' ? 1 : u === '1' ? 4 : UNIT_DECIMALS[u];
+}
+
+/** The value as shown (display unit, `extra` more decimals than the default). */
+function shownNumber(v: Pick<TakeoffValue, 'unit' | 'value'>, system: UnitSystemId, extra = 0): number {
+  const u = displayUnit(v, system);
+  const shown = u === '%' || u === '1' ? v.value : unitFromBase(v.value, u);
+  return printedValue(shown, baseDecimals(v, system) + extra);
+}
+
+/** The value as shown, taken back to its computing unit — what a checker multiplies with. */
+function shownInBase(v: Pick<TakeoffValue, 'unit' | 'value'>, system: UnitSystemId, extra = 0): number {
+  const u = displayUnit(v, system);
+  const shown = shownNumber(v, system, extra);
+  return u === '%' || u === '1' ? shown : unitToBase(shown, u);
+}
+
+/** A number with its unit as KaTeX source, in the chosen unit system, `extra` more decimals. */
+function quantity(v: Pick<TakeoffValue, 'unit' | 'value'>, system: UnitSystemId, withUnit = true, extra = 0): string {
+  const u = displayUnit(v, system);
+  const digits = numberFormat(u === '%' || u === '1' ? v.value : unitFromBase(v.value, u), baseDecimals(v, system) + extra, { asciiMinus: true });
+  if (!withUnit || u === '1') return digits;
+  if (u === '%') return `${digits}\\,\\%`;
+  return `${digits}\\,${KATEX_UNIT[u] ?? `\\mathrm{${u}}`}`;
+}
+
+/**
+ * Extra decimals for the operands of one printed line so that the line, redone from its printed
+ * operands (converted back to computing units), gives its printed result to the result's printed
+ * precision (shared/solver/printed-digits.ts says why).
+ */
+function operandExtra(
+  operands: Pick<TakeoffValue, 'unit' | 'value'>[],
+  compute: (operandsInBase: number[]) => number,
+  result: Pick<TakeoffValue, 'unit' | 'value'>,
+  system: UnitSystemId,
+): number {
+  const d = baseDecimals(result, system);
+  const u = displayUnit(result, system);
+  const toShown = (base: number) => (u === '%' || u === '1' ? base : unitFromBase(base, u));
+  const want = toShown(result.value);
+  const extra = carryDecimals(0, (e) => carries(toShown(compute(operands.map((o) => shownInBase(o, system, e)))), want, d));
+  return Math.min(extra, MAX_EXTRA_DECIMALS);
 }
 
 function find(step: TakeoffStep, key: string): TakeoffValue {
@@ -52,49 +96,98 @@ const text = texText;
  */
 export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions = {}): string {
   const system = options.system ?? 'si';
-  const q = (key: string, withUnit = true) => quantity(find(step, key), system, withUnit);
-  const m = (metres: number) => quantity({ key: '', symbol: '', label: '', value: metres, unit: 'm' }, system);
+  const q = (key: string, withUnit = true, extra = 0) => quantity(find(step, key), system, withUnit, extra);
+  const len = (metres: number, extra = 0) => quantity({ value: metres, unit: 'm' }, system, true, extra);
+  const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
   switch (step.kind) {
     case 'purlin-width': {
       const tag = text(step.jointTag);
-      const halvesSloped = step.halves.map((h) => `\\tfrac{1}{2}(${m(2 * h.sloped)})`).join(' + ');
-      const halvesPlan = step.halves.map((h) => `\\tfrac{1}{2}(${m(2 * h.plan)})`).join(' + ');
+      const line = (symbol: string, halves: number[], key: string) => {
+        const e = operandExtra(halves.map((h) => ({ value: 2 * h, unit: 'm' as const })), (xs) => sum(xs) / 2, find(step, key), system);
+        return `${symbol} &= ${halves.map((h) => `\\tfrac{1}{2}(${len(2 * h, e)})`).join(' + ')} = ${q(key)}`;
+      };
       return [
         '\\begin{aligned}',
-        `b_{s,${tag}} &= ${halvesSloped} = ${q('widthSlope')} \\\\`,
-        `b_{p,${tag}} &= ${halvesPlan} = ${q('widthPlan')}`,
+        `${line(`b_{s,${tag}}`, step.halves.map((h) => h.sloped), 'widthSlope')} \\\\`,
+        line(`b_{p,${tag}}`, step.halves.map((h) => h.plan), 'widthPlan'),
         '\\end{aligned}',
       ].join('\n');
     }
     case 'purlin-beam': {
       const k = step.trussIndex;
-      const left = k > 0 ? `L_{${k}}` : '';
-      const right = k < step.spans.length ? `L_{${k + 1}}` : '';
-      const tributary = [left, right].filter(Boolean).map((s) => `\\tfrac{1}{2}${s}`).join(' + ');
+      const n = step.spans.length;
+      const spansHere = [k > 0 ? k - 1 : -1, k < n ? k : -1].filter((i) => i >= 0);
+      const symbols = spansHere.map((i) => `L_{${i + 1}}`);
+      const tributary = symbols.map((s) => `\\tfrac{1}{2}${s}`).join(' + ');
+      const spanValues = spansHere.map((i) => ({ value: step.spans[i], unit: 'm' as const }));
+      const eTrib = operandExtra(spanValues, (xs) => sum(xs) / 2, find(step, 'tributaryPerUnit'), system);
+      // Support moments per 1 kN/m are m² (kN·m per kN/m): shown in the length unit squared.
+      const lengthUnit = UNIT_SYSTEMS[system].length;
+      const areaFactor = unitFromBase(1, lengthUnit) ** 2;
+      const mShown = (i: number, d: number) => printedValue(step.momentsPerUnit[i] * areaFactor, d);
+      const mBase = UNIT_DECIMALS[lengthUnit];
+      // c_exact = ½(L_k + L_k+1) + (M_k−1 − M_k)/L_k + (M_k+1 − M_k)/L_k+1, the reaction of a
+      // continuous beam from its support moments (statics of each span, moments sagging positive).
+      const exactFrom = (d: number) => {
+        let c = 0;
+        for (const i of spansHere) {
+          const L = unitToBase(printedValue(unitFromBase(step.spans[i], lengthUnit), d), lengthUnit);
+          const far = i === k - 1 ? i : i + 1; // the span's other support
+          c += L / 2 + (mShown(far, d) / areaFactor - mShown(k, d) / areaFactor) / L;
+        }
+        return c;
+      };
+      const exactWant = find(step, 'exactPerUnit');
+      const dExact = carryDecimals(mBase, (d) => carries(unitFromBase(exactFrom(d), lengthUnit), unitFromBase(exactWant.value, lengthUnit), baseDecimals(exactWant, system)));
+      const mTex = (i: number) => numberFormat(mShown(i, dExact), dExact, { asciiMinus: true });
+      const lTex = (i: number) => numberFormat(unitFromBase(step.spans[i], lengthUnit), dExact, { asciiMinus: true });
+      const areaUnit = `\\mathrm{${lengthUnit}^2}`;
+      const exactTerms = spansHere.map((i) => {
+        const far = i === k - 1 ? i : i + 1;
+        return `\\tfrac{1}{2}(${lTex(i)}) + \\frac{(${mTex(far)}) - (${mTex(k)})}{${lTex(i)}}`;
+      });
+      const exactSymbolic = spansHere
+        .map((i) => {
+          const far = i === k - 1 ? i : i + 1;
+          return `\\tfrac{1}{2}L_{${i + 1}} + \\frac{M_{${far}} - M_{${k}}}{L_{${i + 1}}}`;
+        })
+        .join(' + ');
+      const moments = Array.from({ length: n + 1 }, (_, i) => `M_{${i}} = ${mTex(i)}`).join(',\\ ');
       return [
         '\\begin{aligned}',
-        `&L_i M_{i-1} + 2(L_i + L_{i+1}) M_i + L_{i+1} M_{i+1} = -\\tfrac{1}{4}\\left(w L_i^3 + w L_{i+1}^3\\right), \\quad M_0 = M_{${step.spans.length}} = 0 \\\\`,
-        `&R = c\\,w, \\quad c_{\\mathrm{exact}} = ${q('exactPerUnit')} \\quad ${text('(three-moment equation)')} \\\\`,
-        `&c_{\\mathrm{trib}} = ${tributary} = ${q('tributaryPerUnit')} \\quad ${text('(tributary length)')}`,
+        `&L_i M_{i-1} + 2(L_i + L_{i+1}) M_i + L_{i+1} M_{i+1} = -\\tfrac{1}{4}\\left(w L_i^3 + w L_{i+1}^3\\right), \\quad M_0 = M_{${n}} = 0 \\quad ${text('(three-moment equation)')} \\\\`,
+        `&${text('per 1 unit of w:')}\\ ${moments}\\ ${areaUnit} \\\\`,
+        `&R = c\\,w, \\quad c_{\\mathrm{exact}} = ${exactSymbolic} = ${exactTerms.join(' + ')} = ${q('exactPerUnit')} \\\\`,
+        `&c_{\\mathrm{trib}} = ${tributary} = ${spansHere.map((i) => `\\tfrac{1}{2}(${len(step.spans[i], eTrib)})`).join(' + ')} = ${q('tributaryPerUnit')} \\quad ${text('(tributary length)')}`,
         '\\end{aligned}',
       ].join('\n');
     }
     case 'line-load': {
       const b = step.basis === 'slope' ? 'b_{s}' : 'b_{p}';
-      const lines = [`w &= q\\,${b} = ${q('q')} \\times ${q('width')} = ${q('w')}`];
-      if (step.values.some((v) => v.key === 'qPlan')) {
-        lines.push(`q_{p} &= w / b_{p} = q / \\cos\\theta = ${q('qPlan')} \\quad ${text('(the same load per unit area of plan)')}`);
+      const e = operandExtra([find(step, 'q'), find(step, 'width')], ([qq, bb]) => qq * bb, find(step, 'w'), system);
+      const lines = [`w &= q\\,${b} = ${q('q', true, e)} \\times ${q('width', true, e)} = ${q('w')}`];
+      if (step.values.some((v) => v.key === 'qPlan') && step.values.some((v) => v.key === 'widthPlan')) {
+        const ep = operandExtra([find(step, 'w'), find(step, 'widthPlan')], ([ww, bp]) => ww / bp, find(step, 'qPlan'), system);
+        lines.push(
+          `q_{p} &= w / b_{p} = ${q('w', true, ep)} / ${q('widthPlan', true, ep)} = ${q('qPlan')} \\quad ${text('(the same load per unit area of plan, ')}q/\\cos\\theta${text(')')}`,
+        );
       }
       return ['\\begin{aligned}', lines.join(' \\\\\n'), '\\end{aligned}'].join('\n');
     }
     case 'purlin-reaction': {
       const tag = text(step.jointTag);
+      const product = ([c, w]: number[]) => c * w;
+      const eE = operandExtra([find(step, 'exactPerUnit'), find(step, 'w')], product, find(step, 'exact'), system);
+      const eT = operandExtra([find(step, 'tributaryPerUnit'), find(step, 'w')], product, find(step, 'tributary'), system);
       const lines = [
-        `R_{\\mathrm{exact}} &= c_{\\mathrm{exact}}\\,w = ${q('exactPerUnit')} \\times ${q('w')} = ${q('exact')}`,
-        `R_{\\mathrm{trib}} &= c_{\\mathrm{trib}}\\,w = ${q('tributaryPerUnit')} \\times ${q('w')} = ${q('tributary')}`,
+        `R_{\\mathrm{exact}} &= c_{\\mathrm{exact}}\\,w = ${q('exactPerUnit', true, eE)} \\times ${q('w', true, eE)} = ${q('exact')}`,
+        `R_{\\mathrm{trib}} &= c_{\\mathrm{trib}}\\,w = ${q('tributaryPerUnit', true, eT)} \\times ${q('w', true, eT)} = ${q('tributary')}`,
       ];
       if (step.differencePct !== null) {
-        lines.push(`\\Delta &= \\frac{R_{\\mathrm{trib}} - R_{\\mathrm{exact}}}{R_{\\mathrm{exact}}} = ${q('differencePct')}`);
+        const eD = operandExtra([find(step, 'tributary'), find(step, 'exact')], ([t, x]) => ((t - x) / x) * 100, find(step, 'differencePct'), system);
+        lines.push(
+          `\\Delta &= \\frac{R_{\\mathrm{trib}} - R_{\\mathrm{exact}}}{R_{\\mathrm{exact}}} = \\frac{${q('tributary', false, eD)} - ${q('exact', false, eD)}}{${q('exact', false, eD)}} = ${q('differencePct')}`,
+        );
       }
       const chosen = step.chosen === 'exact' ? 'R_{\\mathrm{exact}}' : 'R_{\\mathrm{trib}}';
       lines.push(`P_{${tag},y} &= -${chosen} = ${q('fy')}`);

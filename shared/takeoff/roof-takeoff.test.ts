@@ -208,8 +208,10 @@ describe('steps for the calc sheet', () => {
     const step = journey.steps.find((s) => s.kind === 'line-load' && s.caseId === 'S' && s.jointTag === 'C')!;
     // 1.2 kPa × 2.000 m = 2.40 kN/m
     expect(takeoffStepKatex(step)).toContain('1.20\\,\\mathrm{kPa} \\times 2.000\\,\\mathrm{m} = 2.40\\,\\mathrm{kN/m}');
-    // The same in US units: 1.2 kPa = 25.1 psf, 2 m = 6.56 ft, 2.4 kN/m = 164 plf (NIST factors).
-    expect(takeoffStepKatex(step, { system: 'us' })).toContain('25.1\\,\\mathrm{psf} \\times 6.56\\,\\mathrm{ft} = 164\\,\\mathrm{plf}');
+    // The same in US units: 1.2 kPa = 25.063 psf, 2 m = 6.5617 ft, 2.4 kN/m = 164.45 plf (NIST
+    // SP 811 factors). At the default 25.1 psf × 6.56 ft a checker gets 164.66 → 165, not the
+    // printed 164, so the operands carry one more decimal: 25.06 × 6.562 = 164.44 → 164.
+    expect(takeoffStepKatex(step, { system: 'us' })).toContain('25.06\\,\\mathrm{psf} \\times 6.562\\,\\mathrm{ft} = 164\\,\\mathrm{plf}');
   });
 
   it('when the chosen method is exact, then the joint loads equal minus the exact reactions and fx is 0', () => {

@@ -355,7 +355,10 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
           value('width', load.basis === 'slope' ? 'b_{s}' : 'b_{p}', load.basis === 'slope' ? 'tributary width along the slope' : 'tributary width on plan', width, 'm'),
           value('w', 'w', 'line load on the purlin', w, 'kN/m'),
           ...(load.basis === 'slope' && purlin.widthPlan > 0
-            ? [value('qPlan', 'q_{p}', 'the same load per m² of plan (q / cos θ)', w / purlin.widthPlan, 'kPa')]
+            ? [
+                value('widthPlan', 'b_{p}', 'tributary width on plan', purlin.widthPlan, 'm'),
+                value('qPlan', 'q_{p}', 'the same load per m² of plan (q / cos θ)', w / purlin.widthPlan, 'kPa'),
+              ]
             : []),
         ],
       } satisfies LineLoadStep);

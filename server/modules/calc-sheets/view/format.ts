@@ -61,9 +61,13 @@ export function isoMinute(at: Date | string): string {
   return `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 }
 
-export function stepView(step: SolverStep, fmt: Formatters): StepView {
-  const lines = stepToKatex(step, { decimals: 3 }).map((src) => equationHtml(src));
-  const view: StepView = { id: step.id, title: step.title, lines };
+/**
+ * One step typeset. `operandDecimals` comes from `stepsOperandDecimals` when the step is read
+ * with others (reaction steps solved together); otherwise the step chooses its own.
+ */
+export function stepView(step: SolverStep, fmt: Formatters, operandDecimals?: number): StepView {
+  const tex = stepToKatex(step, { decimals: 3, operandDecimals });
+  const view: StepView = { id: step.id, title: step.title, lines: tex.map((src) => equationHtml(src)), tex };
   if (step.kind === 'joint') {
     view.svg = jointFbdSvg(step, { formatForce: (kN) => fmt.qty(kN, 'force'), zeroTolerance: fmt.zeroTol });
   }

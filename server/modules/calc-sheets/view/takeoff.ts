@@ -6,11 +6,10 @@ import type { SheetSection } from './context';
 /** The roof load takeoff, step by step, when the loads came from one. */
 export const takeoffSection: SheetSection<'takeoff'> = {
   build({ input, system }) {
-    const takeoff: StepView[] = (input.takeoffSteps ?? []).map((s) => ({
-      id: s.id,
-      title: s.title,
-      lines: [katexHtml(takeoffStepKatex(s, { system }))],
-    }));
+    const takeoff: StepView[] = (input.takeoffSteps ?? []).map((s) => {
+      const tex = [takeoffStepKatex(s, { system })];
+      return { id: s.id, title: s.title, lines: tex.map((t) => katexHtml(t)), tex };
+    });
     return { view: { takeoff }, contents: takeoff.length ? [{ anchor: 'takeoff', title: 'Roof load takeoff' }] : [] };
   },
 };

@@ -1,5 +1,5 @@
-import { useEffect, useRef } from 'react';
-import { stepToKatex, type SolverStep } from '@shared/solver';
+import { useEffect, useMemo, useRef } from 'react';
+import { stepToKatex, stepsOperandDecimals, type SolverStep } from '@shared/solver';
 import { stepJoints } from '../utils/run-results';
 import { Tex } from './tex';
 
@@ -31,6 +31,8 @@ export function SolverSteps({ steps, activeStep, onActivate, onHover }: SolverSt
     if (!activeStep) return;
     listRef.current?.querySelector(`[data-step="${CSS.escape(activeStep)}"]`)?.scrollIntoView({ block: 'nearest', behavior: 'smooth' });
   }, [activeStep]);
+  // Reactions solved together are printed with the operand decimals of their group.
+  const operand = useMemo(() => stepsOperandDecimals(steps, 3), [steps]);
 
   return (
     <ol ref={listRef} className="flex flex-col gap-2">
@@ -51,7 +53,7 @@ export function SolverSteps({ steps, activeStep, onActivate, onHover }: SolverSt
               <span className="font-semibold text-ink">{step.title}</span>
               <span className="text-ink-faint">{KIND_LABEL[step.kind]}</span>
             </p>
-            {stepToKatex(step).map((line, i) => (
+            {stepToKatex(step, { operandDecimals: operand.get(step.id) }).map((line, i) => (
               <Tex key={i} source={line} />
             ))}
           </li>
