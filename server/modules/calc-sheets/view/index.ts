@@ -11,7 +11,7 @@ import { casesSection } from './cases';
 import { combinationsSection } from './combinations';
 import { envelopeSection } from './envelope';
 import { residualSection } from './residual';
-import type { CalcSheetInput, CalcSheetView } from './types';
+import type { CalcSheetInput, CalcSheetView, StepView } from './types';
 
 /**
  * The sections of the sheet in the order of its contents. A new section is a new file in this
@@ -51,5 +51,29 @@ export function buildCalcSheetView(input: CalcSheetInput): CalcSheetView {
   const listed = parts.flatMap((p) => p.contents ?? []);
   const contents = ctx.unstable ? UNSTABLE_CONTENTS.flatMap((a) => listed.filter((c) => c.anchor === a)) : listed;
   const summary = parts.flatMap((p) => p.summary ?? []);
-  return { ...view, ...coverOf(ctx, view.units, contents, summary) };
+  const built = { ...view, ...coverOf(ctx, view.units, contents, summary) };
+  stepsNumber(built);
+  return built;
+}
+
+/**
+ * Numbers every worked step the way calc sheets are referenced: its section's number, a dot and
+ * its place in the section ("6.4"). Steps of a section left out of the contents get none.
+ */
+function stepsNumber(view: CalcSheetView): void {
+  const bySection: [string, StepView[]][] = [
+    ['stability', [view.stability]],
+    ['takeoff', view.takeoff],
+    ...view.cases.map((c): [string, StepView[]] => [
+      c.anchor,
+      [...c.zeroForce.steps, ...c.reactionSteps, ...c.jointSteps, ...c.simultaneousSteps, ...c.stiffnessSteps, c.check],
+    ]),
+  ];
+  for (const [anchor, steps] of bySection) {
+    const section = view.numbers[anchor];
+    if (!section) continue;
+    steps.forEach((s, i) => {
+      s.number = `${section}.${i + 1}`;
+    });
+  }
 }

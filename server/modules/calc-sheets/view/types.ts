@@ -46,6 +46,8 @@ export interface StepView {
   title: string;
   /** KaTeX HTML, one display equation per entry. */
   lines: string[];
+  /** Printed reference: section number and step within it, e.g. "6.4" (set when the sheet is built). */
+  number?: string;
   /** The KaTeX source of each entry of `lines` (what the sheet's arithmetic tests read back). */
   tex: string[];
   /** Free-body diagram SVG (joint steps). */

@@ -7,7 +7,7 @@ const SHEET = `
   <section class="sheet-section case" id="case-D">
     <h3 id="case-D-reactions">Support reactions</h3>
     <article class="step step-joint" id="case-D/joint-C">
-      <h4><a class="anchor" href="#case-D/joint-C">Joint C</a> <span class="step-id">case-D/joint-C</span></h4>
+      <h4><a class="anchor" href="#case-D/joint-C"><span class="step-no">6.3</span> Joint C</a></h4>
       <div class="step-body has-fbd"><figure class="fbd-figure"><svg><defs><marker id="arrow-head"></marker></defs><path id="p1"></path></svg></figure>
       <div class="eqs"><div class="eq"><span class="katex">ΣF</span></div></div></div>
     </article>
@@ -47,8 +47,8 @@ describe('stepAnchorsIn', () => {
 describe('stepTitlesIn and stepLabel', () => {
   it('when the sheet has loaded, then comments are labelled with the headings the sheet prints, not ids', () => {
     const titles = stepTitlesIn(sheet());
-    expect(titles).toEqual({ 'case-D-reactions': 'Support reactions', 'case-D/joint-C': 'Joint C' });
-    expect(stepLabel('case-D/joint-C', titles)).toBe('Joint C (case D)');
+    expect(titles).toEqual({ 'case-D-reactions': 'Support reactions', 'case-D/joint-C': '6.3 Joint C' });
+    expect(stepLabel('case-D/joint-C', titles)).toBe('6.3 Joint C (case D)');
     expect(stepLabel('case-D-reactions', titles)).toBe('Support reactions');
   });
 
