@@ -29,13 +29,15 @@ import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.
 import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/sheet-revisions/sheet-renderer';
 import { calcSheetRenderer } from './modules/sheet-revisions/calc-sheet-renderer';
 import { recordsRoutes } from './modules/records/records.routes';
-import { firmKeyInMemory, firmKeyLoadOrCreate, type FirmKey } from './modules/records/firm-key';
+import type { SigningKeys } from './modules/records/signing-keys';
 
 export interface AppDeps {
   config: Config;
   sequelize: Sequelize;
   mailer: Mailer;
   sessionSecret: string;
+  /** The firm's signing keys, opened at start (bootstrap.ts: signingKeysOpen). */
+  signingKeys: SigningKeys;
   /** Where the built client lives; served when present. */
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
@@ -50,8 +52,6 @@ export interface ReviewDeps {
   renderer?: SheetRenderer;
   /** Finds analysis runs; default: the analysis_runs table. */
   runs?: RunSource;
-  /** The firm's Ed25519 key; default: kept in DATA_DIR, or in memory for a :memory: database. */
-  firmKey?: FirmKey;
 }
 
 export interface CreatedApp {
@@ -132,7 +132,6 @@ export function createApp(deps: AppDeps): CreatedApp {
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
   app.use('/api', calcSheetsRoutes(registry, { printer }));
-  const key = deps.review?.firmKey ?? (config.databaseStorage === ':memory:' ? firmKeyInMemory() : firmKeyLoadOrCreate(config.dataDir));
   const issuedSheets = localFileStore(path.join(config.dataDir, 'issued-sheets'));
   app.use(
     '/api',
@@ -141,12 +140,12 @@ export function createApp(deps: AppDeps): CreatedApp {
       publicUrl,
       renderer: deps.review?.renderer ?? calcSheetRenderer({ printer, loadRunSheet }),
       runs: deps.review?.runs ?? analysisRunsTable(deps.sequelize),
-      key,
+      keys: deps.signingKeys,
       sheets: issuedSheets,
       log,
     }),
   );
-  app.use('/api', recordsRoutes(registry, { key, sheets: issuedSheets, maxVerifyBytes: config.maxUploadBytes }));
+  app.use('/api', recordsRoutes(registry, { keys: deps.signingKeys, sheets: issuedSheets, maxVerifyBytes: config.maxUploadBytes }));
   app.use('/api', notFoundHandler);
 
   if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {

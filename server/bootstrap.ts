@@ -13,11 +13,14 @@ import { seedDemo } from './seed/demo';
 import { firstAdminLink } from './modules/users/first-admin';
 import { runsFailInterrupted } from './modules/runs/runs.service';
 import { localFileStore } from './storage/file-store';
+import { signingKeysOpen, type SigningKeys } from './modules/records/signing-keys';
+import { auditChainSealExisting } from './modules/records/audit-chain';
 
 export interface Services extends CreatedApp {
   config: Config;
   sequelize: Sequelize;
   mailer: Mailer;
+  signingKeys: SigningKeys;
   sink?: SmtpSink;
   shutdown(): Promise<void>;
 }
@@ -46,6 +49,16 @@ export async function startServices(config: Config, options: { clientDir?: strin
   fs.mkdirSync(config.uploadsDir, { recursive: true });
   await runsFailInterrupted();
   if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
+  // Refuses to start (one sentence naming the file and how to restore it) when issued sheets
+  // exist and the key file is missing or holds another key; never silently makes a new one.
+  let signingKeys;
+  try {
+    signingKeys = await signingKeysOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
+  } catch (err) {
+    await sequelize.close();
+    throw err;
+  }
+  await auditChainSealExisting(sequelize);
   const firstLink = config.env !== 'production' ? null : await firstAdminLink({
     email: config.firstAdminEmail ?? 'admin@panelpoint.local',
     publicUrl: config.publicUrl ?? `http://localhost:${config.port}`,
@@ -61,6 +74,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     sequelize,
     mailer,
     sessionSecret: sessionSecretFor(config),
+    signingKeys,
     clientDir: options.clientDir,
     log: options.log,
     review: options.review,
@@ -70,6 +84,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     config,
     sequelize,
     mailer,
+    signingKeys,
     sink,
     async shutdown() {
       await created.close();

@@ -138,6 +138,21 @@ export class SheetRevisionEvent extends Model<InferAttributes<SheetRevisionEvent
   declare actorId: number | null;
   declare note: string;
   declare at: Date;
+  /** The hash chain (0007): the previous line's hash and this line's, filled in by the records service. */
+  declare prevHash: CreationOptional<string | null>;
+  declare hash: CreationOptional<string | null>;
+}
+
+/** A public key the firm has signed issued records with; the current one has no retiredAt. */
+export class SigningKey extends Model<InferAttributes<SigningKey>, InferCreationAttributes<SigningKey>> {
+  /** First 16 hex digits of the SHA-256 of the SPKI DER. */
+  declare keyId: string;
+  /** The whole SHA-256 (hex) of the SPKI DER, as issued rows store it in keyFingerprint. */
+  declare fingerprint: string;
+  declare algorithm: string;
+  declare publicKeyPem: string;
+  declare createdAt: Date;
+  declare retiredAt: CreationOptional<Date | null>;
 }
 
 /** A comment on a step of a sheet revision; a thread's replies point at its first comment. */
@@ -306,8 +321,21 @@ function initSheetModels(sequelize: Sequelize): void {
       actorId: { type: DataTypes.INTEGER, allowNull: true },
       note: { type: DataTypes.TEXT, allowNull: false },
       at: { type: DataTypes.DATE, allowNull: false },
+      prevHash: { type: DataTypes.STRING(64), allowNull: true },
+      hash: { type: DataTypes.STRING(64), allowNull: true },
     },
     { sequelize, tableName: 'sheet_revision_events', timestamps: false },
+  );
+  SigningKey.init(
+    {
+      keyId: { type: DataTypes.STRING(16), primaryKey: true },
+      fingerprint: { type: DataTypes.STRING(64), allowNull: false },
+      algorithm: { type: DataTypes.STRING(16), allowNull: false },
+      publicKeyPem: { type: DataTypes.TEXT, allowNull: false },
+      createdAt: { type: DataTypes.DATE, allowNull: false },
+      retiredAt: { type: DataTypes.DATE, allowNull: true },
+    },
+    { sequelize, tableName: 'signing_keys', timestamps: false },
   );
   SheetComment.init(
     {

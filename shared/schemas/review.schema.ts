@@ -21,7 +21,10 @@ import { z } from 'zod';
  * | PATCH  /api/sheet-comments/:id     | engineer, reviewer | SheetCommentResolveInput | SheetCommentView |
  * | GET    /api/archive                | any role | query: ArchiveQuery | ArchiveEntryView[] |
  * | POST   /api/archive/verify         | any role | multipart, one PDF in field "file" | SheetVerifyView |
- * | GET    /api/firm/signing-key       | admin | — | FirmSigningKeyView |
+ * | GET    /api/firm/signing-key       | admin | — | FirmSigningKeyView (the current key) |
+ * | GET    /api/firm/signing-keys      | admin | — | SigningKeyView[] (current first, then newest first) |
+ * | POST   /api/firm/signing-keys/rotate | admin | — | 201 SigningKeyView (the new current key) |
+ * | GET    /api/admin/audit-chain      | admin | — | AuditChainView |
  *
  * Refusals answer `{ error: { code, message } }` (shared/api/errors.ts). Codes of this area:
  * 'sheet-status-conflict' (409, a transition out of order or lost to someone acting at the same
@@ -30,7 +33,9 @@ import { z } from 'zod';
  * (409, an issued or superseded revision cannot change), 'open-comments' (409, checking while
  * comments are unresolved), 'run-not-solved' / 'run-of-other-truss' (409/422, a revision needs a
  * solved run of its own truss), 'newer-revision-issued' (409), 'not-a-pdf' (400),
- * 'file-too-large' (413), 'file-missing' (400).
+ * 'file-too-large' (413), 'file-missing' (400), 'archived-file-altered' / 'archived-file-missing' (409,
+ * the stored PDF no longer hashes to its record, or is gone; restore it from backup),
+ * 'signing-key-mismatch' (503, the key file does not hold the current key).
  */
 
 /** Statuses a sheet revision passes through; `superseded` follows `issued` when a later revision is issued. */
@@ -148,6 +153,8 @@ export interface SheetIssueView {
   signature: string;
   /** SHA-256 (hex) of the signing public key (SPKI DER). */
   keyFingerprint: string;
+  /** The key id the record names: the first 16 hex digits of keyFingerprint. */
+  keyId: string;
 }
 
 export interface SheetRevisionSummaryView {
@@ -230,6 +237,34 @@ export interface FirmSigningKeyView {
   publicKeyPem: string;
   /** SHA-256 (hex) of the SPKI DER. */
   fingerprint: string;
+  /** First 16 hex digits of the fingerprint; what issued records name. */
+  keyId: string;
+}
+
+/** One of the firm's signing keys, current or retired; retired public keys are kept for verifying. */
+export interface SigningKeyView {
+  keyId: string;
+  fingerprint: string;
+  algorithm: 'Ed25519';
+  publicKeyPem: string;
+  createdAt: string;
+  retiredAt: string | null;
+  current: boolean;
+  /** Issued or superseded sheets whose record this key signed. */
+  sheetsSigned: number;
+}
+
+/** The audit log's hash chain, checked line by line from the first. */
+export interface AuditChainView {
+  ok: boolean;
+  /** Lines checked. */
+  lines: number;
+  /** Hash of the last line (64 zeros for an empty log). */
+  lastHash: string;
+  /** The first line that breaks the chain, or null. */
+  broken: { eventId: number; revisionId: number; reason: string } | null;
+  /** One sentence for the page and the command. */
+  message: string;
 }
 
 /** Revision labels: 1 → A, 26 → Z, 27 → AA (the sheet's revision letter). */

@@ -84,6 +84,7 @@ describe('sign-in rate limit', () => {
       sequelize: services.sequelize,
       mailer: services.mailer,
       sessionSecret: 'a-test-secret-of-enough-length',
+      signingKeys: services.signingKeys,
       log: () => {},
     });
     const tab = await openTab(limited.app);

@@ -1,3 +1,4 @@
+import crypto from 'node:crypto';
 import { sheetRevisionLabel, type ArchiveEntryView } from '@shared/schemas/review.schema';
 import { AppError, notFound } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
@@ -23,9 +24,19 @@ export async function getIssuedPdf(id: number, store: FileStore): Promise<{ byte
   if ((row.status !== 'issued' && row.status !== 'superseded') || !row.pdfStoredName) {
     throw new AppError('sheet-not-issued', `Revision ${sheetRevisionLabel(row.number)} is not issued, so there is no archived PDF. Preview the calc sheet instead.`, 409);
   }
+  let bytes: Buffer;
+  try {
+    bytes = await store.read(row.pdfStoredName);
+  } catch {
+    throw new AppError('archived-file-missing', `The archived file of revision ${sheetRevisionLabel(row.number)} is missing from the data folder; restore it from backup.`, 409);
+  }
+  // Served only if it still is the file that was issued: its SHA-256 against the record's.
+  if (crypto.createHash('sha256').update(bytes).digest('hex') !== row.sha256) {
+    throw new AppError('archived-file-altered', 'The archived file no longer matches its record; restore it from backup.', 409);
+  }
   const context = (await repo.trussContext(row.trussId))!;
   const safe = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '');
-  return { bytes: await store.read(row.pdfStoredName), name: `${safe(context.jobNumber)}-${safe(context.trussName)}-rev-${sheetRevisionLabel(row.number)}.pdf` };
+  return { bytes, name: `${safe(context.jobNumber)}-${safe(context.trussName)}-rev-${sheetRevisionLabel(row.number)}.pdf` };
 }
 
 /** Revision letters of the given revisions, by id. */

@@ -1,6 +1,7 @@
 import { sheetRevisionLabel, type SheetSignerView } from '@shared/schemas/review.schema';
 import { canonicalJson } from './canonical-json';
-import type { FirmKey } from './firm-key';
+import { keyIdOf } from './firm-key';
+import type { PublicKeyCheck } from './signing-keys';
 import type { RevisionRow } from './records.repository';
 
 /**
@@ -11,7 +12,10 @@ import type { RevisionRow } from './records.repository';
  */
 export interface IssuedRecord {
   kind: 'panelpoint-issued-calc-sheet';
-  formatVersion: 1;
+  /** 1: records issued before key ids; 2: the record also names the signing key's id. */
+  formatVersion: 1 | 2;
+  /** Format 2: the first 16 hex digits of the SHA-256 of the signing public key (SPKI DER). */
+  keyId?: string;
   sheetId: number;
   trussId: number;
   runId: number;
@@ -34,10 +38,14 @@ export function issuedSigners(row: RevisionRow): SheetSignerView[] {
   ];
 }
 
-export function issuedRecord(row: RevisionRow): IssuedRecord {
+export type RecordFormat = 1 | 2;
+export const RECORD_FORMAT_CURRENT: RecordFormat = 2;
+
+export function issuedRecord(row: RevisionRow, formatVersion: RecordFormat = RECORD_FORMAT_CURRENT): IssuedRecord {
   return {
     kind: 'panelpoint-issued-calc-sheet',
-    formatVersion: 1,
+    formatVersion,
+    ...(formatVersion >= 2 ? { keyId: keyIdOf(row.keyFingerprint ?? '') } : {}),
     sheetId: row.id,
     trussId: row.trussId,
     runId: row.runId,
@@ -48,19 +56,32 @@ export function issuedRecord(row: RevisionRow): IssuedRecord {
   };
 }
 
-export function issuedRecordText(row: RevisionRow): string {
-  return canonicalJson(issuedRecord(row) as unknown as Parameters<typeof canonicalJson>[0]);
+export function issuedRecordText(row: RevisionRow, formatVersion: RecordFormat = RECORD_FORMAT_CURRENT): string {
+  return canonicalJson(issuedRecord(row, formatVersion) as unknown as Parameters<typeof canonicalJson>[0]);
+}
+
+/** The format a stored record text declares, or null when it is not a record of ours. */
+export function recordFormatOf(text: string): RecordFormat | null {
+  try {
+    const v = (JSON.parse(text) as { formatVersion?: unknown }).formatVersion;
+    return v === 1 || v === 2 ? v : null;
+  } catch {
+    return null;
+  }
 }
 
 /**
- * Whether the stored signature still holds: over the record rebuilt from the row now, by the
- * firm key, and the stored record text is that same text.
+ * Whether the stored signature still holds: over the record rebuilt from the row now (in the
+ * format the stored text declares), by the key the row names (looked up among all the firm's
+ * keys, retired ones included), and the stored record text is that same text.
  */
-export function issuedRecordVerify(row: RevisionRow, key: FirmKey): boolean {
-  if (!row.signature || !row.signedRecord) return false;
+export function issuedRecordVerify(row: RevisionRow, key: PublicKeyCheck | null): boolean {
+  if (!row.signature || !row.signedRecord || !key) return false;
+  const format = recordFormatOf(row.signedRecord);
+  if (format === null) return false;
   let text: string;
   try {
-    text = issuedRecordText(row);
+    text = issuedRecordText(row, format);
   } catch {
     return false;
   }

@@ -6,18 +6,19 @@ import { validationError } from '../../middleware/error-handler';
 import { AppError } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
 import * as archive from './archive.service';
-import type { FirmKey } from './firm-key';
+import { auditChainVerify } from './audit-chain';
+import type { SigningKeys } from './signing-keys';
 import { verifyPdf } from './verify.service';
 
 export interface RecordsRouteDeps {
-  /** The firm's Ed25519 key, which signed every issued record. */
-  key: FirmKey;
+  /** The firm's Ed25519 keys: the current one and every retired public key. */
+  keys: SigningKeys;
   /** Where issued PDFs are kept. */
   sheets: FileStore;
   maxVerifyBytes: number;
 }
 
-/** What is issued and kept: the archived PDFs, the archive search, verification, the firm key. */
+/** What is issued and kept: the archived PDFs, the archive search, verification, the firm's keys, the audit chain. */
 export function recordsRoutes(registry: RouteSpec[], deps: RecordsRouteDeps) {
   const routes = new ApiRoutes('/api', registry);
   // Held in memory only: a verify upload is hashed and dropped, never written anywhere.
@@ -38,9 +39,19 @@ export function recordsRoutes(registry: RouteSpec[], deps: RecordsRouteDeps) {
     }
     res.json(await verifyPdf(req.file.buffer, deps));
   });
-  routes.add('get', '/firm/signing-key', ['admin'], (_req, res) => {
-    const view: FirmSigningKeyView = { algorithm: 'Ed25519', publicKeyPem: deps.key.publicKeyPem, fingerprint: deps.key.fingerprint };
+  routes.add('get', '/firm/signing-key', ['admin'], async (_req, res) => {
+    const key = await deps.keys.current();
+    const view: FirmSigningKeyView = { algorithm: 'Ed25519', publicKeyPem: key.publicKeyPem, fingerprint: key.fingerprint, keyId: key.keyId };
     res.json(view);
+  });
+  routes.add('get', '/firm/signing-keys', ['admin'], async (_req, res) => {
+    res.json(await deps.keys.list());
+  });
+  routes.add('post', '/firm/signing-keys/rotate', ['admin'], async (_req, res) => {
+    res.status(201).json(await deps.keys.rotate());
+  });
+  routes.add('get', '/admin/audit-chain', ['admin'], async (_req, res) => {
+    res.json(await auditChainVerify());
   });
   return routes.router;
 }

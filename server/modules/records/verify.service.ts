@@ -3,9 +3,9 @@ import type { SheetVerifyView } from '@shared/schemas/review.schema';
 import { AppError } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
 import { archiveEntry, labelsOf } from './archive.service';
-import type { FirmKey } from './firm-key';
 import { issuedRecordVerify } from './issued-record';
 import { recordsRepository as repo, type RevisionRow } from './records.repository';
+import type { SigningKeys } from './signing-keys';
 
 /** Whether the bytes look like a PDF: the file header "%PDF-" (ISO 32000-1 §7.5.2). */
 export function looksLikePdf(bytes: Buffer): boolean {
@@ -17,7 +17,7 @@ export function looksLikePdf(bytes: Buffer): boolean {
  * signature over the record rebuilt from the database now, the archived file against its
  * recorded SHA-256, and whether a later revision superseded it. Writes nothing.
  */
-export async function verifyPdf(bytes: Buffer, deps: { key: FirmKey; sheets: FileStore }): Promise<SheetVerifyView> {
+export async function verifyPdf(bytes: Buffer, deps: { keys: SigningKeys; sheets: FileStore }): Promise<SheetVerifyView> {
   if (!looksLikePdf(bytes)) {
     throw new AppError('not-a-pdf', 'That file is not a PDF (it does not start with "%PDF-"). Drop the calc sheet PDF itself.', 400);
   }
@@ -36,7 +36,9 @@ export async function verifyPdf(bytes: Buffer, deps: { key: FirmKey; sheets: Fil
   }
   const context = (await repo.trussContext(row.trussId))!;
   const match = archiveEntry(row, context, await labelsOf([row.supersededById]));
-  const signature = issuedRecordVerify(row, deps.key) ? 'valid' : 'invalid';
+  // The key the row names, retired or current: a sheet issued before a rotation verifies under its own key.
+  const key = row.keyFingerprint ? await deps.keys.publicKeyFor(row.keyFingerprint) : null;
+  const signature = issuedRecordVerify(row, key) ? 'valid' : 'invalid';
   const archivedFile = await archivedFileState(row, deps.sheets);
   const sheet = `${context.jobNumber} ${context.projectName} — ${context.trussName}, revision ${match.label}`;
   let verdict: string;

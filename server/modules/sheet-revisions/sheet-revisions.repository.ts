@@ -1,7 +1,28 @@
-import { Op, UniqueConstraintError, type WhereOptions } from 'sequelize';
+import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
 import { Drawing, SheetComment, SheetRevision, Truss, User } from '../../db/models';
+import { auditChainSeal } from '../records/audit-chain';
 import { revisionRow, type RevisionRow } from '../records/records.repository';
+
+let sealQueue: Promise<unknown> = Promise.resolve();
+
+/**
+ * Runs a write and seals the audit lines its triggers wrote onto the hash chain, in one
+ * transaction. Within the process the writes go one at a time (a :memory: database has one
+ * connection, on which two transactions cannot be open at once); between processes the
+ * IMMEDIATE transaction takes the write lock first, so two sealers never read the same last hash.
+ */
+function withSealedLog<T>(write: (transaction: Transaction) => Promise<T>): Promise<T> {
+  const run = sealQueue.then(() =>
+    SheetRevision.sequelize!.transaction(async (transaction) => {
+      const out = await write(transaction);
+      await auditChainSeal(transaction);
+      return out;
+    }),
+  );
+  sealQueue = run.catch(() => undefined);
+  return run;
+}
 
 /**
  * The writes of the check flow and the reads only it needs (comments, people, e-mail
@@ -36,15 +57,20 @@ export const sheetRevisionsRepository = {
     for (let attempt = 0; ; attempt++) {
       const highest = (await SheetRevision.max('number', { where: { trussId: input.trussId } })) as number | null;
       try {
-        const created = await SheetRevision.create({
-          trussId: input.trussId,
-          runId: input.runId,
-          number: (highest ?? 0) + 1,
-          status: 'draft',
-          preparedById: input.preparedById,
-          lastActorId: input.preparedById,
-          lastNote: input.note,
-        });
+        const created = await withSealedLog((transaction) =>
+          SheetRevision.create(
+            {
+              trussId: input.trussId,
+              runId: input.runId,
+              number: (highest ?? 0) + 1,
+              status: 'draft',
+              preparedById: input.preparedById,
+              lastActorId: input.preparedById,
+              lastNote: input.note,
+            },
+            { transaction },
+          ),
+        );
         return revisionRow(created);
       } catch (err) {
         if (err instanceof UniqueConstraintError && attempt < 5) continue;
@@ -65,9 +91,8 @@ export const sheetRevisionsRepository = {
     note: string,
     fields: Partial<Omit<RevisionRow, 'id' | 'status' | 'trussId' | 'number' | 'runId' | 'createdAt' | 'updatedAt'>> = {},
   ): Promise<boolean> {
-    const [count] = await SheetRevision.update(
-      { ...fields, status: to, lastActorId: actorId, lastNote: note },
-      { where: { id, status: from } },
+    const [count] = await withSealedLog((transaction) =>
+      SheetRevision.update({ ...fields, status: to, lastActorId: actorId, lastNote: note }, { where: { id, status: from }, transaction }),
     );
     return count === 1;
   },

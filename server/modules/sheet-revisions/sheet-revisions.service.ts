@@ -4,7 +4,8 @@ import { sheetRevisionLabel, type SheetAction, type SheetEventView, type SheetRe
 import { AppError, notFound } from '../../errors/app-error';
 import type { Mailer } from '../../mail/mailer';
 import type { FileStore } from '../../storage/file-store';
-import type { FirmKey } from '../records/firm-key';
+import { keyIdOf } from '../records/firm-key';
+import type { SigningKeys } from '../records/signing-keys';
 import { issuedRecordText, issuedSigners } from '../records/issued-record';
 import { recordsRepository as records, type RevisionRow, type TrussContext } from '../records/records.repository';
 import { statusConflict, TRANSITIONS } from './revision-status';
@@ -24,7 +25,8 @@ export interface ReviewServiceDeps {
   publicUrl: () => string;
   renderer: SheetRenderer;
   runs: RunSource;
-  key: FirmKey;
+  /** The firm's signing keys; issuing signs with the current one. */
+  keys: SigningKeys;
   /** Where issued PDFs are kept. */
   sheets: FileStore;
   log: (msg: string, err?: unknown) => void;
@@ -108,6 +110,7 @@ export async function getRevision(id: number, deps: Pick<ReviewServiceDeps, 'pub
             record: row.signedRecord,
             signature: row.signature,
             keyFingerprint: row.keyFingerprint,
+            keyId: keyIdOf(row.keyFingerprint),
           }
         : null,
     pageUrl: pageUrl(deps, row.id),
@@ -188,6 +191,7 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
     },
   });
   const sha256 = crypto.createHash('sha256').update(pdf).digest('hex');
+  const key = await deps.keys.current();
   const storedName = `sheet-${row.id}-${label}-${sha256.slice(0, 16)}-${crypto.randomBytes(4).toString('hex')}.pdf`;
   const issued: RevisionRow = {
     ...row,
@@ -197,10 +201,10 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
     pdfStoredName: storedName,
     pdfSize: pdf.length,
     sha256,
-    keyFingerprint: deps.key.fingerprint,
+    keyFingerprint: key.fingerprint,
   };
   const record = issuedRecordText(issued);
-  const signature = deps.key.sign(record);
+  const signature = key.sign(record);
   await deps.sheets.write(storedName, pdf);
   let moved = false;
   try {
@@ -213,7 +217,7 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
       sha256,
       signedRecord: record,
       signature,
-      keyFingerprint: deps.key.fingerprint,
+      keyFingerprint: key.fingerprint,
     });
   } finally {
     if (!moved) await deps.sheets.remove(storedName);

@@ -3,6 +3,8 @@ import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useFirm } from '@/features/firm/api/get-firm';
 import { FirmForm } from '@/features/firm/components/firm-form';
 import { SigningKey } from '@/features/firm/components/signing-key';
+import { SigningKeys } from '@/features/firm/components/signing-keys';
+import { AuditChain } from '@/features/firm/components/audit-chain';
 import { isAdmin } from '@/lib/permissions';
 import { useCurrentUser } from '../../current-user';
 
@@ -23,6 +25,12 @@ export function FirmRoute() {
           </Panel>
           <Panel title="Signing key">
             <SigningKey />
+          </Panel>
+          <Panel title="All signing keys">
+            <SigningKeys />
+          </Panel>
+          <Panel title="Audit log chain">
+            <AuditChain />
           </Panel>
         </div>
       )}

@@ -14,9 +14,14 @@ export function SigningKey() {
   return (
     <div className="flex flex-col gap-4 text-sm">
       <p className="text-ink-soft">
-        Every issued sheet’s record (sheet, revision, SHA-256 of the PDF, signers and times) is signed with this {key.data.algorithm} key. It
-        was made when Panelpoint first started and is kept in the data folder; back that folder up.
+        Every sheet issued from now on has its record (sheet, revision, SHA-256 of the PDF, signers, times and this key’s id) signed with
+        this {key.data.algorithm} key. Its private half is kept in the data folder; back that folder up. Without it Panelpoint will not
+        start while issued sheets exist.
       </p>
+      <div>
+        <div className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Key id</div>
+        <code className="font-mono text-[13px] text-ink">{key.data.keyId}</code>
+      </div>
       <div>
         <div className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Fingerprint (SHA-256 of the public key)</div>
         <code className="font-mono text-[13px] break-all text-ink">{groupHex(key.data.fingerprint)}</code>

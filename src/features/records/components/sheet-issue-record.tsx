@@ -25,8 +25,9 @@ export function SheetIssueRecord({ issue }: { issue: SheetIssueView }) {
         ))}
       </dd>
       <dt className="text-ink-soft">Firm key</dt>
-      <dd className="font-mono text-xs break-all text-ink-soft" title="SHA-256 of the firm's Ed25519 public key">
-        {issue.keyFingerprint}
+      <dd className="font-mono text-xs break-all text-ink-soft" title="SHA-256 of the firm's Ed25519 public key; the key id is its first 16 digits">
+        <span className="font-medium text-ink">{issue.keyId}</span>
+        {issue.keyFingerprint.slice(issue.keyId.length)}
       </dd>
     </dl>
   );

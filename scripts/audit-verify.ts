@@ -1,0 +1,43 @@
+/**
+ * `npm run -s audit:verify`: checks the sheet audit log's hash chain in the database of
+ * DATA_DIR (default `data`), line by line from the first, without changing anything.
+ *
+ * Prints "OK: …" and exits 0 when every line follows the one before it; prints the first
+ * broken line and why and exits 1 when not; exits 2 with one line on stderr when there is no
+ * database to check.
+ */
+import fs from 'node:fs';
+import { loadConfig } from '../server/config';
+import { openDatabase } from '../server/db/sequelize';
+import { initModels } from '../server/db/models';
+import { auditChainVerify } from '../server/modules/records/audit-chain';
+
+async function main(): Promise<number> {
+  const config = loadConfig(process.env);
+  if (!fs.existsSync(config.databaseStorage)) {
+    console.error(`No database at ${config.databaseStorage}; set DATA_DIR to the data folder of the Panelpoint install to check.`);
+    return 2;
+  }
+  const sequelize = await openDatabase(config.databaseStorage);
+  try {
+    initModels(sequelize);
+    const [tables] = await sequelize.query("SELECT name FROM sqlite_master WHERE type = 'table' AND name = 'sheet_revision_events'");
+    if ((tables as unknown[]).length === 0) {
+      console.error(`${config.databaseStorage} has no sheet audit log; start Panelpoint once so its migrations run, then check again.`);
+      return 2;
+    }
+    const result = await auditChainVerify();
+    console.log(result.ok ? result.message : `BROKEN: ${result.message}`);
+    return result.ok ? 0 : 1;
+  } finally {
+    await sequelize.close();
+  }
+}
+
+main().then(
+  (code) => process.exit(code),
+  (err) => {
+    console.error(`audit:verify failed: ${err instanceof Error ? err.message : String(err)}`);
+    process.exit(1);
+  },
+);
