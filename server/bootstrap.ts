@@ -54,8 +54,8 @@ export async function startServices(config: Config, options: { clientDir?: strin
     say(`No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (it changes at every start until used): ${firstLink}`);
   }
 
-  const sink = config.smtpUrl ? undefined : await startSmtpSink();
-  const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, from: config.mailFrom });
+  const sink = config.smtpUrl ? undefined : await startSmtpSink({ sender: config.mailFrom });
+  const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, sinkAuth: sink?.auth, from: config.mailFrom });
   const created = createApp({
     config,
     sequelize,
