@@ -14,7 +14,8 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
  * - Per address (default 50 in 15 minutes, high so that an office behind one NAT is not
  *   locked out by one person's mistakes): stops one address trying many accounts. It never
  *   touches attempts from any other address, so someone guessing at other accounts cannot
- *   keep account X's owner out from X's own network.
+ *   keep account X's owner out from X's own network. Its locks back off like an account's;
+ *   a success does not reset them, a day without attempts (pruning) does.
  * - A success clears the account's count and its backoff. It does not clear the address's
  *   count (only the attempt itself is taken back): otherwise a guesser with one account of
  *   their own could sign into it between guesses and never reach the address limit.
