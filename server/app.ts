@@ -12,6 +12,7 @@ import { createCsrf } from './middleware/csrf';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { createPassport } from './modules/auth/passport';
 import { authRoutes } from './modules/auth/auth.routes';
+import { signInLimiterCreate } from './modules/auth/signin-limiter';
 import { usersRoutes } from './modules/users/users.routes';
 import { firmRoutes } from './modules/firm/firm.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
@@ -118,7 +119,12 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', express.json({ limit: '1mb' }));
 
   const publicUrl = () => config.publicUrl ?? `http://localhost:${config.port}`;
-  app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor));
+  const signInLimiter = signInLimiterCreate(deps.sequelize, {
+    accountLimit: config.signInAccountLimit,
+    addressLimit: config.signInAddressLimit,
+    windowMs: config.signInRateWindowMs,
+  });
+  app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor, signInLimiter));
   app.use('/api', usersRoutes(registry, { mailer: deps.mailer, publicUrl }));
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));

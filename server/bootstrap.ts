@@ -6,7 +6,7 @@ import type { Config } from './config';
 import { createApp, type CreatedApp, type ReviewDeps } from './app';
 import { openDatabase } from './db/sequelize';
 import { migrate } from './db/migrate';
-import { initModels } from './db/models';
+import { Drawing, initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
 import { seedDemo } from './seed/demo';
@@ -15,6 +15,27 @@ import { runsFailInterrupted } from './modules/runs/runs.service';
 import { localFileStore } from './storage/file-store';
 import { signingKeysOpen, type SigningKeys } from './modules/records/signing-keys';
 import { auditChainSealExisting } from './modules/records/audit-chain';
+import { sweepOrphans, tightenModes } from './storage/file-hygiene';
+
+/** An unreferenced upload younger than this may be another process's request in flight. */
+export const ORPHAN_GRACE_MS = 60 * 60 * 1000;
+const SWEEP_EVERY_MS = 60 * 60 * 1000;
+
+/**
+ * Removes uploads no drawing row names (left by a request that died between multer's write and
+ * the row) and `.part` files of interrupted writes, in the uploads folder and the issued-sheets
+ * folder. Issued sheets are never swept by row: a PDF there is only ever removed by hand.
+ */
+export async function sweepLeftovers(config: Config, say: (m: string) => void, graceMs = ORPHAN_GRACE_MS): Promise<string[]> {
+  const drawings = new Set((await Drawing.findAll({ attributes: ['storedName'], raw: true })).map((d) => d.storedName));
+  const uploads = await sweepOrphans({ dir: config.uploadsDir, isReferenced: (n) => drawings.has(n), graceMs });
+  const sheets = await sweepOrphans({ dir: path.join(config.dataDir, 'issued-sheets'), isReferenced: (n) => !n.endsWith('.part'), graceMs });
+  const removed = [...uploads.removed.map((n) => path.join(config.uploadsDir, n)), ...sheets.removed.map((n) => path.join(config.dataDir, 'issued-sheets', n))];
+  if (removed.length) say(`Removed ${removed.length} file(s) left behind by interrupted uploads or writes: ${removed.join(', ')}`);
+  const kept = uploads.kept.length + sheets.kept.length;
+  if (kept) say(`Kept ${kept} unreferenced upload(s) younger than ${Math.round(graceMs / 60000)} minutes for now (perhaps another server process's upload in progress); the next sweep looks again.`);
+  return removed;
+}
 
 export interface Services extends CreatedApp {
   config: Config;
@@ -46,8 +67,20 @@ export async function startServices(config: Config, options: { clientDir?: strin
   const sequelize = await openDatabase(config.databaseStorage);
   await migrate(sequelize);
   initModels(sequelize);
-  fs.mkdirSync(config.uploadsDir, { recursive: true });
+  fs.mkdirSync(config.uploadsDir, { recursive: true, mode: 0o700 });
+  // Folders 0700, files 0600, including files an older version wrote with the default mode.
+  if (config.databaseStorage !== ':memory:') {
+    const tightened = await tightenModes([config.dataDir, path.join(config.dataDir, 'issued-sheets'), config.uploadsDir]);
+    if (tightened) say(`Made ${tightened} file(s) and folder(s) in the data and uploads folders readable by this user only (files 0600, folders 0700).`);
+  } else {
+    await tightenModes([config.uploadsDir]);
+  }
   await runsFailInterrupted();
+  await sweepLeftovers(config, say);
+  const sweeper = setInterval(() => {
+    sweepLeftovers(config, say).catch((err) => say(`Sweeping left-over uploads failed: ${err instanceof Error ? err.message : String(err)}`));
+  }, SWEEP_EVERY_MS);
+  sweeper.unref();
   if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
   // Refuses to start (one sentence naming the file and how to restore it) when issued sheets
   // exist and the key file is missing or holds another key; never silently makes a new one.
@@ -67,8 +100,8 @@ export async function startServices(config: Config, options: { clientDir?: strin
     say(`No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (it changes at every start until used): ${firstLink}`);
   }
 
-  const sink = config.smtpUrl ? undefined : await startSmtpSink();
-  const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, from: config.mailFrom });
+  const sink = config.smtpUrl ? undefined : await startSmtpSink({ sender: config.mailFrom });
+  const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, sinkAuth: sink?.auth, from: config.mailFrom });
   const created = createApp({
     config,
     sequelize,
@@ -87,6 +120,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     signingKeys,
     sink,
     async shutdown() {
+      clearInterval(sweeper);
       await created.close();
       await sink?.close();
       await sequelize.close();

@@ -21,7 +21,10 @@ const envSchema = z.object({
   FIRST_ADMIN_EMAIL: z.string().email().optional(),
   /** Express's trust-proxy setting: unset trusts no proxy; e.g. "loopback", "10.0.0.0/8" or a hop count. */
   TRUST_PROXY: z.string().optional(),
-  SIGNIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
+  /** Failed sign-ins per account in one window before the account is locked (with backoff). */
+  SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).default(5),
+  /** Failed sign-ins per address in one window; high, so an office behind one NAT is not locked out by one person. */
+  SIGNIN_ADDRESS_LIMIT: z.coerce.number().int().min(1).default(50),
   SIGNIN_RATE_WINDOW_MS: z.coerce.number().int().min(1000).default(15 * 60 * 1000),
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
   CHROMIUM_PATH: z.string().default('/usr/bin/chromium'),
@@ -43,7 +46,8 @@ export interface Config {
   firstAdminEmail?: string;
   /** Passed to Express's 'trust proxy'; false when no proxy is configured. */
   trustProxy?: boolean | number | string;
-  signInRateLimit: number;
+  signInAccountLimit: number;
+  signInAddressLimit: number;
   signInRateWindowMs: number;
   bcryptRounds: number;
   chromiumPath: string;
@@ -74,7 +78,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     seedDemo: e.SEED_DEMO ? e.SEED_DEMO === 'true' : e.NODE_ENV !== 'production',
     firstAdminEmail: e.FIRST_ADMIN_EMAIL,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
-    signInRateLimit: e.SIGNIN_RATE_LIMIT,
+    signInAccountLimit: e.SIGNIN_ACCOUNT_LIMIT,
+    signInAddressLimit: e.SIGNIN_ADDRESS_LIMIT,
     signInRateWindowMs: e.SIGNIN_RATE_WINDOW_MS,
     bcryptRounds: e.BCRYPT_ROUNDS,
     chromiumPath: e.CHROMIUM_PATH,

@@ -6,6 +6,9 @@ import { startServices } from './bootstrap';
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 async function main() {
+  // Anything the server or its children (SQLite, Chromium) create is private to this user,
+  // besides the explicit 0600/0700 modes on the files Panelpoint writes itself.
+  process.umask(0o077);
   const config = loadConfig();
   const services = await startServices(config, { clientDir: path.join(root, 'dist', 'client') });
   const server = services.app.listen(config.port, () => {

@@ -12,7 +12,15 @@ const BUSY_TIMEOUT_MS = 10_000;
  * when it tries to upgrade a read lock (which no timeout can wait out).
  */
 export async function openDatabase(storage: string): Promise<Sequelize> {
-  if (storage !== ':memory:') fs.mkdirSync(path.dirname(storage), { recursive: true, mode: 0o700 });
+  if (storage !== ':memory:') {
+    fs.mkdirSync(path.dirname(storage), { recursive: true, mode: 0o700 });
+    // The file is made (or kept) 0600 before SQLite opens it: SQLite creates the -wal and -shm
+    // files with the database file's permissions, so they follow.
+    fs.closeSync(fs.openSync(storage, 'a', 0o600));
+    for (const file of [storage, `${storage}-wal`, `${storage}-shm`, `${storage}-journal`]) {
+      if (fs.existsSync(file)) fs.chmodSync(file, 0o600);
+    }
+  }
   const sequelize = new Sequelize({
     dialect: 'sqlite',
     storage,

@@ -11,7 +11,7 @@ export interface Mailer {
 }
 
 /** Sends through SMTP: a real server when SMTP_URL is set, otherwise the local sink. */
-export function createMailer(options: { smtpUrl?: string; sinkPort?: number; from: string }): Mailer {
+export function createMailer(options: { smtpUrl?: string; sinkPort?: number; sinkAuth?: { user: string; pass: string }; from: string }): Mailer {
   let transport: Transporter;
   if (options.smtpUrl) {
     transport = nodemailer.createTransport(options.smtpUrl);
@@ -21,6 +21,7 @@ export function createMailer(options: { smtpUrl?: string; sinkPort?: number; fro
       port: options.sinkPort,
       secure: false,
       ignoreTLS: true,
+      auth: options.sinkAuth,
     });
   } else {
     throw new Error('No mail route: set SMTP_URL or start the local sink.');

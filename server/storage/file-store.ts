@@ -19,9 +19,11 @@ export function localFileStore(dir: string): FileStore {
   return {
     read: (name) => fs.readFile(at(name)),
     async write(name, bytes) {
-      await fs.mkdir(dir, { recursive: true });
+      await fs.mkdir(dir, { recursive: true, mode: 0o700 });
       const tmp = `${at(name)}.part`;
-      await fs.writeFile(tmp, bytes);
+      // Readable by the server's user only; the rename keeps the mode.
+      await fs.writeFile(tmp, bytes, { mode: 0o600 });
+      await fs.chmod(tmp, 0o600);
       await fs.rename(tmp, at(name));
     },
     remove: (name) => fs.rm(at(name), { force: true }),

@@ -1,7 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { Project, User } from '../../server/db/models';
-import { createApp } from '../../server/app';
 import type { Services } from '../../server/bootstrap';
 import { demoEmail, openTab, signIn, startTestServices } from '../support/test-services';
 
@@ -77,29 +76,7 @@ describe('sign-in and sign-out', () => {
   });
 });
 
-describe('sign-in rate limit', () => {
-  it('when sign-in is tried more often than the limit, then 429 and the right password is refused too', async () => {
-    const limited = createApp({
-      config: { ...services.config, signInRateLimit: 3, signInRateWindowMs: 60_000 },
-      sequelize: services.sequelize,
-      mailer: services.mailer,
-      sessionSecret: 'a-test-secret-of-enough-length',
-      signingKeys: services.signingKeys,
-      log: () => {},
-    });
-    const tab = await openTab(limited.app);
-    const statuses: number[] = [];
-    for (let i = 0; i < 3; i++) {
-      const r = await tab.agent.post('/api/session').set('X-CSRF-Token', tab.csrf).send({ email: demoEmail('engineer'), password: 'wrong' });
-      statuses.push(r.status);
-    }
-    expect(statuses).toEqual([401, 401, 401]);
-    const blocked = await tab.agent.post('/api/session').set('X-CSRF-Token', tab.csrf).send({ email: demoEmail('engineer'), password: 'panelpoint-demo' });
-    expect(blocked.status).toBe(429);
-    expect(blocked.body.error.code).toBe('too-many-attempts');
-    await limited.close();
-  });
-});
+// The sign-in limits (per account, per address, in the database) are tested in signin-limits.test.ts.
 
 describe('CSRF protection', () => {
   it('when a signed-in write comes without the CSRF token, then 403 and nothing is written', async () => {

@@ -30,15 +30,17 @@ describe('on an office network', () => {
     expect(res.headers['strict-transport-security']).toContain('max-age=');
   });
 
+  // Each guess names a different account, so only the per-address limit is in play.
+  let n = 0;
   const guess = (tab: Awaited<ReturnType<typeof openTab>>, forwardedFor: string) =>
     tab.agent
       .post('/api/session')
       .set('X-CSRF-Token', tab.csrf)
       .set('X-Forwarded-For', forwardedFor)
-      .send({ email: 'admin@demo.panelpoint.test', password: 'not the password at all' });
+      .send({ email: `nobody-${++n}@demo.panelpoint.test`, password: 'not the password at all' });
 
   it('without TRUST_PROXY a made-up X-Forwarded-For does not buy fresh sign-in attempts', async () => {
-    const { app } = await start({ signInRateLimit: 3 });
+    const { app } = await start({ signInAddressLimit: 3 });
     const tab = await openTab(app);
     const statuses: number[] = [];
     for (let i = 0; i < 5; i++) statuses.push((await guess(tab, `203.0.113.${i + 1}`)).status);
@@ -46,7 +48,7 @@ describe('on an office network', () => {
   });
 
   it('with TRUST_PROXY set, the forwarded address is the one counted', async () => {
-    const { app } = await start({ signInRateLimit: 3, trustProxy: 'loopback' });
+    const { app } = await start({ signInAddressLimit: 3, trustProxy: 'loopback' });
     const tab = await openTab(app);
     const statuses: number[] = [];
     for (let i = 0; i < 5; i++) statuses.push((await guess(tab, `203.0.113.${i + 1}`)).status);

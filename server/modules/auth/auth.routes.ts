@@ -1,5 +1,4 @@
 import type { Request, Response, NextFunction } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import type { PassportInstance } from './passport';
 import { acceptInvitationSchema, signInSchema, type SessionView } from '@shared/schemas/auth.schema';
 import { ApiRoutes, type RouteSpec } from '../../middleware/access';
@@ -9,6 +8,7 @@ import type { User } from '../../db/models';
 import { toUserView } from '../users/users.views';
 import { acceptInvitation, getInvitation } from './auth.service';
 import type { Config } from '../../config';
+import { refusalMessage, type SignInLimiter } from './signin-limiter';
 
 function sessionView(req: Request, csrfTokenFor: (req: Request) => string): SessionView {
   const user = req.user as User | undefined;
@@ -20,39 +20,44 @@ function logIn(req: Request, user: User): Promise<void> {
   return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 }
 
-export function authRoutes(registry: RouteSpec[], passport: PassportInstance, config: Config, csrfTokenFor: (req: Request) => string) {
+export function authRoutes(
+  registry: RouteSpec[],
+  passport: PassportInstance,
+  config: Config,
+  csrfTokenFor: (req: Request) => string,
+  limiter: SignInLimiter,
+) {
   const routes = new ApiRoutes('/api', registry);
-
-  const signInLimiter = rateLimit({
-    windowMs: config.signInRateWindowMs,
-    limit: config.signInRateLimit,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    // Only failed attempts count, so a busy office behind one address is not locked out.
-    skipSuccessfulRequests: true,
-    // A forwarded address without TRUST_PROXY is ignored on purpose (see app.ts), not a mistake.
-    validate: { xForwardedForHeader: false },
-    handler: (_req, _res, next) =>
-      next(new AppError('too-many-attempts', 'Too many sign-in attempts from here. Wait a few minutes and try again.', 429)),
-  });
 
   routes.add('get', '/session', 'public', (req, res) => {
     res.json(sessionView(req, csrfTokenFor));
   });
 
-  routes.add('post', '/session', 'public', signInLimiter, validateBody(signInSchema), (req: Request, res: Response, next: NextFunction) => {
+  // Failed sign-ins are counted per account and per address in the database (signin-limiter.ts).
+  // req.ip is the socket's address unless TRUST_PROXY names a proxy (app.ts), so a made-up
+  // X-Forwarded-For buys no fresh attempts.
+  routes.add('post', '/session', 'public', validateBody(signInSchema), async (req: Request, res: Response, next: NextFunction) => {
+    const attempt = await limiter.begin(req.body.email, req.ip);
+    if (attempt.refused) {
+      res.set('Retry-After', String(attempt.retryAfterSeconds));
+      throw new AppError('too-many-attempts', refusalMessage(attempt), 429);
+    }
     passport.authenticate('local', async (err: unknown, user: User | false, info?: { message?: string }) => {
       try {
         if (err) throw err;
         if (!user) {
           if (info?.message === 'account-disabled') {
+            await attempt.release();
             throw new AppError('account-disabled', 'This account has been disabled. Ask your admin if you need access again.', 403);
           }
+          await attempt.failed();
           throw new AppError('bad-credentials', 'That e-mail and password do not match an account. Check both and try again.', 401);
         }
         await logIn(req, user);
+        await attempt.succeeded();
         res.json(sessionView(req, csrfTokenFor));
       } catch (e) {
+        await attempt.release().catch(() => {});
         next(e);
       }
     })(req, res, next);

@@ -1,10 +1,10 @@
-import crypto from 'node:crypto';
 import multer from 'multer';
 import { reimportSchema } from '@shared/schemas/drawing.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import { AppError } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
+import { privateDiskStorage } from '../../storage/private-disk-storage';
 import * as drawings from './drawings.service';
 
 const UPLOADERS = ['drafter', 'engineer'] as const;
@@ -12,11 +12,9 @@ const UPLOADERS = ['drafter', 'engineer'] as const;
 export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; uploadsDir: string; maxUploadBytes: number }) {
   const routes = new ApiRoutes('/api', registry);
   const upload = multer({
-    storage: multer.diskStorage({
-      destination: deps.uploadsDir,
-      // Generated names only: the user's file name is kept in the database, never on disk.
-      filename: (_req, _file, cb) => cb(null, `${crypto.randomBytes(16).toString('hex')}.dxf`),
-    }),
+    // Generated names only (the user's file name is kept in the database, never on disk),
+    // created with mode 0600.
+    storage: privateDiskStorage(deps.uploadsDir, '.dxf'),
     limits: { fileSize: deps.maxUploadBytes, files: 1, fields: 10 },
   });
 
