@@ -10,6 +10,7 @@ import { stabilitySection } from './stability';
 import { casesSection } from './cases';
 import { combinationsSection } from './combinations';
 import { envelopeSection } from './envelope';
+import { bearingsSection } from './bearings';
 import { residualSection } from './residual';
 import type { CalcSheetInput, CalcSheetView, StepView } from './types';
 
@@ -28,6 +29,7 @@ const SECTIONS = [
   casesSection,
   combinationsSection,
   envelopeSection,
+  bearingsSection,
   residualSection,
 ] as const;
 

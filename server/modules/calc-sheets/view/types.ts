@@ -135,6 +135,15 @@ export interface CalcSheetView {
   comboTables: { title: string; head: string[]; rows: TableRow[] }[];
   comboResidualRows: TableRow[];
   envelope: { source: string; rows: TableRow[] };
+  /** Reactions for bearing design: by case and combination, extremes per component, uplift in words. */
+  bearings: {
+    source: string;
+    /** Tables of up to three supports: Rx and Ry of each under every case (cls 'case') and combination. */
+    bySource: { head: string[]; rows: TableRow[] }[];
+    /** Two rows per support (Rx, Ry): support, kind, component, max, from, min, from. */
+    extremes: TableRow[];
+    words: string[];
+  };
   residual: { rows: TableRow[]; verdict: string; ok: boolean };
   generatedAt: string;
 }
