@@ -6,6 +6,7 @@ import { geometrySection } from './geometry';
 import { supportsSection } from './supports';
 import { takeoffSection } from './takeoff';
 import { loadsSection } from './loads';
+import { combinationReasonsSection } from './combination-reasons';
 import { stabilitySection } from './stability';
 import { casesSection } from './cases';
 import { combinationsSection } from './combinations';
@@ -25,6 +26,7 @@ const SECTIONS = [
   supportsSection,
   takeoffSection,
   loadsSection,
+  combinationReasonsSection,
   stabilitySection,
   casesSection,
   combinationsSection,

@@ -130,6 +130,8 @@ export interface CalcSheetView {
   takeoff: StepView[];
   loadCases: { rows: TableRow[] };
   combinations: { rows: TableRow[] };
+  /** Per built-in set the combinations cite: why they are what they are (or that they were edited). */
+  combinationReasons: { title: string; asFormed: boolean; lines: string[] }[];
   stability: StepView & { verdict: string; message: string; mechanism: string; symmetry: string };
   cases: CaseView[];
   comboTables: { title: string; head: string[]; rows: TableRow[] }[];
