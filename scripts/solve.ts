@@ -14,11 +14,16 @@
  *   combinations optional [{ "name": "C1", "factors": { "D": 1.2, "S": 1.6 }, "clause": "…" }]
  *   design, deflection  optional member checks and unit-load deflections (see scripts/job-design.ts)
  *
+ * Output: classification, joints, members, cases and combinations (forces, reactions), "envelope"
+ * (per member maxTension, maxCompression, governing) and "reactionEnvelope" (per support: joint
+ * tag, at [x, y], rxMax/rxMin/ryMax/ryMin in kN with the combination, or case, of each in
+ * rxMaxCombo …, and "uplift" in words or null).
+ *
  * Exit 0 with the result for a solved or classified (also unstable) truss; exit 2 with one line
  * on stderr for bad input; exit 1 for an unexpected failure.
  */
 import type { TrussModel } from '@shared/model/truss';
-import { caseSteps, SolverError, trussSolve, type SupportReaction } from '@shared/solver/index';
+import { caseSteps, reactionEnvelopeOf, SolverError, trussSolve, type SupportReaction } from '@shared/solver/index';
 import { DxfImportError } from '@shared/dxf-import/index';
 import { JobError, jobLoad } from './job';
 import { jobDesignOutputs } from './job-design';
@@ -72,6 +77,11 @@ function run(jobPath: string | undefined): unknown {
       analysis.combinations.map((c) => [c.name, { factors: c.factors, ...(c.clause ? { clause: c.clause } : {}), forces: c.forces, reactions: reactionsOut(c.reactions, jointById), residual: c.residual }]),
     ),
     envelope: analysis.envelope,
+    reactionEnvelope: reactionEnvelopeOf(analysis).map((r) => {
+      const j = jointById.get(r.joint)!;
+      const { joint: _id, at: tag, ...extremes } = r;
+      return { joint: tag, at: [j.x, j.y], ...extremes };
+    }),
     ...jobDesignOutputs(job, model, analysis),
   };
 }

@@ -23,6 +23,7 @@ type Out = {
   members: { tag: string; from: [number, number]; to: [number, number] }[];
   cases: Record<string, { forces: Record<string, number>; reactions: { at: [number, number]; rx: number; ry: number }[]; zeroForce: string[]; residual: number; steps: { id: string; kind: string }[] }>;
   combinations: Record<string, { forces: Record<string, number>; reactions: { at: [number, number]; rx: number; ry: number }[] }>;
+  reactionEnvelope: { joint: string; at: [number, number]; rxMax: number; rxMin: number; ryMax: number; ryMin: number; ryMaxCombo: string; ryMinCombo: string; uplift: string | null }[];
 };
 
 /** Member tag by its end points (order-free), so tests do not depend on tag order. */
@@ -57,6 +58,17 @@ describe('npm run solve', () => {
     expect(S.forces.AC).toBeCloseTo((-5 * (40 + 10)) / 6, 9);
     expect(out.combinations.C1.forces.AC).toBeCloseTo(1.2 * ((-5 * 100) / 6) + 1.6 * ((-5 * 50) / 6), 9);
     expect(out.combinations.C1.forces.CD).toBeCloseTo(1.6 * 10, 9);
+    // Reaction envelope over the one combination: symmetric loads, so each support takes half
+    // (statics by hand): D 100/2 = 50, S (40 + 10)/2 = 25, C1 = 1.2·50 + 1.6·25 = 100 kN up, no uplift.
+    expect(out.reactionEnvelope.map((r) => r.at)).toEqual([[0, 0], [8, 0]]);
+    for (const r of out.reactionEnvelope) {
+      expect(r.ryMax).toBeCloseTo(100, 9);
+      expect(r.ryMin).toBeCloseTo(100, 9);
+      expect([r.ryMaxCombo, r.ryMinCombo]).toEqual(['C1', 'C1']);
+      expect(Math.abs(r.rxMax) + Math.abs(r.rxMin)).toBeLessThan(1e-9);
+      expect(r.uplift).toBeNull();
+    }
+    expect(out.reactionEnvelope[0].joint).toBe(out.joints.find((j) => j.x === 0 && j.y === 0)!.tag);
   });
 
   it('when the job names a DXF drawn in millimetres, then the drawing import gives the geometry in metres and the forces match', async () => {

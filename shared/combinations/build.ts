@@ -1,6 +1,6 @@
 import type { Combination, LoadCase, LoadCategory } from '@shared/model/truss';
 import { loadCategorySchema } from '@shared/model/truss';
-import { COMBINATION_SET_RULES, type CombinationRule, type CombinationSetId, type RuleTerm } from './sets';
+import { COMBINATION_SET_RULES, type CombinationRule, type CombinationSetId, type RuleGroup, type RuleTerm } from './sets';
 
 /** Stable codes of the combination builder's errors. */
 export type CombinationErrorCode =
@@ -163,6 +163,49 @@ function suffix(i: number): string {
  * @throws CombinationError 'unknown-set', 'duplicate-load-case', 'unknown-category', 'too-many-combinations'
  */
 export function combinationsBuild(setId: CombinationSetId, loadCases: readonly CaseRef[]): CodeCombination[] {
+  return combinationsExplain(setId, loadCases).combinations;
+}
+
+/** What one rule of a set gave over the load cases, for the reasons on the calc sheet. */
+export interface RuleOutcome {
+  /** The rule's id in its set, e.g. "3" or "6.10b S-lead". */
+  id: string;
+  clause: string;
+  formula: string;
+  /** The combinations it formed and that are listed: name and factors over the case ids. */
+  formed: { name: string; expression: string }[];
+  /** Presence patterns it formed whose factors equal a combination listed earlier: listed once, there. */
+  duplicates: { acting: string; sameAs: string }[];
+  /** Why the rule formed nothing, in words; absent when it formed something. */
+  notFormed?: string;
+}
+
+/** The combinations of a set and, rule by rule, what was formed, what was listed once and what was not formed and why. */
+export interface CombinationsExplained {
+  setId: CombinationSetId;
+  title: string;
+  basis: string;
+  notes: string[];
+  combinations: CodeCombination[];
+  rules: RuleOutcome[];
+}
+
+/** Category names as the reasons write them. */
+const CATEGORY_WORDS: Record<LoadCategory, string> = {
+  dead: 'dead load',
+  live: 'live (imposed) load',
+  'roof-live': 'roof live load',
+  snow: 'snow',
+  wind: 'wind',
+  other: 'other',
+};
+
+/**
+ * {@link combinationsBuild} with its reasons: per rule the presence patterns formed, the patterns
+ * listed once because an earlier combination has the same factors, and why a rule formed nothing.
+ * @throws CombinationError as {@link combinationsBuild}
+ */
+export function combinationsExplain(setId: CombinationSetId, loadCases: readonly CaseRef[]): CombinationsExplained {
   const set = COMBINATION_SET_RULES[setId as CombinationSetId];
   if (!set) {
     throw new CombinationError(
@@ -181,14 +224,20 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
   const variableIds = loadCases.filter((c) => carried.has(c.category)).map((c) => c.id);
 
   const result: CodeCombination[] = [];
+  const rules: RuleOutcome[] = [];
   const seen = new Map<string, CodeCombination>();
   for (const rule of set.rules) {
-    const expanded = ruleExpand(rule, byCategory).filter((choices) => {
+    const outcome: RuleOutcome = { id: rule.id, clause: rule.clause, formula: rule.formula, formed: [], duplicates: [] };
+    rules.push(outcome);
+    const all = ruleExpand(rule, byCategory);
+    const expanded = all.filter((choices) => {
       const earlier = seen.get(factorKey(choices));
       // Identical factors from an earlier rule: listed once, with this rule named there.
       if (earlier && !earlier.alsoBy.includes(rule.clause) && earlier.clause !== rule.clause) earlier.alsoBy.push(rule.clause);
+      if (earlier) outcome.duplicates.push({ acting: choices.map(({ caseId, term }) => `${factorText(term.factor)} ${caseId}`).join(' + '), sameAs: earlier.name });
       return !earlier;
     });
+    if (all.length === 0) outcome.notFormed = notFormedReason(rule, byCategory);
     expanded.forEach((choices, i) => {
       const factors: Record<string, number> = {};
       const factorNotes: Record<string, string> = {};
@@ -213,9 +262,24 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
       };
       seen.set(factorKey(choices), combination);
       result.push(combination);
+      outcome.formed.push({ name: combination.name, expression: combination.expression });
     });
   }
-  return result;
+  const { rules: _rules, ...info } = set;
+  return { setId: set.id, title: info.title, basis: info.basis, notes: info.notes, combinations: result, rules };
+}
+
+/** Why a rule formed no combination: its leading load has no case, or only permanent actions would act. */
+function notFormedReason(rule: CombinationRule, byCategory: Map<LoadCategory, CaseRef[]>): string {
+  const principal = rule.groups.find((g): g is Extract<RuleGroup, { kind: 'one-of' }> => g.kind === 'one-of' && !!g.principal);
+  if (principal && principal.options.every((o) => (byCategory.get(o.category) ?? []).length === 0)) {
+    const led = [...new Set(principal.options.map((o) => CATEGORY_WORDS[o.category]))].join(' or ');
+    return `not formed: it is led by ${led}, and no load case has that category`;
+  }
+  const hasDead = (byCategory.get('dead') ?? []).length > 0;
+  return hasDead
+    ? 'not formed: none of its variable loads has a case, so it would repeat the permanent-only combination'
+    : 'not formed: none of its loads has a case';
 }
 
 /**

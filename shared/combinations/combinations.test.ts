@@ -5,6 +5,7 @@ import {
   CombinationError,
   combinationApply,
   combinationsBuild,
+  combinationsExplain,
   combinationsIgnoredCases,
   type CodeCombination,
 } from './index';
@@ -257,5 +258,27 @@ describe('bad input', () => {
   it('when a combination is applied without a value for one of its cases, then the case is named', () => {
     expect(() => combinationApply({ name: 'LRFD 1', factors: { D: 1.4 } }, {})).toThrowError(/"D"/);
     expect(() => combinationApply({ name: 'LRFD 1', factors: { D: 1.4 } }, { D: Number.NaN })).toThrowError(CombinationError);
+  });
+});
+
+describe('reasons of a combination list', () => {
+  it('when ASD is formed from D, S and W, then the outcome of each §2.4.1 rule matches the standard: (2) not formed, (6) without W listed once under (4)', () => {
+    // ASCE/SEI 7-16 §2.4.1 (from memory): (2) D + L needs L; (6) D + 0.75(0.6W) + 0.75S with W absent is D + 0.75S = (4).
+    const ex = combinationsExplain('asce7-16-asd', cases(['D', 'dead'], ['S', 'snow'], ['W', 'wind']));
+    expect(ex.combinations).toEqual(combinationsBuild('asce7-16-asd', cases(['D', 'dead'], ['S', 'snow'], ['W', 'wind'])));
+    const rule = (id: string) => ex.rules.find((r) => r.id === id)!;
+    expect(rule('2').formed).toEqual([]);
+    expect(rule('2').notFormed).toMatch(/led by live/);
+    expect(rule('4').formed.map((f) => f.expression)).toEqual(['1 D + 0.75 S']);
+    expect(rule('6').formed.map((f) => f.expression)).toEqual(['1 D + 0.45 W + 0.75 S', '1 D + 0.45 W']);
+    expect(rule('6').duplicates).toEqual([{ acting: '1 D + 0.75 S', sameAs: rule('4').formed[0].name }]);
+    expect(ex.rules.map((r) => r.id)).toEqual(['1', '2', '3', '4', '5', '6', '7']);
+  });
+
+  it('when there is no variable case, then the rules that need one say they would repeat the permanent-only combination', () => {
+    const ex = combinationsExplain('asce7-16-strength', cases(['D', 'dead']));
+    expect(ex.combinations.map((c) => c.factors)).toEqual([{ D: 1.4 }]);
+    // (2)-(5) are each led by L, Lr/S or W: none has a case.
+    for (const id of ['2', '3', '4', '5']) expect(ex.rules.find((r) => r.id === id)!.notFormed).toMatch(/^not formed: it is led by/);
   });
 });

@@ -17,6 +17,7 @@ import type { RoofTakeoffResult } from '@shared/takeoff';
  * | GET  /api/trusses/:id/runs             | everyone | → {@link RunSummaryView}[] newest first |
  * | GET  /api/runs/:id                     | everyone | → {@link RunView} (results once solved) |
  * | GET  /api/runs/:id/forces.csv          | everyone | → text/csv, columns {@link FORCES_CSV_COLUMNS}; 409 'run-not-solved' before it is solved |
+ * | GET  /api/runs/:id/reactions.csv       | everyone | → text/csv, columns {@link REACTIONS_CSV_COLUMNS}; 409 'run-not-solved' before it is solved |
  *
  * Units: lengths m, forces kN, area loads kPa (psf accepted in the takeoff input and converted),
  * line loads kN/m. Member forces tension positive, also marked T / C / 0.
@@ -179,3 +180,11 @@ export interface RunView extends RunSummaryView {
 
 /** Header of GET /api/runs/:id/forces.csv, one row per member per case, combination and envelope line. */
 export const FORCES_CSV_COLUMNS = ['source', 'name', 'member', 'group', 'from', 'to', 'force_kN', 'sense', 'governing'] as const;
+
+/**
+ * Header of GET /api/runs/:id/reactions.csv: one row per support per load case and combination
+ * (rx and ry), then four envelope rows per support ('rx max', 'rx min', 'ry max', 'ry min', the
+ * value in its own column, the other column empty, `governing` naming the combination or case).
+ * kN, +x right, +y up; `uplift` is 'yes' where ry < 0 (the support must hold the truss down).
+ */
+export const REACTIONS_CSV_COLUMNS = ['source', 'name', 'support', 'kind', 'rx_kN', 'ry_kN', 'governing', 'uplift'] as const;

@@ -70,6 +70,41 @@ function reactionDiagnosis(pm: PreparedModel): string | null {
 }
 
 /**
+ * Whether the members alone make one rigid body: the model with its supports replaced by a pin at
+ * the first joint and a roller at the farthest joint (reaction line square to the line between
+ * them, so the three reaction lines neither meet at one point nor run parallel) has rank 2j.
+ * Then an unstable truss is unstable only because of its supports.
+ */
+function membersRigid(pm: PreparedModel): boolean {
+  const n = pm.jointIds.length;
+  if (n < 2) return n === 1;
+  let far = 1;
+  for (let i = 1; i < n; i++) {
+    if (Math.hypot(pm.x[i] - pm.x[0], pm.y[i] - pm.y[0]) > Math.hypot(pm.x[far] - pm.x[0], pm.y[far] - pm.y[0])) far = i;
+  }
+  const L = Math.hypot(pm.x[far] - pm.x[0], pm.y[far] - pm.y[0]);
+  if (L === 0) return false;
+  const reactions: PreparedModel['reactions'] = [
+    { joint: 0, support: 0, component: 'x', dx: 1, dy: 0, symbol: '', label: '' },
+    { joint: 0, support: 0, component: 'y', dx: 0, dy: 1, symbol: '', label: '' },
+    { joint: far, support: 1, component: 'n', dx: -(pm.y[far] - pm.y[0]) / L, dy: (pm.x[far] - pm.x[0]) / L, symbol: '', label: '' },
+  ];
+  const supportAt = new Int32Array(n).fill(-1);
+  supportAt[0] = 0;
+  supportAt[far] = 1;
+  const braced: PreparedModel = {
+    ...pm,
+    reactions,
+    supports: [
+      { joint: 0, kind: 'pin', reactions: [0, 1] },
+      { joint: far, kind: 'roller', reactions: [2] },
+    ],
+    supportAt,
+  };
+  return equilibriumRank(braced, equilibriumRows(braced), false).rank === 2 * n;
+}
+
+/**
  * Stability and determinacy: the count m + r against 2j and the rank of the joint-equilibrium
  * matrix (structural peel plus sparse elimination of what is left, see rank.ts). A model is stable only with rank 2j; then
  * m + r = 2j is determinate and m + r > 2j indeterminate to degree m + r − 2j. For an unstable
@@ -107,9 +142,17 @@ export function trussClassify(pm: PreparedModel): Classification {
     if (loose.length) {
       parts.push(`Joint${loose.length > 1 ? 's' : ''} ${tagList(loose.map((i) => pm.jointTags[i]))} ${loose.length > 1 ? 'have' : 'has'} fewer than two members and no support.`);
     }
-    parts.push(
-      `Joints that can move without any member changing length: ${tagList(tags)}. Add a member (such as the missing diagonal of an open panel) or a support restraint there; no member forces are given for an unstable truss.`,
-    );
+    if (diag && membersRigid(pm)) {
+      // The members make one rigid body: only the supports let it move (a rigid plane body needs
+      // three reaction lines, neither all parallel nor all through one point; any statics text, from memory).
+      parts.push(
+        `The members themselves form one rigid truss: the supports are the cause. Change a support (make a roller a pin, or turn a roller so that the reaction lines neither run parallel nor meet at one point); adding members will not help. Joints that move with the truss: ${tagList(tags)}. No member forces are given for an unstable truss.`,
+      );
+    } else {
+      parts.push(
+        `Joints that can move without any member changing length: ${tagList(tags)}. ${diag ? 'Besides changing the supports, add' : 'Add'} a member (such as the missing diagonal of an open panel) or a support restraint there; no member forces are given for an unstable truss.`,
+      );
+    }
     message = parts.join(' ');
   } else if (degree === 0) {
     kind = 'determinate';

@@ -2,7 +2,7 @@
  * The truss solver's public interface (the only barrel in the repository).
  * Units: m, kN; member forces tension positive; reactions +x right, +y up.
  */
-export { reactionEnvelopeBuild, trussSolve } from './solve';
+export { reactionEnvelopeBuild, reactionEnvelopeOf, trussSolve } from './solve';
 export { SolverError, type SolverErrorCode } from './errors';
 export {
   stepToKatex,

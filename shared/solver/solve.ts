@@ -179,12 +179,25 @@ export function trussSolve(model: TrussModel): TrussAnalysis {
     return row;
   });
 
-  const reactionSources = combinations.length
-    ? combinations.map((c) => ({ name: c.name, reactions: c.reactions }))
-    : cases.map((c) => ({ name: c.caseId, reactions: c.reactions }));
-  const reactionEnvelope = reactionEnvelopeBuild(reactionSources);
+  const reactionEnvelope = reactionEnvelopeBuild(reactionSourcesOf({ cases, combinations }));
 
   return { classification, symmetry, cases, combinations, envelope, reactionEnvelope, envelopeSource };
+}
+
+/** What the reaction envelope runs over: the combinations, or the cases when there are none (as the member envelope). */
+function reactionSourcesOf(analysis: Pick<TrussAnalysis, 'cases' | 'combinations'>): { name: string; reactions: SupportReaction[] }[] {
+  return analysis.combinations.length
+    ? analysis.combinations.map((c) => ({ name: c.name, reactions: c.reactions }))
+    : analysis.cases.map((c) => ({ name: c.caseId, reactions: c.reactions }));
+}
+
+/**
+ * The reaction envelope of an analysis: the stored one, or built from the stored reactions of
+ * its cases and combinations for runs solved before the solver kept it.
+ */
+export function reactionEnvelopeOf(analysis: TrussAnalysis): ReactionEnvelopeRow[] {
+  if (analysis.classification.kind === 'unstable') return [];
+  return analysis.reactionEnvelope ?? reactionEnvelopeBuild(reactionSourcesOf(analysis));
 }
 
 /** Reactions below this (kN) count as zero: no uplift is reported for round-off. */

@@ -25,6 +25,9 @@ describe('stability and determinacy', () => {
     expect(r.classification.kind).toBe('unstable');
     expect(r.classification.rank).toBe(7);
     expect(r.classification.message).toMatch(/parallel/);
+    // The king-post members alone are rigid (m = 5 = 2j − 3): the advice is to change a support, not to add a diagonal.
+    expect(r.classification.message).toMatch(/The members themselves form one rigid truss: the supports are the cause\. Change a support/);
+    expect(r.classification.message).not.toMatch(/missing diagonal/);
     expect(r.cases).toEqual([]);
     expect(r.classification.mechanismJoints.sort()).toEqual(['A', 'B', 'C', 'D']);
   });
@@ -33,6 +36,8 @@ describe('stability and determinacy', () => {
     const r = trussSolve(modelFromSketch({ ...king, supports: [{ at: 'A', kind: 'pin' }, { at: 'B', kind: 'roller', angleDeg: 0 }] }));
     expect(r.classification.kind).toBe('unstable');
     expect(r.classification.message).toMatch(/one point \(0\.000, 0\.000\)/);
+    expect(r.classification.message).toMatch(/Change a support/);
+    expect(r.classification.message).not.toMatch(/missing diagonal/);
     expect(r.classification.mechanismJoints).not.toContain('A');
   });
 
@@ -43,8 +48,22 @@ describe('stability and determinacy', () => {
     expect(c.kind).toBe('unstable');
     expect(c.degree).toBe(-1);
     expect(c.message).toMatch(/short of 1 member/);
+    // Pin and roller are adequate here; the open panel is the cause, so the advice is a member.
+    expect(c.message).toMatch(/Add a member \(such as the missing diagonal of an open panel\)/);
+    expect(c.message).not.toMatch(/Change a support/);
     for (const j of ['U1', 'L2', 'U2']) expect(c.mechanismJoints).toContain(j);
     expect(c.mechanismJoints).not.toContain('L0');
+  });
+
+  it('when a panel has no diagonal and every reaction is a vertical roller, then the advice names both causes: the supports and a missing member', () => {
+    const s = parallelChordSketch('pratt', 4, 3, 2, 10);
+    s.members = s.members.filter(([a, b]) => !(a === 'U1' && b === 'L2'));
+    s.supports = [{ at: 'L0', kind: 'roller' }, { at: 'L4', kind: 'roller' }, { at: 'L2', kind: 'roller' }];
+    const c = trussSolve(modelFromSketch(s)).classification;
+    expect(c.kind).toBe('unstable');
+    expect(c.message).toMatch(/parallel/);
+    expect(c.message).toMatch(/Besides changing the supports, add a member \(such as the missing diagonal of an open panel\)/);
+    expect(c.message).not.toMatch(/rigid truss/);
   });
 
   it('when the diagonal of one panel is moved to cross-brace another, then the count still passes but the rank shows the open panel', () => {

@@ -58,6 +58,7 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/trusses/:id/runs': ALL,
   'GET /api/runs/:id': ALL,
   'GET /api/runs/:id/forces.csv': ALL,
+  'GET /api/runs/:id/reactions.csv': ALL,
   'GET /api/runs/:id/sheet': ALL,
   'GET /api/runs/:id/sheet.pdf': ALL,
   'GET /api/sheets/:id/preview': ALL,

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
-import { FORCES_CSV_COLUMNS, type RunSummaryView, type RunView, type TakeoffInput } from '@shared/schemas/run.schema';
+import { FORCES_CSV_COLUMNS, REACTIONS_CSV_COLUMNS, type RunSummaryView, type RunView, type TakeoffInput } from '@shared/schemas/run.schema';
 import type { LoadCase, Support } from '@shared/model/truss';
 import { TrussModelRecord } from '../../server/db/models';
 import { csvField } from '../../server/modules/runs/forces-csv';
@@ -188,6 +188,51 @@ describe('analysis runs', () => {
     expect(csvField('plain')).toBe('plain');
   });
 
+  it('when the reactions are downloaded, then the CSV has each support under every case and combination and the envelope with uplift, as statics by hand', async () => {
+    // Wind W: 20 kN to the right at T (4, 3). Moments about L: R_Ry·8 − 20·3 = 0 → R_Ry = 7.5 up,
+    // so L_y = −7.5 (down) and L_x = −20; dead D: 5 kN up at each support by symmetry (statics,
+    // from memory). ASD 7 (0.6D + 0.6W, ASCE/SEI 7-16 §2.4.1 (7)): L_y = 0.6·5 − 0.6·7.5 = −1.5 (uplift).
+    const wind: LoadCase = { id: 'W', name: 'Wind from the left', category: 'wind', loads: [{ joint: J.T, fx: 20, fy: 0 }] };
+    const saved = await saveModel({
+      loadCases: [deadCase(), wind],
+      combinations: [
+        { name: 'LRFD 1: 1.4D', factors: { D: 1.4 } },
+        { name: 'ASD 7: 0.6D + 0.6W', factors: { D: 0.6, W: 0.6 } },
+      ],
+    });
+    expect(saved.status).toBe(200);
+    const run = await runToEnd();
+    expect(run.status).toBe('solved');
+    const res = await reviewer.agent.get(`/api/runs/${run.id}/reactions.csv`).expect(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?truss-\d+-run-\d+-reactions\.csv"?$/);
+    const lines = res.text.split('\r\n');
+    expect(lines[0]).toBe(REACTIONS_CSV_COLUMNS.join(','));
+    const [L, R] = [tagOf[J.L], tagOf[J.R]];
+    expect(lines.slice(1)).toEqual([
+      `case,D,${L},pin,0,5,,no`,
+      `case,D,${R},roller 90°,0,5,,no`,
+      `case,W,${L},pin,-20,-7.5,,yes`,
+      `case,W,${R},roller 90°,0,7.5,,no`,
+      `combination,LRFD 1: 1.4D,${L},pin,0,7,,no`,
+      `combination,LRFD 1: 1.4D,${R},roller 90°,0,7,,no`,
+      `combination,ASD 7: 0.6D + 0.6W,${L},pin,-12,-1.5,,yes`,
+      `combination,ASD 7: 0.6D + 0.6W,${R},roller 90°,0,7.5,,no`,
+      `envelope,rx max,${L},pin,0,,LRFD 1: 1.4D,`,
+      `envelope,rx min,${L},pin,-12,,ASD 7: 0.6D + 0.6W,`,
+      `envelope,ry max,${L},pin,,7,LRFD 1: 1.4D,no`,
+      `envelope,ry min,${L},pin,,-1.5,ASD 7: 0.6D + 0.6W,yes`,
+      `envelope,rx max,${R},roller 90°,0,,LRFD 1: 1.4D,`,
+      `envelope,rx min,${R},roller 90°,0,,LRFD 1: 1.4D,`,
+      `envelope,ry max,${R},roller 90°,,7.5,ASD 7: 0.6D + 0.6W,no`,
+      `envelope,ry min,${R},roller 90°,,7,LRFD 1: 1.4D,no`,
+      '',
+    ]);
+    // The run's own envelope says the uplift in words.
+    const uplift = run.analysis!.reactionEnvelope!.find((e) => e.joint === J.L)!.uplift;
+    expect(uplift).toMatch(/lifted under ASD 7: 0\.6D \+ 0\.6W: it must hold the truss down with 1\.50 kN/);
+  });
+
   it('when the supports let the truss slide (two rollers), then the run is stored unstable with the finding and no forces', async () => {
     const saved = await saveModel({
       supports: supportsOn([
@@ -209,6 +254,9 @@ describe('analysis runs', () => {
     expect(csv.status).toBe(409);
     expect(csv.body.error.code).toBe('run-not-solved');
     expect(csv.body.error.message).toMatch(/unstable/);
+    const reactions = await engineer.agent.get(`/api/runs/${run.id}/reactions.csv`);
+    expect(reactions.status).toBe(409);
+    expect(reactions.body.error).toMatchObject({ code: 'run-not-solved', message: `Run ${run.id} has no reaction table: the truss is unstable, so it has no reactions. Open the run to see its status.` });
   });
 
   it('when the truss is indeterminate and a member has no EA, then the run fails with the solver message', async () => {

@@ -91,6 +91,19 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     expect(await row.locator('td').nth(5).textContent()).toBe('(C)');
     // Mirror symmetry of the truss and its loads: EL carries the same force.
     expect(await memberForce('EL')).toBeCloseTo(expected, 2);
+
+    // The reaction envelope for bearing design: one case and no combinations, so Ry at F is the
+    // R_F found above by moments about L, both largest and least, and there is no uplift.
+    await page.getByLabel('Results of').selectOption('envelope');
+    const table = page.getByRole('table', { name: 'Reaction envelope' });
+    await table.waitFor({ timeout: 10_000 });
+    const ryF = table.locator('tr', { has: page.locator('td:first-child', { hasText: /^F$/ }) }).locator('xpath=following-sibling::tr[1]');
+    expect(await ryF.locator('td').nth(1).textContent()).toBe('Ry');
+    expect(kn(await ryF.locator('td').nth(2).textContent())).toBeCloseTo(reactionF, 2);
+    expect(kn(await ryF.locator('td').nth(4).textContent())).toBeCloseTo(reactionF, 2);
+    expect(await ryF.locator('td').nth(3).textContent()).toBe('D1');
+    expect(await page.getByText('No uplift: every support bears down under every load case.').isVisible()).toBe(true);
+    expect(await page.getByRole('link', { name: 'Reactions (CSV)' }).getAttribute('href')).toMatch(/^\/api\/runs\/\d+\/reactions\.csv$/);
   }, 60_000);
 
   it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is stale', async () => {

@@ -18,5 +18,9 @@ export function runsRoutes(registry: RouteSpec[], deps: runs.RunsDeps) {
     const { csv, fileName } = await runs.getForcesCsv(idParam(req.params.id, 'That analysis run'));
     res.attachment(fileName).type('text/csv; charset=utf-8').send(csv);
   });
+  routes.add('get', '/runs/:id/reactions.csv', ANY_ROLE, async (req, res) => {
+    const { csv, fileName } = await runs.getReactionsCsv(idParam(req.params.id, 'That analysis run'));
+    res.attachment(fileName).type('text/csv; charset=utf-8').send(csv);
+  });
   return routes.router;
 }

@@ -6,6 +6,7 @@ import { TrussModelRecord } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
 import { assertTakeoffCases, computeTakeoff, takeoffApply, takeoffParseStored } from '../takeoff/takeoff-compute';
 import { forcesCsv } from './forces-csv';
+import { reactionsCsv } from './reactions-csv';
 import * as repo from './runs.repository';
 import type { RunRow } from './runs.repository';
 import { SolvePoolClosedError, type SolvePool, type SolveSummary } from './solve-pool';
@@ -151,21 +152,34 @@ export async function getRunJson(runId: number): Promise<string> {
   return `${summary.slice(0, -1)},"model":${row.model},"takeoff":${row.takeoff ?? 'null'},"analysis":${row.analysis ?? 'null'}}`;
 }
 
-/** The member force table of a solved run as CSV, with a file name for the download. */
-export async function getForcesCsv(runId: number): Promise<{ csv: string; fileName: string }> {
+/** A solved run's row, or 409 'run-not-solved' saying why it has no results table yet. */
+async function solvedRunOr409(runId: number, table: string): Promise<RunRow & { analysis: string }> {
   const row = await findRunOr404(runId);
   if (row.status !== 'solved' || !row.analysis) {
     const why: Record<RunRow['status'], string> = {
       queued: 'it is still waiting to be solved',
       running: 'it is still being solved',
-      unstable: 'the truss is unstable, so it has no member forces',
+      unstable: `the truss is unstable, so it has no ${table === 'member force table' ? 'member forces' : 'reactions'}`,
       failed: 'it failed',
       solved: '',
     };
-    throw conflict('run-not-solved', `Run ${runId} has no member force table: ${why[row.status]}. Open the run to see its status.`);
+    throw conflict('run-not-solved', `Run ${runId} has no ${table}: ${why[row.status]}. Open the run to see its status.`);
   }
+  return row as RunRow & { analysis: string };
+}
+
+/** The member force table of a solved run as CSV, with a file name for the download. */
+export async function getForcesCsv(runId: number): Promise<{ csv: string; fileName: string }> {
+  const row = await solvedRunOr409(runId, 'member force table');
   const csv = forcesCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
   return { csv, fileName: `truss-${row.trussId}-run-${row.id}-member-forces.csv` };
+}
+
+/** The support reactions of a solved run (cases, combinations, envelope) as CSV, with a file name. */
+export async function getReactionsCsv(runId: number): Promise<{ csv: string; fileName: string }> {
+  const row = await solvedRunOr409(runId, 'reaction table');
+  const csv = reactionsCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
+  return { csv, fileName: `truss-${row.trussId}-run-${row.id}-reactions.csv` };
 }
 
 /**

@@ -31,8 +31,8 @@ describe('sheet view: cover', () => {
 
   it('when a stable truss is built, then the contents run in sheet order and each section is numbered from 1 in that order', () => {
     const view = buildCalcSheetView(sheetInput(triangleModel(['D', 'W'])));
-    expect(view.cover.contents.map((c) => c.anchor)).toEqual(['design-basis', 'geometry', 'supports', 'loads', 'stability', 'case-D', 'case-W', 'combinations', 'residual']);
+    expect(view.cover.contents.map((c) => c.anchor)).toEqual(['design-basis', 'geometry', 'supports', 'loads', 'stability', 'case-D', 'case-W', 'combinations', 'bearings', 'residual']);
     expect(Object.entries(view.numbers)).toEqual(view.cover.contents.map((c, i) => [c.anchor, String(i + 1)]));
-    expect(view.cover.summary.map((s) => s.label)).toEqual(['Stability', 'Load cases', 'Combinations', 'Largest tension', 'Largest compression', 'Largest residual']);
+    expect(view.cover.summary.map((s) => s.label)).toEqual(['Stability', 'Load cases', 'Combinations', 'Largest tension', 'Largest compression', 'Uplift', 'Largest residual']);
   });
 });

@@ -6,10 +6,12 @@ import { geometrySection } from './geometry';
 import { supportsSection } from './supports';
 import { takeoffSection } from './takeoff';
 import { loadsSection } from './loads';
+import { combinationReasonsSection } from './combination-reasons';
 import { stabilitySection } from './stability';
 import { casesSection } from './cases';
 import { combinationsSection } from './combinations';
 import { envelopeSection } from './envelope';
+import { bearingsSection } from './bearings';
 import { residualSection } from './residual';
 import type { CalcSheetInput, CalcSheetView, StepView } from './types';
 
@@ -24,10 +26,12 @@ const SECTIONS = [
   supportsSection,
   takeoffSection,
   loadsSection,
+  combinationReasonsSection,
   stabilitySection,
   casesSection,
   combinationsSection,
   envelopeSection,
+  bearingsSection,
   residualSection,
 ] as const;
 

@@ -130,11 +130,22 @@ export interface CalcSheetView {
   takeoff: StepView[];
   loadCases: { rows: TableRow[] };
   combinations: { rows: TableRow[] };
+  /** Per built-in set the combinations cite: why they are what they are (or that they were edited). */
+  combinationReasons: { title: string; asFormed: boolean; lines: string[] }[];
   stability: StepView & { verdict: string; message: string; mechanism: string; symmetry: string };
   cases: CaseView[];
   comboTables: { title: string; head: string[]; rows: TableRow[] }[];
   comboResidualRows: TableRow[];
   envelope: { source: string; rows: TableRow[] };
+  /** Reactions for bearing design: by case and combination, extremes per component, uplift in words. */
+  bearings: {
+    source: string;
+    /** Tables of up to three supports: Rx and Ry of each under every case (cls 'case') and combination. */
+    bySource: { head: string[]; rows: TableRow[] }[];
+    /** Two rows per support (Rx, Ry): support, kind, component, max, from, min, from. */
+    extremes: TableRow[];
+    words: string[];
+  };
   residual: { rows: TableRow[]; verdict: string; ok: boolean };
   generatedAt: string;
 }

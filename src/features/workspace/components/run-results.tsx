@@ -1,5 +1,5 @@
 import { useMemo, useState, type ReactNode } from 'react';
-import { caseSteps, type SolverStep, type TrussAnalysis } from '@shared/solver';
+import { caseSteps, reactionEnvelopeOf, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import type { RunView } from '@shared/schemas/run.schema';
 import type { UnitSystemId } from '@shared/units';
 import { Panel } from '@/components/ui/page-header';
@@ -18,6 +18,7 @@ import {
   type ResultSource,
 } from '../utils/run-results';
 import { ForceTable } from './force-table';
+import { ReactionEnvelopeTable, upliftWords } from './reaction-envelope-table';
 import { RunStatusBadge } from './run-status-badge';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
@@ -64,6 +65,11 @@ export function RunResults({ runId, unitSystem }: { runId: number; unitSystem: U
             {r.status === 'solved' && (
               <a className={LINK} href={`/api/runs/${r.id}/forces.csv`} download>
                 Member forces (CSV)
+              </a>
+            )}
+            {r.status === 'solved' && (
+              <a className={LINK} href={`/api/runs/${r.id}/reactions.csv`} download>
+                Reactions (CSV)
               </a>
             )}
             <a className={LINK} href={`/api/runs/${r.id}/sheet`} target="_blank" rel="noreferrer">
@@ -118,6 +124,9 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
   const rows = useMemo(() => (unstable ? [] : forceRowsFilter(forceRows(model, analysis, source), filter)), [unstable, model, analysis, sourceKey, filter]); // eslint-disable-line react-hooks/exhaustive-deps
   const steps = useMemo(() => (caseResult ? [cls.step, ...caseSteps(caseResult)] : [cls.step]), [caseResult, cls.step]);
   const hasGroups = model.members.some((m) => m.group);
+  const reactionEnvelope = useMemo(() => reactionEnvelopeOf(analysis), [analysis]);
+  const envelopeOver = analysis.combinations.length ? 'combinations' : 'load cases';
+  const lifted = reactionEnvelope.filter((row) => upliftWords(row, unitSystem) !== null);
 
   const largest = result ? Math.max(0, ...Object.values(result.forces).map(Math.abs)) : 0;
   const arrows: JointArrow[] = [];
@@ -248,6 +257,13 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
                   </table>
                   <p className="mt-1 text-xs text-ink-faint">+x right, +y up.</p>
                 </div>
+              )}
+
+              {source.kind === 'envelope' && reactionEnvelope.length > 0 && <ReactionEnvelopeTable rows={reactionEnvelope} over={envelopeOver} unitSystem={unitSystem} />}
+              {source.kind !== 'envelope' && lifted.length > 0 && (
+                <p className="text-sm text-danger">
+                  Uplift at {lifted.map((row) => row.at).join(', ')} under some {envelopeOver === 'combinations' ? 'combination' : 'load case'}: choose the envelope above for the hold-down force.
+                </p>
               )}
 
               {caseResult && (
