@@ -26,3 +26,32 @@ describe('sheet view: design basis', () => {
     expect(ind).toMatch(/direct stiffness method with each member’s EA/);
   });
 });
+
+describe('sheet view: design basis describes the methods this sheet uses', () => {
+  it('when no joint has two or fewer unknowns, then the method says the unknowns are solved together and does not claim joint by joint', async () => {
+    const { modelFromSketch } = await import('@shared/solver/test-trusses');
+    // Two pins and a three-hinged outline (r = 4): the reactions come with the member forces at
+    // the joints; an invented frame.
+    const model = modelFromSketch({
+      joints: [['A', 0, 0], ['B', 4, 0], ['C', 2, 3], ['E', 6, 3], ['F', 8, 0]],
+      members: [['A', 'B'], ['A', 'C'], ['B', 'C'], ['C', 'E'], ['B', 'E'], ['E', 'F']],
+      supports: [{ at: 'A', kind: 'pin' }, { at: 'F', kind: 'pin' }],
+      cases: [{ id: 'W', loads: [['E', 5, -10]] }],
+    });
+    const view = buildCalcSheetView(sheetInput(model));
+    const method = view.designBasis.method.join(' ');
+    const c = view.cases[0];
+    expect(c.simultaneousSteps.length).toBeGreaterThan(0);
+    expect(method).toMatch(/solved together/);
+    expect(method).toMatch(/found with the member forces at the joints/);
+    expect(method).not.toMatch(/moments about a support/);
+    if (c.jointSteps.length === 0) expect(method).not.toMatch(/joint by joint/);
+  });
+
+  it('when a truss is solved joint by joint, then neither the stiffness method nor a simultaneous solve is claimed', () => {
+    const method = buildCalcSheetView(sheetInput(triangleModel())).designBasis.method.join(' ');
+    expect(method).toMatch(/joint by joint, each joint with at most two unknowns/);
+    expect(method).toMatch(/moments about a support/);
+    expect(method).not.toMatch(/solved together|direct stiffness/);
+  });
+});
