@@ -66,6 +66,8 @@ export interface PrintLogEntry {
   label: string;
   priority: PrintPriority;
   startedAt: number;
+  /** Filled when the print is done: ms in setContent (parse, load), font loading and page.pdf (print layout, paint, PDF). */
+  phases?: { setContentMs: number; fontsMs: number; pdfMs: number };
 }
 
 export interface SheetPrinter {
@@ -283,13 +285,16 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
     try {
       if (job.signal?.aborted) throw abortedError();
       const work = (async () => {
+        const t0 = performance.now();
         await page.setContent(forPrint(job.html), { waitUntil: 'load', timeout: budget });
+        const t1 = performance.now();
         // Nothing is laid out yet (see PRINT_ONLY_STYLE), so no font has been asked for: load every
         // face now, then wait until all are ready, so the print never falls back to a system font.
         await page.evaluate(async () => {
           await Promise.all([...document.fonts].map((face) => face.load().catch(() => undefined)));
           await document.fonts.ready;
         });
+        const t2 = performance.now();
         const pdf = await page.pdf({
           format: job.paper === 'Letter' ? 'letter' : 'a4',
           printBackground: true,
@@ -300,6 +305,8 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
           tagged: false,
           timeout: budget,
         });
+        const entry = log.find((e) => e.label === job.label && !e.phases);
+        if (entry) entry.phases = { setContentMs: t1 - t0, fontsMs: t2 - t1, pdfMs: performance.now() - t2 };
         return Buffer.from(pdf);
       })();
       work.catch(() => {});
