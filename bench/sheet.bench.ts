@@ -8,7 +8,7 @@
  * printed once, with where the time goes: view (solver steps → KaTeX in this process), HTML,
  * setContent, font loading and page.pdf; and page.pdf again with every KaTeX span left out of the
  * layout (display: none), which gives KaTeX's share of the print. Also the time limit the printer
- * allows for a sheet of that size (printBudgetMs).
+ * allows for a sheet of that size (printBudgetMs). `npm run bench:sheet -- --large` runs that part alone.
  */
 import fs from 'node:fs';
 import os from 'node:os';
@@ -106,6 +106,11 @@ async function main() {
   };
   await printer.print(renderCalcSheetHtml(buildCalcSheetView({ ...warmInput, trussName: 'warm', subject: 'warm', model: warm, analysis: trussSolve(warm) })), 'A4');
   console.log('Wall times depend on what else runs on the machine; CPU seconds (Chromium and this process) per print do not.');
+  if (process.argv.includes('--large')) {
+    await largeSheet(printer, warmInput);
+    await printer.close();
+    return;
+  }
   console.log('joints  members  pages  HTML (ms)  HTML (KiB)  PDF warm wall (ms, median of 3)  PDF CPU (s)  PDF (KiB)  node peak (MiB)  chromium peak (MiB)');
   for (const size of SIZES) {
     const sketch = parallelChordSketch('pratt', size.panels, 3, 3, 10);

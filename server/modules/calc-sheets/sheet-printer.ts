@@ -236,6 +236,9 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
         handleSIGTERM: false,
         handleSIGHUP: false,
         timeout: 30_000,
+        // puppeteer stops any one CDP call after 180 s by default, which cut off page.pdf of a large
+        // sheet on a busy machine before our own limit (printBudgetMs) was reached: ours decides.
+        protocolTimeout: 3_600_000,
       });
       const pid = b.process()?.pid;
       if (pid) trackGroup(pid);
