@@ -3,6 +3,12 @@
  * case and one combination). Prints, per size: pages, time to HTML (view + templates), time to
  * PDF with the browser warm (median of 3), and peak memory of this process and of Chromium.
  * Target (issue 6): the 50-joint sheet prints in under 3 s with the browser warm on 2 cores.
+ *
+ * Then the large sheet: 200 joints with 5 load cases (one free-body step per joint and case),
+ * printed once, with where the time goes: view (solver steps → KaTeX in this process), HTML,
+ * setContent, font loading and page.pdf; and page.pdf again with every KaTeX span left out of the
+ * layout (display: none), which gives KaTeX's share of the print. Also the time limit the printer
+ * allows for a sheet of that size (printBudgetMs). `npm run bench:sheet -- --large` runs that part alone.
  */
 import fs from 'node:fs';
 import os from 'node:os';
@@ -10,7 +16,7 @@ import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
 import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
-import { createSheetPrinter } from '../server/modules/calc-sheets/sheet-printer';
+import { createSheetPrinter, printBudgetMs } from '../server/modules/calc-sheets/sheet-printer';
 
 const SIZES = [
   { joints: 10, panels: 4 },
@@ -66,7 +72,9 @@ function treeCpuSeconds(rootPid: number | null): number {
       const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
       const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
       parent.set(Number(entry), Number(f[1]));
-      cpu.set(Number(entry), (Number(f[11]) + Number(f[12])) / tick);
+      // utime + stime, and cutime + cstime: a renderer that ended with its page (reaped by the
+      // zygote) is still counted through its parent.
+      cpu.set(Number(entry), (Number(f[11]) + Number(f[12]) + Number(f[13]) + Number(f[14])) / tick);
     } catch {
       // ended
     }
@@ -100,6 +108,11 @@ async function main() {
   };
   await printer.print(renderCalcSheetHtml(buildCalcSheetView({ ...warmInput, trussName: 'warm', subject: 'warm', model: warm, analysis: trussSolve(warm) })), 'A4');
   console.log('Wall times depend on what else runs on the machine; CPU seconds (Chromium and this process) per print do not.');
+  if (process.argv.includes('--large')) {
+    await largeSheet(printer, warmInput);
+    await printer.close();
+    return;
+  }
   console.log('joints  members  pages  HTML (ms)  HTML (KiB)  PDF warm wall (ms, median of 3)  PDF CPU (s)  PDF (KiB)  node peak (MiB)  chromium peak (MiB)');
   for (const size of SIZES) {
     const sketch = parallelChordSketch('pratt', size.panels, 3, 3, 10);
@@ -137,7 +150,45 @@ async function main() {
       ].join(' '),
     );
   }
+  await largeSheet(printer, warmInput);
   await printer.close();
+}
+
+async function largeSheet(printer: ReturnType<typeof createSheetPrinter>, warmInput: Parameters<typeof buildCalcSheetView>[0] extends infer T ? Omit<T & object, 'trussName' | 'subject' | 'model' | 'analysis'> : never) {
+  const sketch = parallelChordSketch('pratt', 99, 3, 3, 10);
+  const base = sketch.cases![0].loads;
+  // Five cases of invented loads on the same joints: D, L, S, W (with a sideways part), E.
+  sketch.cases = ['D', 'L', 'S', 'W', 'E'].map((id, k) => ({ id, loads: base.map(([j, , fy]) => [j, k === 3 ? 2 : 0, fy * (1 + k / 2)] as [string, number, number]) }));
+  sketch.combinations = [{ name: 'LRFD-2', factors: { D: 1.2, L: 1.6, S: 0.5 }, clause: 'ASCE/SEI 7-16 §2.3.1 (2)' }];
+  const model = modelFromSketch(sketch);
+  const analysis = trussSolve(model);
+  const t0 = performance.now();
+  const view = buildCalcSheetView({ ...warmInput, trussName: 'P200', subject: 'Truss P200, 5 load cases', model, analysis });
+  const t1 = performance.now();
+  const html = renderCalcSheetHtml(view);
+  const t2 = performance.now();
+  const c0 = treeCpuSeconds(printer.browserPid());
+  const w0 = performance.now();
+  const pdf = await printer.print(html, 'A4', { label: 'large' });
+  const wall = performance.now() - w0;
+  const cpu = treeCpuSeconds(printer.browserPid()) - c0;
+  const phases = printer.startedLog().find((e) => e.label === 'large')?.phases;
+  const noKatex = html.replace(/<\/head>/i, '<style>.katex{display:none !important}</style></head>');
+  const c1 = treeCpuSeconds(printer.browserPid());
+  await printer.print(noKatex, 'A4', { label: 'large-no-katex' });
+  const cpuNoKatex = treeCpuSeconds(printer.browserPid()) - c1;
+  const phasesNoKatex = printer.startedLog().find((e) => e.label === 'large-no-katex')?.phases;
+  const budget = printBudgetMs(html.length, 60_000);
+  console.log('');
+  console.log(`large sheet: ${model.joints.length} joints, ${model.members.length} members, ${model.loadCases.length} load cases, ${pageCount(pdf)} pages, HTML ${(html.length / 1024 / 1024).toFixed(1)} MiB, PDF ${(pdf.length / 1024).toFixed(0)} KiB`);
+  console.log(`  view (solver steps → KaTeX, this process) ${(t1 - t0).toFixed(0)} ms; HTML (templates) ${(t2 - t1).toFixed(0)} ms`);
+  console.log(
+    `  print wall ${wall.toFixed(0)} ms (Chromium CPU ${cpu.toFixed(1)} s): setContent ${phases?.setContentMs.toFixed(0)} ms, fonts ${phases?.fontsMs.toFixed(0)} ms, page.pdf ${phases?.pdfMs.toFixed(0)} ms`,
+  );
+  console.log(
+    `  same sheet with KaTeX left out of the layout: page.pdf ${phasesNoKatex?.pdfMs.toFixed(0)} ms (Chromium CPU ${cpuNoKatex.toFixed(1)} s), so KaTeX's layout is about ${(100 * (1 - (phasesNoKatex?.pdfMs ?? 0) / (phases?.pdfMs ?? 1))).toFixed(0)} % of page.pdf`,
+  );
+  console.log(`  time limit for this size (printBudgetMs, base 60 s): ${(budget / 1000).toFixed(0)} s — ${wall < budget ? 'printed within it' : 'NOT within it'}`);
 }
 
 main().catch((e) => {

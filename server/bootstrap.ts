@@ -9,6 +9,7 @@ import { migrate } from './db/migrate';
 import { Drawing, initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
+import { chromiumLeftoversSweep, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { seedDemo } from './seed/demo';
 import { firstAdminLink } from './modules/users/first-admin';
 import { runsFailInterrupted } from './modules/runs/runs.service';
@@ -59,7 +60,7 @@ function sessionSecretFor(config: Config): string {
 }
 
 /** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
-export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void; review?: ReviewDeps } = {}): Promise<Services> {
+export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void; review?: ReviewDeps; printer?: SheetPrinter } = {}): Promise<Services> {
   const say = options.log ?? ((m: string) => console.log(m));
   if (config.env === 'production' && !config.publicUrl) {
     say('Warning: PUBLIC_URL is not set, so links in e-mails (invitations, review notices) point at http://localhost. Set PUBLIC_URL to the address people use, e.g. https://panelpoint.example.com.');
@@ -100,6 +101,12 @@ export async function startServices(config: Config, options: { clientDir?: strin
     say(`No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (it changes at every start until used): ${firstLink}`);
   }
 
+  // Chromium and profile folders left by a server that died without closing its printer (kill -9).
+  const swept = chromiumLeftoversSweep();
+  if (swept.killed.length || swept.removed.length) {
+    say(`Ended ${swept.killed.length} Chromium process(es) and removed ${swept.removed.length} browser profile folder(s) left by an earlier Panelpoint server that did not shut down cleanly.`);
+  }
+
   const sink = config.smtpUrl ? undefined : await startSmtpSink({ sender: config.mailFrom });
   const mailer = createMailer({ smtpUrl: config.smtpUrl, sinkPort: sink?.port, sinkAuth: sink?.auth, from: config.mailFrom });
   const created = createApp({
@@ -111,6 +118,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     clientDir: options.clientDir,
     log: options.log,
     review: options.review,
+    printer: options.printer,
   });
   return {
     ...created,

@@ -56,7 +56,7 @@ function toAppError(err: unknown): AppError | null {
   }
   // calc-sheet printing
   if (e && (e as Error).name === 'SheetPrintError') {
-    const status = e.code === 'print-timeout' ? 504 : 503;
+    const status = e.code === 'print-timeout' ? 504 : e.code === 'print-queue-full' ? 429 : 503;
     return new AppError(e.code as string, (e as Error).message, status);
   }
   // multer failures

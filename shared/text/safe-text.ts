@@ -51,6 +51,9 @@ const TEX_SPECIALS: Record<string, string> = {
  *   read it as an accent command and refuse the ones it does not know (or one with no base).
  * - A hyphen after a hyphen gets an empty group between, so `--` stays two hyphens (no dash
  *   ligature).
+ * - An apostrophe or grave accent after one of them (or a grave after ! or ?) gets an empty
+ *   group between, so '' stays two quotes (a double prime, U1'') rather than one double quote.
+ * - A space after a space goes in as a control space (`\ `), so a run of spaces keeps its width.
  */
 function texChar(ch: string, previous: string): string {
   const special = TEX_SPECIALS[ch];
@@ -58,6 +61,10 @@ function texChar(ch: string, previous: string): string {
   const code = ch.codePointAt(0) ?? 0;
   if (code >= 0x300 && code <= 0x36f) return `\\char"${code.toString(16).toUpperCase()}{}`;
   if (ch === '-' && previous === '-') return '{}-';
+  // '' and `` would join into a double quote (and !` ?` into ¡ ¿): keep the characters apart.
+  if ((ch === "'" || ch === '`') && (previous === "'" || previous === '`' || (ch === '`' && (previous === '!' || previous === '?')))) return `{}${ch}`;
+  // TeX folds a run of spaces into one; a control space keeps each of them.
+  if (ch === ' ' && previous === ' ') return '\\ ';
   return ch;
 }
 

@@ -6,6 +6,7 @@ import type { Express } from 'express';
 import { loadConfig, type Config } from '../../server/config';
 import { startServices, type Services } from '../../server/bootstrap';
 import type { ReviewDeps } from '../../server/app';
+import type { SheetPrinter } from '../../server/modules/calc-sheets/sheet-printer';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 
 /** A temp data folder with a real SQLite file in it, for tests of concurrency and restarts. */
@@ -21,7 +22,7 @@ export function tempDataDir(): { dataDir: string; databaseStorage: string } {
  */
 export async function startTestServices(
   overrides: Partial<Config> = {},
-  options: { review?: ReviewDeps; realFile?: boolean } = {},
+  options: { review?: ReviewDeps; realFile?: boolean; printer?: SheetPrinter } = {},
 ): Promise<Services> {
   const config: Config = {
     ...loadConfig({ NODE_ENV: 'test' }),
@@ -32,7 +33,7 @@ export async function startTestServices(
     uploadsDir: fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-uploads-')),
     ...overrides,
   };
-  return startServices(config, { log: () => {}, review: options.review });
+  return startServices(config, { log: () => {}, review: options.review, printer: options.printer });
 }
 
 export const demoEmail = (role: 'drafter' | 'engineer' | 'reviewer' | 'admin') => `${role}@demo.panelpoint.test`;

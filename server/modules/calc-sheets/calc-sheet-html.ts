@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import Handlebars from 'handlebars';
 import type { CalcSheetView } from './calc-sheet-view';
-import { sheetAssets, TEMPLATES_DIR } from './sheet-assets';
+import { notoCssFor, sheetAssets, TEMPLATES_DIR } from './sheet-assets';
 import { forceLegendSvg } from './truss-svg';
 
 /**
@@ -39,7 +39,8 @@ function compile(): Render {
 /** The full HTML document of a calc sheet. */
 export function renderCalcSheetHtml(view: CalcSheetView): string {
   if (!compiled) compiled = compile();
-  return compiled({ ...view, assets: sheetAssets(), legendSvg: forceLegendSvg() });
+  // Noto faces only for the scripts the sheet's text uses (a tag in Arabic, a note in Hebrew).
+  return compiled({ ...view, assets: sheetAssets(), notoCss: notoCssFor(JSON.stringify(view)), legendSvg: forceLegendSvg() });
 }
 
 /** Forgets the compiled templates (after editing them in development). */

@@ -10,7 +10,16 @@ export function calcSheetsRoutes(registry: RouteSpec[], deps: { printer: SheetPr
     res.type('html').send(await runSheetHtml(idParam(req.params.id, 'That analysis run')));
   });
   routes.add('get', '/runs/:id/sheet.pdf', ANY_ROLE, async (req, res) => {
-    const { bytes, fileName } = await runSheetPdf(idParam(req.params.id, 'That analysis run'), deps.printer);
+    // The print is dropped from the queue (or stopped) when the requester goes before the PDF is sent.
+    const gone = new AbortController();
+    res.on('close', () => {
+      if (!res.writableFinished) gone.abort();
+    });
+    const { bytes, fileName } = await runSheetPdf(idParam(req.params.id, 'That analysis run'), deps.printer, {
+      priority: 'preview',
+      person: req.user!.id,
+      signal: gone.signal,
+    });
     res.attachment(fileName).type('application/pdf').send(bytes);
   });
   return routes.router;

@@ -1,6 +1,6 @@
 import { buildCalcSheetView, type CalcSheetInput } from './calc-sheet-view';
 import { renderCalcSheetHtml } from './calc-sheet-html';
-import type { SheetPrinter } from './sheet-printer';
+import type { PrintRequest, SheetPrinter } from './sheet-printer';
 
 /**
  * Use cases of the calc sheet, easy to call from a route: plain inputs in, HTML or PDF bytes out.
@@ -13,7 +13,7 @@ export function renderCalcSheetPreview(input: CalcSheetInput): string {
 }
 
 /** The calc sheet as PDF bytes, on the firm's paper size, through the given (shared) printer. */
-export async function renderCalcSheetPdf(input: CalcSheetInput, printer: SheetPrinter): Promise<Buffer> {
+export async function renderCalcSheetPdf(input: CalcSheetInput, printer: SheetPrinter, request: PrintRequest = {}): Promise<Buffer> {
   const view = buildCalcSheetView(input);
-  return printer.print(renderCalcSheetHtml(view), view.paper);
+  return printer.print(renderCalcSheetHtml(view), view.paper, request);
 }

@@ -7,7 +7,7 @@ import { getFirm } from '../firm/firm.service';
 import * as runsRepo from '../runs/runs.repository';
 import { renderCalcSheetPdf, renderCalcSheetPreview } from './calc-sheets.service';
 import type { CalcSheetInput } from './calc-sheet-view';
-import type { SheetPrinter } from './sheet-printer';
+import type { PrintRequest, SheetPrinter } from './sheet-printer';
 
 /** A run's calc-sheet input without what a revision adds (revision, signers, print time). */
 export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'issuedBy' | 'generatedAt'>;
@@ -56,8 +56,14 @@ export async function runSheetHtml(runId: number, now = new Date()): Promise<str
   return renderCalcSheetPreview(draftInput(await loadRunSheet(runId), now));
 }
 
-export async function runSheetPdf(runId: number, printer: SheetPrinter, now = new Date()): Promise<{ bytes: Buffer; fileName: string }> {
+/** The draft PDF of a run's sheet: a preview in the print queue (see sheet-printer.ts). */
+export async function runSheetPdf(
+  runId: number,
+  printer: SheetPrinter,
+  request: PrintRequest = {},
+  now = new Date(),
+): Promise<{ bytes: Buffer; fileName: string }> {
   const base = await loadRunSheet(runId);
-  const bytes = await renderCalcSheetPdf(draftInput(base, now), printer);
+  const bytes = await renderCalcSheetPdf(draftInput(base, now), printer, request);
   return { bytes, fileName: `${base.project.jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-') };
 }

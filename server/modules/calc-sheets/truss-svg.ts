@@ -77,7 +77,7 @@ function frameFit(ext: Extent, pad: [number, number, number, number], maxH: numb
 function svgOpen(frame: Frame, label: string, cls: string): string {
   return (
     `<svg class="${cls}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${VIEW_W} ${f1(frame.height)}" ` +
-    `role="img" aria-label="${svgEscape(label)}" font-family="Inter, sans-serif">`
+    `role="img" aria-label="${svgEscape(label)}" font-family="Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', sans-serif">`
   );
 }
 
@@ -345,7 +345,7 @@ export function forceLegendSvg(): string {
     return `<line x1="${x}" y1="14" x2="${x + 46}" y2="14" stroke="${st.stroke}" stroke-width="${st.width}"${dash}/><text x="${x + 56}" y="18.5" font-size="13" fill="${st.ink}">${svgEscape(text)}</text>`;
   };
   return (
-    `<svg class="force-legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 1000 28" font-family="Inter, sans-serif" role="img" aria-label="Legend">` +
+    `<svg class="force-legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 1000 28" font-family="Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', sans-serif" role="img" aria-label="Legend">` +
     item(0, FORCE_STYLE.tension, 'Tension (T), solid') +
     item(300, FORCE_STYLE.compression, 'Compression (C), dashed') +
     item(640, FORCE_STYLE.zero, 'Zero force (0), dotted') +
@@ -394,7 +394,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
   const cx = W / 2;
   const cy = H / 2;
   const out: string[] = [
-    `<svg class="fbd" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" role="img" aria-label="${svgEscape(`Free-body diagram of joint ${step.jointTag}`)}" font-family="Inter, sans-serif">`,
+    `<svg class="fbd" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" role="img" aria-label="${svgEscape(`Free-body diagram of joint ${step.jointTag}`)}" font-family="Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', sans-serif">`,
   ];
   const all: { f: JointForce; unknown: boolean }[] = [
     ...step.known.map((f) => ({ f, unknown: false })),

@@ -25,7 +25,8 @@ export function calcSheetRenderer(deps: {
         issuedBy: signatures ? { name: signatures.issuedBy.name, date: signatures.issuedBy.date.slice(0, 10) } : undefined,
         generatedAt: signatures?.issuedBy.date ?? (deps.now ?? (() => new Date()))(),
       };
-      return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize);
+      // The signed record: printed ahead of every waiting preview (see sheet-printer.ts).
+      return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize, { priority: 'issue', label: `issue-run-${runId}` });
     },
   };
 }
