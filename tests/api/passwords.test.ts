@@ -157,6 +157,27 @@ describe('changing one’s own password', () => {
     await signIn(services.app, user.email, STRONG_2);
   });
 
+  it('when another session is saved again after the change (a request of it still in flight), then it is still signed out', async () => {
+    const user = await makeUser('change.race@example.com', 'Dmitri Volkov', STRONG);
+    const here = await signIn(services.app, user.email, STRONG);
+    const laptop = await signIn(services.app, user.email, STRONG);
+    type Row = { sid: string; expires: string; data: string; createdAt: string; updatedAt: string };
+    const rowsBefore = await services.sequelize.query<Row>(`SELECT * FROM "Sessions" WHERE json_extract("data", '$.passport.user.id') = :id`, {
+      replacements: { id: user.id },
+      type: QueryTypes.SELECT,
+    });
+    expect(rowsBefore).toHaveLength(2);
+    await here.agent.post('/api/account/password').set('X-CSRF-Token', here.csrf).send({ currentPassword: STRONG, newPassword: STRONG_2 }).expect(200);
+    // Put the old rows back, as a request that was running during the change would on saving.
+    for (const r of rowsBefore) {
+      await services.sequelize.query(`INSERT INTO "Sessions" (sid, expires, data, createdAt, updatedAt) VALUES (:sid, :expires, :data, :createdAt, :updatedAt)`, {
+        replacements: r,
+      });
+    }
+    expect((await laptop.agent.get('/api/projects')).status).toBe(401);
+    await here.agent.get('/api/projects').expect(200);
+  });
+
   it('when signed out, then 401 and nothing changes', async () => {
     const tab = await openTab(services.app);
     const res = await tab.agent.post('/api/account/password').set('X-CSRF-Token', tab.csrf).send({ currentPassword: DEMO_PASSWORD, newPassword: STRONG });

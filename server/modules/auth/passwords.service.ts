@@ -67,24 +67,24 @@ export async function changePassword(userId: number, input: ChangePasswordInput,
 }
 
 /**
- * Makes a new reset link for the user (deleting every unused older one, so only the newest
- * works) and e-mails it.
+ * Makes a new reset link for the user and e-mails it; once sent, every unused older link is
+ * deleted, so only the newest works. When the mail cannot be sent, nothing is left changed.
  */
 async function sendResetLink(user: User, requestedBy: User | null, deps: ResetMailDeps): Promise<Date> {
   const token = newInvitationToken();
   const expiresAt = new Date(Date.now() + RESET_LINK_MINUTES * 60 * 1000);
-  await User.sequelize!.transaction(async (transaction) => {
-    await PasswordReset.destroy({ where: { userId: user.id, usedAt: null }, transaction });
-    await PasswordReset.create(
-      { tokenHash: hashToken(token), userId: user.id, requestedById: requestedBy?.id ?? null, expiresAt, usedAt: null },
-      { transaction },
-    );
+  const created = await PasswordReset.create({
+    tokenHash: hashToken(token),
+    userId: user.id,
+    requestedById: requestedBy?.id ?? null,
+    expiresAt,
+    usedAt: null,
   });
   const link = `${deps.publicUrl.replace(/\/$/, '')}/reset-password/${token}`;
   const why = requestedBy
     ? `${requestedBy.name}, an admin at ${deps.firmName}, has sent you a link to choose a new Panelpoint password.`
     : `Someone asked to reset the Panelpoint password of this address at ${deps.firmName}.`;
-  await deps.mailer.send({
+  const mail = {
     to: user.email,
     subject: 'Choose a new Panelpoint password',
     text: [
@@ -98,7 +98,20 @@ async function sendResetLink(user: User, requestedBy: User | null, deps: ResetMa
       'Choosing a new password signs you out everywhere else.',
       'If you did not ask for this, ignore this message: your password stays as it is.',
     ].join('\n'),
-  });
+  };
+  try {
+    await deps.mailer.send(mail);
+  } catch (err) {
+    // A link nobody received is of no use; leave no row behind for it.
+    await created.destroy();
+    throw new AppError(
+      'mail-not-sent',
+      `The reset e-mail to ${user.email} could not be sent (${err instanceof Error ? err.message : 'mail server error'}): check the mail settings (SMTP_URL) and try again.`,
+      502,
+    );
+  }
+  // Sent: from now on only the newest link works.
+  await PasswordReset.destroy({ where: { userId: user.id, usedAt: null, id: { [Op.ne]: created.id } } });
   return expiresAt;
 }
 
