@@ -306,6 +306,22 @@ describe('resetting a password by an e-mailed link', () => {
     expect(await mailsTo('nobody.here@example.com')).toHaveLength(0);
   });
 
+  it('when someone asks again within a minute, then the same answer and no second mail (no mail-bombing an address)', async () => {
+    const user = await makeUser('reset.twice@example.com', 'Nadia Rahman', STRONG);
+    const guest = await openTab(services.app);
+    const first = await forgot(guest, user.email);
+    const token = resetTokenIn(await waitForMail(user.email, 1));
+    const second = await forgot(guest, user.email);
+    expect(second.status).toBe(202);
+    expect(second.body).toEqual(first.body);
+    // A later request for another address is mailed; by then the second one would have been too.
+    const marker = await makeUser('reset.marker@example.com', 'Marker', STRONG);
+    await forgot(guest, marker.email);
+    await waitForMail(marker.email, 1);
+    expect(await mailsTo(user.email)).toHaveLength(1);
+    expect((await complete(guest, token, STRONG_2)).status).toBe(200);
+  });
+
   it('when the new password is weak or short, then 400 and the link still works', async () => {
     const user = await makeUser('reset.weak@example.com', 'Bruno Costa', STRONG);
     const guest = await openTab(services.app);
