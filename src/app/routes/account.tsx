@@ -19,7 +19,7 @@ export function AccountRoute() {
             <dt className="text-ink-faint">Role</dt>
             <dd className="text-ink">{ROLE_LABELS[user.role]}</dd>
           </dl>
-          <p className="mt-4 text-xs text-ink-faint">Ask your admin to change your name, address or role.</p>
+          <p className="mt-4 text-xs text-ink-faint">Ask your admin to change your name, e-mail address or role.</p>
         </Panel>
         <Panel title="Change password">
           <p className="mb-4 text-sm text-ink-soft">Changing it signs you out on every other computer and browser.</p>
