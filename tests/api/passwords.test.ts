@@ -331,6 +331,11 @@ describe('resetting a password by an e-mailed link', () => {
     expect(weak.status).toBe(400);
     expect(weak.body.error.code).toBe('weak-password');
     expect(weak.body.error.message).toContain(reference.check('password1234').feedback.warning!.replace(/\.$/, '').toLowerCase());
+    // zxcvbn's slowest kind of input, at the 200-character maximum: refused (weak, or past the
+    // check's time limit), never a 500, and the link still works.
+    const repeated = await complete(guest, token, 'ab1!'.repeat(50));
+    expect(repeated.status).toBe(400);
+    expect(repeated.body.error.code).toBe('weak-password');
     const short = await complete(guest, token, 'short');
     expect(short.status).toBe(400);
     expect(short.body.error.fields.password).toMatch(/at least 12/);

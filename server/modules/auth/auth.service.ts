@@ -3,7 +3,7 @@ import bcrypt from 'bcryptjs';
 import type { InvitationView } from '@shared/schemas/auth.schema';
 import { AppError } from '../../errors/app-error';
 import { Invitation, User } from '../../db/models';
-import { assertPasswordAllowed } from './password-rule';
+import { assertPasswordAllowed } from './password-judge';
 
 export const hashToken = (token: string) => crypto.createHash('sha256').update(token).digest('hex');
 
@@ -44,7 +44,7 @@ export async function acceptInvitation(
   firmName: string,
 ): Promise<User> {
   const { invitation, user } = await findUsableInvitation(input.token);
-  assertPasswordAllowed(input.password, [user.email, input.name, user.name, firmName]);
+  await assertPasswordAllowed(input.password, [user.email, input.name, user.name, firmName]);
   const passwordHash = await bcrypt.hash(input.password, bcryptRounds);
   const sequelize = Invitation.sequelize!;
   return sequelize.transaction(async (transaction) => {

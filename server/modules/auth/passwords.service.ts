@@ -5,7 +5,7 @@ import { AppError, notFound } from '../../errors/app-error';
 import { PasswordReset, User } from '../../db/models';
 import type { Mailer } from '../../mail/mailer';
 import { hashToken, newInvitationToken } from './auth.service';
-import { assertPasswordAllowed } from './password-rule';
+import { assertPasswordAllowed } from './password-judge';
 
 /** A reset link works for one hour. */
 export const RESET_LINK_MINUTES = 60;
@@ -59,7 +59,7 @@ export async function changePassword(userId: number, input: ChangePasswordInput,
     const message = 'The new password is the same as the current one: choose a different one.';
     throw new AppError('same-password', message, 400, { newPassword: message });
   }
-  assertPasswordAllowed(input.newPassword, personalWords(user, firmName), 'newPassword');
+  await assertPasswordAllowed(input.newPassword, personalWords(user, firmName), 'newPassword');
   const passwordHash = await bcrypt.hash(input.newPassword, bcryptRounds);
   await User.sequelize!.transaction((transaction) => setPassword(user.id, passwordHash, transaction));
   await user.reload();
@@ -174,7 +174,7 @@ export async function getPasswordReset(token: string): Promise<PasswordResetView
  */
 export async function completePasswordReset(input: CompletePasswordResetInput, bcryptRounds: number, firmName: string): Promise<User> {
   const { reset, user } = await findUsableReset(input.token);
-  assertPasswordAllowed(input.password, personalWords(user, firmName));
+  await assertPasswordAllowed(input.password, personalWords(user, firmName));
   const passwordHash = await bcrypt.hash(input.password, bcryptRounds);
   await User.sequelize!.transaction(async (transaction) => {
     const [claimed] = await PasswordReset.update(
