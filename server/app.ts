@@ -124,7 +124,7 @@ export function createApp(deps: AppDeps): CreatedApp {
     addressLimit: config.signInAddressLimit,
     windowMs: config.signInRateWindowMs,
   });
-  app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor, signInLimiter));
+  app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor, signInLimiter, { mailer: deps.mailer, publicUrl, log }));
   app.use('/api', usersRoutes(registry, { mailer: deps.mailer, publicUrl }));
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));

@@ -4,6 +4,7 @@ import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-drawings-and-models';
 import * as m0003 from './migrations/0003-analysis-runs';
 import * as m0004 from './migrations/0004-sheet-revisions';
+import * as m0005 from './migrations/0005-password-resets';
 import * as m0006 from './migrations/0006-signin-limits';
 import * as m0007 from './migrations/0007-signing-keys-and-record-guards';
 
@@ -13,6 +14,7 @@ const MIGRATIONS = [
   { name: '0002-drawings-and-models', ...m0002 },
   { name: '0003-analysis-runs', ...m0003 },
   { name: '0004-sheet-revisions', ...m0004 },
+  { name: '0005-password-resets', ...m0005 },
   { name: '0006-signin-limits', ...m0006 },
   { name: '0007-signing-keys-and-record-guards', ...m0007 },
 ];

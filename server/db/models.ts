@@ -9,6 +9,20 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare role: Role;
   declare passwordHash: string | null;
   declare disabled: CreationOptional<boolean>;
+  /** Raised on a password change or reset; sessions holding an older value are signed out. */
+  declare sessionEpoch: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** One e-mailed password-reset link; only the token's SHA-256 is stored. */
+export class PasswordReset extends Model<InferAttributes<PasswordReset>, InferCreationAttributes<PasswordReset>> {
+  declare id: CreationOptional<number>;
+  declare tokenHash: string;
+  declare userId: number;
+  declare requestedById: number | null;
+  declare expiresAt: Date;
+  declare usedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -182,9 +196,22 @@ export function initModels(sequelize: Sequelize): void {
       role: { type: DataTypes.STRING(16), allowNull: false },
       passwordHash: { type: DataTypes.STRING(100), allowNull: true },
       disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      sessionEpoch: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       ...timestamps,
     },
     { sequelize, tableName: 'users' },
+  );
+  PasswordReset.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      tokenHash: { type: DataTypes.STRING(64), allowNull: false },
+      userId: { type: DataTypes.INTEGER, allowNull: false },
+      requestedById: { type: DataTypes.INTEGER, allowNull: true },
+      expiresAt: { type: DataTypes.DATE, allowNull: false },
+      usedAt: { type: DataTypes.DATE, allowNull: true },
+      ...timestamps,
+    },
+    { sequelize, tableName: 'password_resets' },
   );
   Invitation.init(
     {

@@ -10,10 +10,40 @@ export const signInSchema = z.object({
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
+/** Minimum length of a password set through the app (the server also refuses guessable ones). */
+export const PASSWORD_MIN_LENGTH = 12;
+
 export const passwordSchema = z
-  .string()
-  .min(10, 'Use at least 10 characters.')
+  .string({ error: 'Enter a password.' })
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters.`)
   .max(200, 'Use at most 200 characters.');
+
+const emailSchema = z.string({ error: 'Enter an e-mail address like name@firm.com.' }).trim().toLowerCase().email('Enter an e-mail address like name@firm.com.');
+const tokenSchema = z.string({ error: 'The link is incomplete. Open the link from the e-mail again.' }).min(20, 'The link is incomplete. Open the link from the e-mail again.').max(200, 'The link is not valid. Open the link from the e-mail again.');
+
+export const changePasswordSchema = z.object({
+  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(200, 'That is not your current password.'),
+  newPassword: passwordSchema,
+});
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+export const requestPasswordResetSchema = z.object({ email: emailSchema });
+export type RequestPasswordResetInput = z.infer<typeof requestPasswordResetSchema>;
+
+export const completePasswordResetSchema = z.object({ token: tokenSchema, password: passwordSchema });
+export type CompletePasswordResetInput = z.infer<typeof completePasswordResetSchema>;
+
+/** What a reset link shows before the new password is chosen. */
+export interface PasswordResetView {
+  email: string;
+  name: string;
+  expiresAt: string;
+}
+
+/** The answer to a self-service request: the same sentence whether or not the address has an account. */
+export interface PasswordResetRequested {
+  message: string;
+}
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(20).max(200),

@@ -95,10 +95,13 @@ export function AppShell() {
             )}
           </nav>
           <div className="ml-auto flex h-14 items-center gap-3">
-            <div className="hidden text-right leading-tight sm:block">
+            <NavLink to="/account" className="hidden text-right leading-tight hover:underline sm:block" title="Your account and password">
               <div className="text-sm font-medium text-ink">{user.name}</div>
               <div className="hidden text-[11px] text-ink-faint lg:block">{user.email}</div>
-            </div>
+            </NavLink>
+            <NavLink to="/account" className="text-sm text-ink-soft hover:text-ink sm:hidden">
+              Account
+            </NavLink>
             <Badge tone="accent">{ROLE_LABELS[user.role]}</Badge>
             <Button
               size="sm"

@@ -3,6 +3,8 @@ import { AppShell, RequireAdmin, RequireSession } from './app-shell';
 import { RouteError, NotFoundRoute, PageLoading } from './routes/route-error';
 import { SignInRoute } from './routes/sign-in';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
+import { ForgotPasswordRoute } from './routes/forgot-password';
+import { ResetPasswordRoute } from './routes/reset-password';
 import { ProjectsRoute } from './routes/projects';
 import { ProjectRoute } from './routes/project';
 
@@ -15,6 +17,8 @@ export function createAppRouter() {
       children: [
         { path: '/sign-in', element: <SignInRoute /> },
         { path: '/invite/:token', element: <AcceptInvitationRoute /> },
+        { path: '/forgot-password', element: <ForgotPasswordRoute /> },
+        { path: '/reset-password/:token', element: <ResetPasswordRoute /> },
         {
           element: (
             <RequireSession>
@@ -32,6 +36,7 @@ export function createAppRouter() {
                 { path: '/trusses/:trussId', lazy: async () => ({ Component: (await import('./routes/truss')).TrussRoute }) },
                 { path: '/sheets/:sheetId', lazy: async () => ({ Component: (await import('./routes/sheet')).SheetRoute }) },
                 { path: '/archive', lazy: async () => ({ Component: (await import('./routes/archive')).ArchiveRoute }) },
+                { path: '/account', lazy: async () => ({ Component: (await import('./routes/account')).AccountRoute }) },
                 { path: '/verify', lazy: async () => ({ Component: (await import('./routes/verify')).VerifyRoute }) },
                 {
                   path: '/admin',

@@ -20,6 +20,9 @@ export function applyApiError<T extends FieldValues>(
       }
     }
   }
-  const onlyFieldProblems = placedOnField && error instanceof ApiError && error.code === 'validation-failed';
+  // A field problem is not repeated above the buttons: a validation failure, or an error whose
+  // one sentence is the one shown beside its field (a refused password).
+  const onlyFieldProblems =
+    placedOnField && error instanceof ApiError && (error.code === 'validation-failed' || Object.values(error.fields).includes(error.message));
   if (!onlyFieldProblems) setError('root.server', { type: 'server', message: errorMessage(error) });
 }

@@ -79,7 +79,7 @@ describe('inviting a user through the local SMTP sink', () => {
     const guest = await openTab(services.app);
     const res = await guest.agent.post('/api/invitations/accept').set('X-CSRF-Token', guest.csrf).send({ token, name: 'Sam', password: 'short' });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.password).toMatch(/at least 10/);
+    expect(res.body.error.fields.password).toMatch(/at least 12/);
     await guest.agent.get(`/api/invitations/${token}`).expect(200);
   });
 

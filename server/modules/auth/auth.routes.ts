@@ -1,7 +1,15 @@
 import type { Request, Response, NextFunction } from 'express';
 import type { PassportInstance } from './passport';
-import { acceptInvitationSchema, signInSchema, type SessionView } from '@shared/schemas/auth.schema';
-import { ApiRoutes, type RouteSpec } from '../../middleware/access';
+import {
+  acceptInvitationSchema,
+  changePasswordSchema,
+  completePasswordResetSchema,
+  requestPasswordResetSchema,
+  signInSchema,
+  type PasswordResetRequested,
+  type SessionView,
+} from '@shared/schemas/auth.schema';
+import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { validateBody } from '../../middleware/validate';
 import { AppError } from '../../errors/app-error';
 import type { User } from '../../db/models';
@@ -9,6 +17,9 @@ import { toUserView } from '../users/users.views';
 import { acceptInvitation, getInvitation } from './auth.service';
 import type { Config } from '../../config';
 import { refusalMessage, type SignInLimiter } from './signin-limiter';
+import type { Mailer } from '../../mail/mailer';
+import { getFirm } from '../firm/firm.service';
+import { changePassword, completePasswordReset, getPasswordReset, requestPasswordReset, RESET_REQUESTED_MESSAGE } from './passwords.service';
 
 function sessionView(req: Request, csrfTokenFor: (req: Request) => string): SessionView {
   const user = req.user as User | undefined;
@@ -20,12 +31,19 @@ function logIn(req: Request, user: User): Promise<void> {
   return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 }
 
+export interface AuthRoutesDeps {
+  mailer: Mailer;
+  publicUrl: () => string;
+  log: (msg: string, err?: unknown) => void;
+}
+
 export function authRoutes(
   registry: RouteSpec[],
   passport: PassportInstance,
   config: Config,
   csrfTokenFor: (req: Request) => string,
   limiter: SignInLimiter,
+  deps: AuthRoutesDeps,
 ) {
   const routes = new ApiRoutes('/api', registry);
 
@@ -79,7 +97,38 @@ export function authRoutes(
   });
 
   routes.add('post', '/invitations/accept', 'public', validateBody(acceptInvitationSchema), async (req, res) => {
-    const user = await acceptInvitation(req.body, config.bcryptRounds);
+    const user = await acceptInvitation(req.body, config.bcryptRounds, (await getFirm()).name);
+    await logIn(req, user);
+    res.json(sessionView(req, csrfTokenFor));
+  });
+
+  // Changing one's own password signs out every other session of the user; this tab is
+  // signed in again into a fresh session, so the answer carries a new CSRF token.
+  routes.add('post', '/account/password', ANY_ROLE, validateBody(changePasswordSchema), async (req, res) => {
+    const user = await changePassword((req.user as User).id, req.body, config.bcryptRounds, (await getFirm()).name);
+    await logIn(req, user);
+    res.json(sessionView(req, csrfTokenFor));
+  });
+
+  // "Forgot password": the same answer, at once, whether or not the address has an account;
+  // the lookup and the e-mail run after the answer so its timing tells nothing either.
+  routes.add('post', '/password-resets', 'public', validateBody(requestPasswordResetSchema), async (req, res) => {
+    const email = (req.body as { email: string }).email;
+    const firmName = (await getFirm()).name;
+    requestPasswordReset(email, { mailer: deps.mailer, publicUrl: deps.publicUrl(), firmName }).catch((err) =>
+      deps.log('Sending a password-reset e-mail failed', err),
+    );
+    res.status(202).json({ message: RESET_REQUESTED_MESSAGE } satisfies PasswordResetRequested);
+  });
+
+  routes.add('get', '/password-resets/:token', 'public', async (req, res) => {
+    res.json(await getPasswordReset(String(req.params.token)));
+  });
+
+  // Choosing the new password from the link signs the person in (every older session of theirs
+  // is signed out), as accepting an invitation does.
+  routes.add('post', '/password-resets/complete', 'public', validateBody(completePasswordResetSchema), async (req, res) => {
+    const user = await completePasswordReset(req.body, config.bcryptRounds, (await getFirm()).name);
     await logIn(req, user);
     res.json(sessionView(req, csrfTokenFor));
   });

@@ -3,6 +3,7 @@ import bcrypt from 'bcryptjs';
 import type { InvitationView } from '@shared/schemas/auth.schema';
 import { AppError } from '../../errors/app-error';
 import { Invitation, User } from '../../db/models';
+import { assertPasswordAllowed } from './password-judge';
 
 export const hashToken = (token: string) => crypto.createHash('sha256').update(token).digest('hex');
 
@@ -40,8 +41,10 @@ export async function getInvitation(token: string): Promise<InvitationView> {
 export async function acceptInvitation(
   input: { token: string; name: string; password: string },
   bcryptRounds: number,
+  firmName: string,
 ): Promise<User> {
   const { invitation, user } = await findUsableInvitation(input.token);
+  await assertPasswordAllowed(input.password, [user.email, input.name, user.name, firmName]);
   const passwordHash = await bcrypt.hash(input.password, bcryptRounds);
   const sequelize = Invitation.sequelize!;
   return sequelize.transaction(async (transaction) => {

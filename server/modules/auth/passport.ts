@@ -6,6 +6,11 @@ import { User } from '../../db/models';
 /** A hash to compare against when the e-mail is unknown, so both paths take the same time. */
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', 10);
 
+interface SessionUser {
+  id: number;
+  epoch: number;
+}
+
 export type PassportInstance = InstanceType<typeof passportModule.Passport>;
 
 /** One passport instance per app, so tests can mount several apps side by side. */
@@ -24,12 +29,17 @@ export function createPassport(): PassportInstance {
       }
     }),
   );
-  passport.serializeUser((user, done) => done(null, (user as User).id));
-  passport.deserializeUser(async (id: number, done) => {
+  // A session holds the user's id and session epoch at sign-in; a password change or reset
+  // raises the epoch, which signs out every session made before it.
+  passport.serializeUser((user, done) => done(null, { id: (user as User).id, epoch: (user as User).sessionEpoch ?? 0 } satisfies SessionUser));
+  passport.deserializeUser(async (stored: SessionUser | number, done) => {
     try {
+      // Sessions made before epochs existed hold the bare id, which counts as epoch 0.
+      const { id, epoch } = typeof stored === 'number' ? { id: stored, epoch: 0 } : stored;
       const user = await User.findByPk(id);
-      // A disabled or removed user's existing sessions stop working at once.
-      done(null, user && !user.disabled && user.passwordHash ? user : false);
+      // A disabled or removed user's existing sessions stop working at once, and so do
+      // sessions from before the user's last password change.
+      done(null, user && !user.disabled && user.passwordHash && user.sessionEpoch === epoch ? user : false);
     } catch (err) {
       done(err);
     }

@@ -5,6 +5,7 @@ import type { User } from '../../db/models';
 import type { Mailer } from '../../mail/mailer';
 import { getFirm } from '../firm/firm.service';
 import { inviteUser, listUsers, updateUser } from './users.service';
+import { adminSendPasswordReset } from '../auth/passwords.service';
 
 export function usersRoutes(registry: RouteSpec[], deps: { mailer: Mailer; publicUrl: () => string }) {
   const routes = new ApiRoutes('/api', registry);
@@ -22,6 +23,16 @@ export function usersRoutes(registry: RouteSpec[], deps: { mailer: Mailer; publi
   });
   routes.add('patch', '/users/:id', ['admin'], validateBody(updateUserSchema), async (req, res) => {
     res.json(await updateUser(idParam(req.params.id, 'That user'), req.body, req.user as User));
+  });
+  // The user's password stays until they use the e-mailed link.
+  routes.add('post', '/users/:id/password-reset', ['admin'], async (req, res) => {
+    const firm = await getFirm();
+    const sent = await adminSendPasswordReset(idParam(req.params.id, 'That user'), req.user as User, {
+      mailer: deps.mailer,
+      publicUrl: deps.publicUrl(),
+      firmName: firm.name,
+    });
+    res.status(202).json(sent);
   });
   return routes.router;
 }

@@ -1,4 +1,4 @@
-import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { LoadingState } from '@/components/ui/states';
 import { useSession } from '@/features/auth/api/get-session';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
@@ -20,6 +20,11 @@ export function SignInRoute() {
   return (
     <AuthLayout title="Sign in" lead="Use the e-mail address your firm’s admin invited.">
       {session.isPending ? <LoadingState /> : <SignInForm onSignedIn={() => navigate(next, { replace: true })} />}
+      <p className="mt-4 text-sm text-ink-soft">
+        <Link to="/forgot-password" className="font-medium text-accent hover:underline">
+          Forgot password?
+        </Link>
+      </p>
     </AuthLayout>
   );
 }

@@ -1,7 +1,7 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { acceptInvitationSchema, type InvitationView, type SessionView } from '@shared/schemas/auth.schema';
+import { acceptInvitationSchema, PASSWORD_MIN_LENGTH, type InvitationView, type SessionView } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
 import { FormError, TextField } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
@@ -56,7 +56,7 @@ export function AcceptInvitationForm({ token, invitation, onAccepted }: AcceptIn
           label="Password"
           type="password"
           autoComplete="new-password"
-          hint="At least 10 characters."
+          hint={`At least ${PASSWORD_MIN_LENGTH} characters and hard to guess: a phrase of four or more unrelated words works well.`}
           error={errors.password?.message}
           {...register('password')}
         />

@@ -8,6 +8,7 @@ import { formatDate } from '@/lib/format';
 import { notify } from '@/lib/notices';
 import { ROLE_LABELS } from '@/lib/permissions';
 import { useUpdateUser } from '../api/update-user';
+import { useSendPasswordReset } from '../api/send-password-reset';
 
 const column = createColumnHelper<UserView>();
 
@@ -15,6 +16,8 @@ const column = createColumnHelper<UserView>();
 export function UsersTable({ users, currentUserId, filter }: { users: UserView[]; currentUserId: number; filter?: string }) {
   const update = useUpdateUser();
   const pendingId = update.isPending ? update.variables?.id : undefined;
+  const sendReset = useSendPasswordReset();
+  const sendingResetId = sendReset.isPending ? sendReset.variables?.id : undefined;
 
   const columns = useMemo(
     () => [
@@ -77,11 +80,28 @@ export function UsersTable({ users, currentUserId, filter }: { users: UserView[]
       column.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
-        meta: { align: 'right', width: 'w-28' },
+        meta: { align: 'right', width: 'w-64' },
         cell: ({ row }) => {
           const user = row.original;
           if (user.id === currentUserId) return null;
           return (
+            <span className="inline-flex items-center gap-2">
+            {!user.disabled && !user.pending && (
+              <Button
+                size="sm"
+                variant="quiet"
+                busy={sendingResetId === user.id}
+                title="E-mail a one-time link to choose a new password; their password stays until they use it."
+                onClick={() =>
+                  sendReset.mutate(
+                    { id: user.id },
+                    { onSuccess: (sent) => notify('success', `A reset link is on its way to ${sent.email}; it works once within the hour.`) },
+                  )
+                }
+              >
+                Send reset link
+              </Button>
+            )}
             <Button
               size="sm"
               variant={user.disabled ? 'secondary' : 'danger'}
@@ -98,11 +118,12 @@ export function UsersTable({ users, currentUserId, filter }: { users: UserView[]
             >
               {user.disabled ? 'Enable' : 'Disable'}
             </Button>
+            </span>
           );
         },
       }),
     ],
-    [currentUserId, pendingId, update],
+    [currentUserId, pendingId, update, sendReset, sendingResetId],
   );
 
   return (
