@@ -58,7 +58,7 @@ describe('module directions', () => {
       { baseDir: root, fileExtensions: ['ts', 'tsx'], tsConfig: path.join(root, 'tsconfig.json') },
     );
     graph = g.obj();
-  });
+  }, 180_000); // madge parses the whole repository; slow on a loaded machine
 
   it('the graph follows the @/ and @shared/ aliases (else the rules would see no edge)', () => {
     expect(graph['src/app/routes/sheet.tsx']).toContain('src/features/records/api/get-archive.ts');
