@@ -9,7 +9,8 @@
  *   GET /api/projects, GET /api/trusses/:id/model, GET /api/archive
  * each alone and again while two writers (two other engineers' sessions) save their trusses'
  * models back to back (GET the model, PUT it with its version). Prints req/s, p50, p97.5, p99
- * and max latency, non-2xx answers, and the writers' saves per second and failures.
+ * and max latency, non-2xx answers, the main thread's CPU time per request, and the writers'
+ * saves per second and failures.
  * Asserts nothing. Usage: npm run bench:api [-- seconds]   (default 8)
  */
 import fs from 'node:fs';
@@ -146,6 +147,17 @@ async function load(url: string, cookie: string, seconds: number) {
 
 const fmt = (n: number, w = 8) => String(Math.round(n)).padStart(w);
 
+/**
+ * CPU time of the server's main thread so far, ms (Linux: /proc/self/task/<pid>/stat, utime +
+ * stime in clock ticks of 10 ms). On a shared machine latencies swing with the load; the main
+ * thread's CPU time per request does not, so it is the figure to compare before and after.
+ */
+function mainThreadCpuMs(): number {
+  const stat = fs.readFileSync(`/proc/self/task/${process.pid}/stat`, 'utf8');
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  return (Number(fields[11]) + Number(fields[12])) * 10;
+}
+
 async function main() {
   const dir = tempDataDir();
   const config = { ...loadConfig({ NODE_ENV: 'test' }), ...dir, bcryptRounds: 4, publicUrl: 'http://127.0.0.1', uploadsDir: fs.mkdtempSync(`${os.tmpdir()}/panelpoint-bench-uploads-`), seedDemo: true };
@@ -169,22 +181,24 @@ async function main() {
       console.log(`${url.replace(base, '')}: ${probe.status}, ${bytes} bytes${probe.headers.get('content-encoding') ? ` (${probe.headers.get('content-encoding')})` : ''}`);
     }
     console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, SQLite file (WAL); ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
-    console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}  saves/s (failed)`);
+    console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}${'cpu ms/req'.padStart(11)}  saves/s (failed)`);
     for (const [name, url] of targets) {
       await load(url, engineer.cookie, 2); // warm-up
       for (const withWriters of [false, true]) {
         const w = withWriters ? writers.map((s, i) => writer(base, s, writerTrusses[i])) : [];
+        const cpu0 = mainThreadCpuMs();
         const r = await load(url, engineer.cookie, DURATION);
+        const cpuPerRequest = (mainThreadCpuMs() - cpu0) / Math.max(1, r.requests.total);
         await Promise.all(w.map((x) => x.stop()));
         const saves = w.reduce((s, x) => s + x.tally.saves, 0);
         const failed = w.reduce((s, x) => s + x.tally.failed, 0);
         const statuses = w.flatMap((x) => [...x.tally.statuses.entries()].map(([k, v]) => `${v}×${k}`)).join(' ');
         console.log(
-          `${name.padEnd(28)}${String(w.length).padStart(8)}${fmt(r.requests.average)}${fmt(r.latency.p50)}${fmt(r.latency.p97_5)}${fmt(r.latency.p99)}${fmt(r.latency.max)}${String(r.non2xx + r.errors).padStart(9)}  ${withWriters ? `${(saves / DURATION).toFixed(1)} (${failed}${statuses ? `: ${statuses}` : ''})` : ''}`,
+          `${name.padEnd(28)}${String(w.length).padStart(8)}${fmt(r.requests.average)}${fmt(r.latency.p50)}${fmt(r.latency.p97_5)}${fmt(r.latency.p99)}${fmt(r.latency.max)}${String(r.non2xx + r.errors).padStart(9)}${cpuPerRequest.toFixed(2).padStart(11)}  ${withWriters ? `${(saves / DURATION).toFixed(1)} (${failed}${statuses ? `: ${statuses}` : ''})` : ''}`,
         );
       }
     }
-    console.log('latencies in ms');
+    console.log('latencies in ms; cpu ms/req: CPU time of the server\'s main thread per request answered (with writers, their saves included)');
   } finally {
     server.close();
     await services.shutdown();

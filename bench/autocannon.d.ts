@@ -8,7 +8,7 @@ declare module 'autocannon' {
     max: number;
   }
   interface Result {
-    requests: Histogram;
+    requests: Histogram & { total: number };
     latency: Histogram;
     non2xx: number;
     errors: number;
