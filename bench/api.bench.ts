@@ -160,7 +160,7 @@ function mainThreadCpuMs(): number {
 
 async function main() {
   const dir = tempDataDir();
-  const config = { ...loadConfig({ NODE_ENV: 'test' }), ...dir, bcryptRounds: 4, publicUrl: 'http://127.0.0.1', uploadsDir: fs.mkdtempSync(`${os.tmpdir()}/panelpoint-bench-uploads-`), seedDemo: true };
+  const config = { ...loadConfig({ NODE_ENV: 'test' }), ...dir, bcryptRounds: 4, publicUrl: 'http://127.0.0.1', uploadsDir: fs.mkdtempSync(`${os.tmpdir()}/panelpoint-bench-uploads-`), seedDemo: true, sourceMaps: process.env.SOURCE_MAPS === 'true' };
   const services = await startServices(config, { log: () => {} });
   const server = services.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
@@ -180,7 +180,7 @@ async function main() {
       const bytes = (await probe.arrayBuffer()).byteLength;
       console.log(`${url.replace(base, '')}: ${probe.status}, ${bytes} bytes${probe.headers.get('content-encoding') ? ` (${probe.headers.get('content-encoding')})` : ''}`);
     }
-    console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, SQLite file (WAL); ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+    console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, SQLite file (WAL), source maps ${config.sourceMaps ? 'on' : 'off (the production default)'}; ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
     console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}${'cpu ms/req'.padStart(11)}  saves/s (failed)`);
     for (const [name, url] of targets) {
       await load(url, engineer.cookie, 2); // warm-up

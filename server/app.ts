@@ -99,6 +99,14 @@ export function createApp(deps: AppDeps): CreatedApp {
   // express-session touches the stored row on every request it does not save; the expiry is
   // moved on by extendSignedInSession below instead, at most every few minutes.
   (store as unknown as { touch: (sid: string, sess: unknown, cb?: () => void) => void }).touch = (_sid, _sess, cb) => cb?.();
+  // Every request reads its session: one raw row (the data column only) instead of a model
+  // instance with its getters (bench:api, main-thread CPU per request).
+  const sessionModel = (store as unknown as { sessionModel: import('sequelize').ModelStatic<import('sequelize').Model> }).sessionModel;
+  (store as unknown as { get: (sid: string, cb: (err: unknown, s?: unknown) => void) => void }).get = (sid, cb) => {
+    sessionModel
+      .findOne({ where: { sid }, attributes: ['data'], raw: true })
+      .then((row) => cb(null, row ? JSON.parse((row as unknown as { data: string }).data) : null), (err) => cb(err));
+  };
   const secure = overHttps;
   app.use(
     '/api',
