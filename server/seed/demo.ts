@@ -4,7 +4,7 @@ import crypto from 'node:crypto';
 import { Firm, Project, Truss, User } from '../db/models';
 import type { FileStore } from '../storage/file-store';
 import { uploadDrawing } from '../modules/drawings/drawings.service';
-import { importInline } from '../modules/drawings/import-pool';
+import { importInline } from '../modules/drawings/import-read';
 import { demoTrussDxf } from './demo-drawing';
 
 /** Demo password shared by the four demo accounts. For local use only. */

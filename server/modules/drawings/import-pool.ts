@@ -1,6 +1,5 @@
 import { Worker } from 'node:worker_threads';
 import type { DxfExplodeLimits, DxfImportOptions, DxfLayerInfo } from '@shared/dxf-import';
-import { readDrawingJob } from './import-read';
 
 /**
  * A drawing to read in a worker: the file's bytes, the import options, the caps, and whether
@@ -174,15 +173,3 @@ export function importPoolCreate(options: { size?: number; memoryMb?: number } =
   };
 }
 
-/**
- * Reads drawings on the calling thread, without a time limit: only for drawings Panelpoint
- * wrote itself (the demo drawing seeded at start, before the app and its workers exist).
- */
-export function importInline(): ImportPool {
-  let nextId = 1;
-  return {
-    read: async (job) => readDrawingJob({ ...job, jobId: nextId++ }),
-    pending: () => 0,
-    close: async () => {},
-  };
-}

@@ -1,5 +1,5 @@
 import { dxfImport, dxfLayers, dxfParseBytes, isDxfImportError, type DxfLayerInfo, type DxfParsed } from '@shared/dxf-import';
-import type { ImportJob, ImportReply } from './import-pool';
+import type { ImportJob, ImportPool, ImportReply } from './import-pool';
 
 const errorOf = (err: { code: string; message: string }) => ({ code: err.code, message: err.message });
 
@@ -25,4 +25,17 @@ export function readDrawingJob(job: ImportJob): Exclude<ImportReply, { type: 'st
   } catch (err) {
     return { jobId, type: 'crashed', message: err instanceof Error ? err.message : String(err) };
   }
+}
+
+/**
+ * Reads drawings on the calling thread, without a time limit: only for drawings Panelpoint
+ * wrote itself (the demo drawing seeded at start, before the app and its workers exist).
+ */
+export function importInline(): ImportPool {
+  let nextId = 1;
+  return {
+    read: async (job) => readDrawingJob({ ...job, jobId: nextId++ }),
+    pending: () => 0,
+    close: async () => {},
+  };
 }
