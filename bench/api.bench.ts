@@ -67,15 +67,21 @@ async function seed(base: string, engineer: Session, drafter: Session): Promise<
   // The archive: issued revisions straight into the table (printing 40 sheets is bench:sheet's job).
   for (let i = 0; i < 40; i++) {
     const truss = trusses[5 + i];
-    await SheetRevision.create({
+    // Inserted as a draft and then moved to issued, as the database's guards require.
+    const row = await SheetRevision.create({
       trussId: truss.id,
       runId: 1,
       number: 1,
-      status: 'issued',
+      status: 'draft',
       preparedById: eng!.id,
+      preparedByName: 'Eli Marsh',
+      lastActorId: eng!.id,
+      lastNote: '',
+    } as never);
+    await row.update({
+      status: 'issued',
       checkedById: eng!.id,
       issuedById: eng!.id,
-      preparedByName: 'Eli Marsh',
       checkedByName: 'Rosa Quint',
       issuedByName: 'Eli Marsh',
       submittedAt: new Date(),
@@ -83,12 +89,10 @@ async function seed(base: string, engineer: Session, drafter: Session): Promise<
       issuedAt: new Date(Date.now() - i * 3600_000),
       pdfStoredName: `bench-${i}.pdf`,
       pdfSize: 120_000 + i,
-      sha256: (i.toString(16).padStart(2, '0')).repeat(32),
+      sha256: i.toString(16).padStart(2, '0').repeat(32),
       signedRecord: '{}',
       signature: 'ab'.repeat(32),
       keyFingerprint: 'cd'.repeat(32),
-      lastActorId: eng!.id,
-      lastNote: '',
     } as never);
   }
   const writerTrusses: [number, number] = [trusses[1].id, trusses[2].id];
