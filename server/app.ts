@@ -22,6 +22,7 @@ import { modelsRoutes } from './modules/models/models.routes';
 import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
+import { importPoolCreate } from './modules/drawings/import-pool';
 import { localFileStore } from './storage/file-store';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
@@ -59,7 +60,7 @@ export interface CreatedApp {
   app: Express;
   /** Every API route with who may call it. */
   routes: RouteSpec[];
-  /** Stops the session sweeper, the solver workers and the sheet printer's browser. */
+  /** Stops the session sweeper, the solver and import workers and the sheet printer's browser. */
   close(): Promise<void>;
 }
 
@@ -98,6 +99,14 @@ export function createApp(deps: AppDeps): CreatedApp {
   // express-session touches the stored row on every request it does not save; the expiry is
   // moved on by extendSignedInSession below instead, at most every few minutes.
   (store as unknown as { touch: (sid: string, sess: unknown, cb?: () => void) => void }).touch = (_sid, _sess, cb) => cb?.();
+  // Every request reads its session: one raw row (the data column only) instead of a model
+  // instance with its getters (bench:api, main-thread CPU per request).
+  const sessionModel = (store as unknown as { sessionModel: import('sequelize').ModelStatic<import('sequelize').Model> }).sessionModel;
+  (store as unknown as { get: (sid: string, cb: (err: unknown, s?: unknown) => void) => void }).get = (sid, cb) => {
+    sessionModel
+      .findOne({ where: { sid }, attributes: ['data'], raw: true })
+      .then((row) => cb(null, row ? JSON.parse((row as unknown as { data: string }).data) : null), (err) => cb(err));
+  };
   const secure = overHttps;
   app.use(
     '/api',
@@ -130,7 +139,10 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', outboxRoutes(registry));
   app.use('/api', projectsRoutes(registry));
   const uploads = localFileStore(config.uploadsDir);
-  app.use('/api', drawingsRoutes(registry, { store: uploads, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
+  // Drawings are parsed and imported in a worker thread with a time limit, so a hostile file
+  // cannot hold the main thread (and everyone's requests) while it explodes.
+  const importPool = importPoolCreate({ size: config.importWorkers, memoryMb: config.importMemoryMb });
+  app.use('/api', drawingsRoutes(registry, { store: uploads, pool: importPool, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
   app.use('/api', modelsRoutes(registry));
   app.use('/api', takeoffRoutes(registry));
   const solvePool = solvePoolCreate();
@@ -167,6 +179,7 @@ export function createApp(deps: AppDeps): CreatedApp {
     async close() {
       (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
       await solvePool.close();
+      await importPool.close();
       if (!deps.printer) await printer.close();
     },
   };

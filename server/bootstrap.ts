@@ -65,6 +65,8 @@ export async function startServices(config: Config, options: { clientDir?: strin
   if (config.env === 'production' && !config.publicUrl) {
     say('Warning: PUBLIC_URL is not set, so links in e-mails (invitations, review notices) point at http://localhost. Set PUBLIC_URL to the address people use, e.g. https://panelpoint.example.com.');
   }
+  // tsx turns source maps on; production turns them off again (see SOURCE_MAPS in config.ts).
+  process.setSourceMapsEnabled(config.sourceMaps);
   const sequelize = await openDatabase(config.databaseStorage);
   await migrate(sequelize);
   initModels(sequelize);

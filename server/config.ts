@@ -29,6 +29,16 @@ const envSchema = z.object({
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
   CHROMIUM_PATH: z.string().default('/usr/bin/chromium'),
   MAX_UPLOAD_MB: z.coerce.number().positive().default(20),
+  /** Worker threads that read drawings (1 or 2: the main thread keeps a core of its own). */
+  IMPORT_WORKERS: z.coerce.number().int().min(1).max(2).default(1),
+  /** Heap of each import worker, MB; a drawing needing more is refused with a sentence. */
+  IMPORT_MEMORY_MB: z.coerce.number().int().min(128).max(8192).default(1536),
+  /**
+   * TypeScript line numbers in stack traces (default: outside production only). Costly: the
+   * SQLite driver reads a stack trace on every query, and with source maps on that read maps
+   * every frame (a fifth of the server's CPU time under load, measured with bench:api).
+   */
+  SOURCE_MAPS: z.enum(['true', 'false']).optional(),
 });
 
 export interface Config {
@@ -52,6 +62,10 @@ export interface Config {
   bcryptRounds: number;
   chromiumPath: string;
   maxUploadBytes: number;
+  importWorkers: number;
+  importMemoryMb: number;
+  /** Map stack traces to the TypeScript sources (process.setSourceMapsEnabled). */
+  sourceMaps: boolean;
 }
 
 /** Reads the environment once at start-up; a bad value stops the server with a clear line. */
@@ -84,6 +98,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     bcryptRounds: e.BCRYPT_ROUNDS,
     chromiumPath: e.CHROMIUM_PATH,
     maxUploadBytes: Math.round(e.MAX_UPLOAD_MB * 1024 * 1024),
+    importWorkers: e.IMPORT_WORKERS,
+    importMemoryMb: e.IMPORT_MEMORY_MB,
+    sourceMaps: e.SOURCE_MAPS ? e.SOURCE_MAPS === 'true' : e.NODE_ENV !== 'production',
   };
 }
 

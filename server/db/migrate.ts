@@ -7,6 +7,7 @@ import * as m0004 from './migrations/0004-sheet-revisions';
 import * as m0005 from './migrations/0005-password-resets';
 import * as m0006 from './migrations/0006-signin-limits';
 import * as m0007 from './migrations/0007-signing-keys-and-record-guards';
+import * as m0008 from './migrations/0008-import-limits';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
@@ -17,6 +18,7 @@ const MIGRATIONS = [
   { name: '0005-password-resets', ...m0005 },
   { name: '0006-signin-limits', ...m0006 },
   { name: '0007-signing-keys-and-record-guards', ...m0007 },
+  { name: '0008-import-limits', ...m0008 },
 ];
 
 export async function migrate(sequelize: Sequelize): Promise<void> {

@@ -58,6 +58,17 @@ export class Firm extends Model<InferAttributes<Firm>, InferCreationAttributes<F
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** The firm's caps on reading a drawing (migration 0008); one row, id 1. */
+export class ImportLimitsRecord extends Model<InferAttributes<ImportLimitsRecord>, InferCreationAttributes<ImportLimitsRecord>> {
+  declare id: number;
+  declare maxSegments: number;
+  declare maxBlockDepth: number;
+  declare timeLimitSeconds: number;
+  declare updatedById: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
 export class Project extends Model<InferAttributes<Project>, InferCreationAttributes<Project>> {
   declare id: CreationOptional<number>;
   declare name: string;
@@ -306,6 +317,7 @@ export function initModels(sequelize: Sequelize): void {
 
   initSheetModels(sequelize);
   initRunModels(sequelize);
+  initImportLimitsModel(sequelize);
 }
 
 function initSheetModels(sequelize: Sequelize): void {
@@ -420,5 +432,20 @@ function initRunModels(sequelize: Sequelize): void {
       ...timestamps,
     },
     { sequelize, tableName: 'analysis_runs' },
+  );
+}
+
+function initImportLimitsModel(sequelize: Sequelize): void {
+  ImportLimitsRecord.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true },
+      maxSegments: { type: DataTypes.INTEGER, allowNull: false },
+      maxBlockDepth: { type: DataTypes.INTEGER, allowNull: false },
+      timeLimitSeconds: { type: DataTypes.INTEGER, allowNull: false },
+      updatedById: { type: DataTypes.INTEGER, allowNull: true },
+      createdAt: { type: DataTypes.DATE, allowNull: false },
+      updatedAt: { type: DataTypes.DATE, allowNull: false },
+    },
+    { sequelize, tableName: 'import_limits' },
   );
 }

@@ -4,6 +4,7 @@ import crypto from 'node:crypto';
 import { Firm, Project, Truss, User } from '../db/models';
 import type { FileStore } from '../storage/file-store';
 import { uploadDrawing } from '../modules/drawings/drawings.service';
+import { importInline } from '../modules/drawings/import-read';
 import { demoTrussDxf } from './demo-drawing';
 
 /** Demo password shared by the four demo accounts. For local use only. */
@@ -51,7 +52,8 @@ export async function seedDemo(bcryptRounds: number, uploads: FileStore): Promis
   await uploads.write(storedName, bytes);
   await uploadDrawing(
     { trussId: t1.id, file: { storedName, originalName: 'KL-T1-roof-truss.dxf', size: bytes.length }, fields: { layers: '["CHORDS","WEBS"]' }, userId: drafter.id },
-    uploads,
+    // Our own drawing: read on this thread, before the app's import workers exist.
+    { store: uploads, pool: importInline() },
   );
   return true;
 }

@@ -80,12 +80,29 @@ export interface ExplodeSink {
   ignored(type: string, reason: string, layer: string, x: number | null, y: number | null): void;
 }
 
-const MAX_BLOCK_DEPTH = 32;
+/** Deepest nesting of blocks inside blocks taken by default; a safety limit, no source. */
+export const MAX_BLOCK_DEPTH = 32;
 /**
- * Most line segments a drawing may explode into (blocks inside blocks multiply quickly: a
- * 2.8 kB file can describe a million). Far above any truss drawing; a safety limit, no source.
+ * Most line segments a drawing may explode into by default (blocks inside blocks multiply
+ * quickly: a 2.8 kB file can describe a million). Far above any truss drawing; a safety
+ * limit, no source.
  */
 export const MAX_EXPLODED_SEGMENTS = 200_000;
+
+/**
+ * The caps {@link explodeDrawing} enforces. The server takes them from the firm's settings
+ * (an admin may raise them) and says where in `howToRaise`, which the refusal names.
+ */
+export interface DxfExplodeLimits {
+  /** Most line segments the exploded drawing may hold. */
+  maxSegments: number;
+  /** Deepest nesting of blocks inside blocks. */
+  maxBlockDepth: number;
+  /** How a person raises the caps, as the end of a sentence ("ask an admin to …"); none: not said. */
+  howToRaise?: string;
+}
+
+export const DXF_DEFAULT_LIMITS: DxfExplodeLimits = { maxSegments: MAX_EXPLODED_SEGMENTS, maxBlockDepth: MAX_BLOCK_DEPTH };
 
 /**
  * How many segments exploding the model space would give, counted over the block graph
@@ -93,7 +110,7 @@ export const MAX_EXPLODED_SEGMENTS = 200_000;
  * a drawing that would blow up memory is refused while it is still a few kilobytes. Stops
  * counting past `cap`. Self-reference and nesting depth are reported by the walk itself.
  */
-function explosionSize(dxf: IDxf, cap: number): number {
+function explosionSize(dxf: IDxf, cap: number, maxDepth: number): number {
   const blocks: Record<string, IBlock> = dxf.blocks ?? {};
   const memo = new Map<string, number>();
   const visiting = new Set<string>();
@@ -106,7 +123,7 @@ function explosionSize(dxf: IDxf, cap: number): number {
       else if (e.type === 'LWPOLYLINE' || e.type === 'POLYLINE') n += Array.isArray(e.vertices) ? e.vertices.length : 0;
       else if (e.type === 'INSERT') {
         const name = typeof e.name === 'string' ? e.name : '';
-        if (!blocks[name] || visiting.has(name) || depth >= MAX_BLOCK_DEPTH) continue; // the walk names these
+        if (!blocks[name] || visiting.has(name) || depth >= maxDepth) continue; // the walk names these
         let inner = memo.get(name);
         if (inner === undefined) {
           visiting.add(name);
@@ -173,17 +190,21 @@ export function mtextPlain(s: string): string {
  * reported as ignored. Entities on layer "0" inside a block take the layer of the INSERT that
  * places them (DXF convention, from memory).
  *
- * @throws DxfImportError 'block-problem' for a block that contains itself or nests deeper than 32;
- *   'drawing-too-large' when it would explode into more than `maxSegments` segments.
+ * @throws DxfImportError 'block-problem' for a block that contains itself or nests deeper than
+ *   `limits.maxBlockDepth` (default 32); 'drawing-too-large' when it would explode into more
+ *   than `limits.maxSegments` segments (default 200 000).
  */
-export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, maxSegments = MAX_EXPLODED_SEGMENTS): void {
+export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, limits: Partial<DxfExplodeLimits> = {}): void {
   const blocks: Record<string, IBlock> = dxf.blocks ?? {};
   const stack: string[] = [];
-  const size = explosionSize(dxf, maxSegments);
+  const maxSegments = limits.maxSegments ?? MAX_EXPLODED_SEGMENTS;
+  const maxDepth = limits.maxBlockDepth ?? MAX_BLOCK_DEPTH;
+  const orRaise = limits.howToRaise ? `, or ${limits.howToRaise}` : '';
+  const size = explosionSize(dxf, maxSegments, maxDepth);
   if (size > maxSegments) {
     throw new DxfImportError(
       'drawing-too-large',
-      `This drawing explodes into more than ${maxSegments.toLocaleString('en-US')} line segments (blocks inserted inside blocks); Panelpoint takes at most that many. Upload a drawing of the one truss, with its blocks exploded.`,
+      `This drawing explodes into more than ${maxSegments.toLocaleString('en-US')} line segments (blocks inserted inside blocks), the most Panelpoint takes; upload a drawing of the one truss with its blocks exploded${orRaise}.`,
     );
   }
 
@@ -307,8 +328,8 @@ export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, maxSe
     if (stack.includes(name)) {
       throw new DxfImportError('block-problem', `Block "${name}" contains a reference to itself (through ${[...stack, name].join(' → ')}). Fix the block in your CAD program and upload again.`);
     }
-    if (stack.length >= MAX_BLOCK_DEPTH) {
-      throw new DxfImportError('block-problem', `Blocks are nested more than ${MAX_BLOCK_DEPTH} deep at block "${name}". Explode some of them in your CAD program and upload again.`);
+    if (stack.length >= maxDepth) {
+      throw new DxfImportError('block-problem', `Blocks are nested more than ${maxDepth} deep at block "${name}", the most Panelpoint takes; explode some of them in your CAD program and upload again${orRaise}.`);
     }
     const sx = num(e.xScale, 1);
     const sy = num(e.yScale, 1);

@@ -1,7 +1,7 @@
 import type { IDxf } from 'dxf-parser';
 import type { Joint } from '@shared/model/truss';
 import { DxfImportError } from './errors';
-import { describeEntity, explodeDrawing, type ExplodedText } from './explode';
+import { describeEntity, explodeDrawing, type DxfExplodeLimits, type ExplodedText } from './explode';
 import { healSegments, quickMedian, type HealResult } from './heal';
 import { dxfOf, LayerTally } from './layers';
 import { sortIndicesByInt } from './sort';
@@ -272,7 +272,7 @@ export function dxfModelOf(geometry: DxfGeometry): { joints: Joint[]; members: D
  *   origin), 'tolerance-too-large' (tolerance over half the typical member length),
  *   'block-problem' (self-referencing or too deeply nested blocks).
  */
-export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfGeometryResult {
+export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}, limits: Partial<DxfExplodeLimits> = {}): DxfGeometryResult {
   const opt = dxfImportOptionsSchema.safeParse(options ?? {});
   if (!opt.success) {
     const first = opt.error.issues[0];
@@ -375,7 +375,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     ignored(type, reason, layer, x, y) {
       ignore(type, reason, layer, x, y);
     },
-  });
+  }, limits);
   for (const [type, perLayer] of Object.entries(unread)) {
     for (const [layer, n] of Object.entries(perLayer)) {
       for (let i = 0; i < n; i++) ignore(type, 'not read by the DXF reader', layer, null, null);
@@ -672,7 +672,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
  * {@link dxfImportGeometry} with the geometry as the truss model's objects: joints
  * { id, tag, x, y } and members { id, tag, from, to, layer }, the form stored and shown.
  */
-export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}): DxfImportResult {
-  const { geometry, ...rest } = dxfImportGeometry(parsed, options);
+export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}, limits: Partial<DxfExplodeLimits> = {}): DxfImportResult {
+  const { geometry, ...rest } = dxfImportGeometry(parsed, options, limits);
   return { ...dxfModelOf(geometry), ...rest };
 }

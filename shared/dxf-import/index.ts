@@ -14,6 +14,8 @@ export type { DxfImportErrorCode } from './errors';
 export { dxfSniff, dxfDecode, dxfParse, dxfParseBytes, dxfAssertKind } from './parse';
 export type { DxfFileKind } from './parse';
 export { dxfLayers } from './layers';
+export { DXF_DEFAULT_LIMITS, MAX_BLOCK_DEPTH, MAX_EXPLODED_SEGMENTS } from './explode';
+export type { DxfExplodeLimits } from './explode';
 export { tagOfIndex, jointTagsInOrder } from './tags';
 export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf } from './import';
 export { dxfLengthUnitSchema, dxfImportOptionsSchema, DXF_REPORT_MAX_LOCATIONS } from './types';

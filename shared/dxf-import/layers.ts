@@ -1,5 +1,5 @@
 import type { IDxf } from 'dxf-parser';
-import { AFFINE_IDENTITY, explodeDrawing } from './explode';
+import { AFFINE_IDENTITY, explodeDrawing, type DxfExplodeLimits } from './explode';
 import type { DxfLayerInfo, DxfParsed } from './types';
 
 /** Accepts our wrapper or dxf-parser's bare object. */
@@ -71,9 +71,10 @@ export class LayerTally {
  * counts six LINEs), the number of straight segments it holds, and whether it is a default
  * member layer. Sorted by name. Entities dxf-parser cannot read (HATCH, …) are counted from
  * the file's text. Pure; never throws for a drawing {@link dxfParse} accepted, except
- * DxfImportError 'block-problem' for self-referencing blocks.
+ * DxfImportError 'block-problem' for self-referencing or too deeply nested blocks and
+ * 'drawing-too-large' past `limits.maxSegments` (see {@link explodeDrawing}).
  */
-export function dxfLayers(parsed: DxfParsed | IDxf): DxfLayerInfo[] {
+export function dxfLayers(parsed: DxfParsed | IDxf, limits: Partial<DxfExplodeLimits> = {}): DxfLayerInfo[] {
   const { dxf, unread } = dxfOf(parsed);
   const tally = new LayerTally(dxf);
   explodeDrawing(dxf, AFFINE_IDENTITY, {
@@ -85,6 +86,6 @@ export function dxfLayers(parsed: DxfParsed | IDxf): DxfLayerInfo[] {
       tally.entity(type, layer);
     },
     ignored() {},
-  });
+  }, limits);
   return tally.finish(unread);
 }

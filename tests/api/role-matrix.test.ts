@@ -28,6 +28,8 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/outbox': ['admin'],
   'GET /api/firm': ALL,
   'PUT /api/firm': ['admin'],
+  'GET /api/firm/import-limits': ALL,
+  'PUT /api/firm/import-limits': ['admin'],
   'GET /api/projects': ALL,
   'POST /api/projects': ['engineer', 'admin'],
   'GET /api/projects/:id': ALL,

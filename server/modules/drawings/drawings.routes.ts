@@ -6,10 +6,11 @@ import { AppError } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
 import { privateDiskStorage } from '../../storage/private-disk-storage';
 import * as drawings from './drawings.service';
+import type { ImportPool } from './import-pool';
 
 const UPLOADERS = ['drafter', 'engineer'] as const;
 
-export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; uploadsDir: string; maxUploadBytes: number }) {
+export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; pool: ImportPool; uploadsDir: string; maxUploadBytes: number }) {
   const routes = new ApiRoutes('/api', registry);
   const upload = multer({
     // Generated names only (the user's file name is kept in the database, never on disk),
@@ -32,7 +33,7 @@ export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; 
         fields: req.body ?? {},
         userId: req.user!.id,
       },
-      deps.store,
+      deps,
     );
     res.status(201).json(view);
   });
@@ -40,7 +41,7 @@ export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; 
     res.json(await drawings.getDrawing(idParam(req.params.id, 'That drawing')));
   });
   routes.add('post', '/drawings/:id/reimport', UPLOADERS, validateBody(reimportSchema), async (req, res) => {
-    res.json(await drawings.reimportDrawing(idParam(req.params.id, 'That drawing'), req.body, req.user!.id, deps.store));
+    res.json(await drawings.reimportDrawing(idParam(req.params.id, 'That drawing'), req.body, req.user!.id, deps));
   });
   routes.add('get', '/drawings/:id/file', ANY_ROLE, async (req, res) => {
     const { bytes, name } = await drawings.getDrawingFile(idParam(req.params.id, 'That drawing'), deps.store);

@@ -1,13 +1,5 @@
 import crypto from 'node:crypto';
-import {
-  dxfImport,
-  dxfLayers,
-  dxfParseBytes,
-  isDxfImportError,
-  type DxfImportOptions,
-  type DxfImportResult,
-  type DxfParsed,
-} from '@shared/dxf-import';
+import type { DxfImportOptions, DxfImportResult, DxfLayerInfo } from '@shared/dxf-import';
 import { drawingImportOptionsSchema, type DrawingSummaryView, type DrawingView } from '@shared/schemas/drawing.schema';
 import { modelRebase } from '@shared/model/rebase';
 import type { TrussModel } from '@shared/model/truss';
@@ -16,6 +8,8 @@ import { validationError } from '../../middleware/error-handler';
 import { Drawing, TrussModelRecord, User } from '../../db/models';
 import type { FileStore } from '../../storage/file-store';
 import { getTruss } from '../projects/projects.service';
+import { getImportLimits } from '../firm/import-limits.service';
+import { ImportPoolClosedError, type ImportOutcome, type ImportPool } from './import-pool';
 
 export interface UploadedFile {
   storedName: string;
@@ -44,8 +38,6 @@ export function parseUploadOptions(fields: Record<string, unknown>): DxfImportOp
   return parsed.data;
 }
 
-type ImportOutcome = { status: 'imported'; result: DxfImportResult } | { status: 'failed'; error: { code: string; message: string } };
-
 /**
  * Import failures that other import options can fix (units, layers, tolerance) keep the upload
  * as a failed version to re-import; a fault in the drawing itself (a block inside itself, too
@@ -53,39 +45,74 @@ type ImportOutcome = { status: 'imported'; result: DxfImportResult } | { status:
  */
 const FIXED_BY_OPTIONS = new Set<string>(['units-required', 'unknown-layer', 'no-lines', 'tolerance-too-large', 'bad-option']);
 
-function runImport(parsed: DxfParsed, options: DxfImportOptions): ImportOutcome {
+/** Where the refusals of a capped drawing tell people to go (the firm settings page). */
+export const RAISE_LIMIT_HINT = 'ask an admin to raise the limit in Firm settings';
+
+export interface DrawingDeps {
+  store: FileStore;
+  pool: ImportPool;
+}
+
+type ImportRead =
+  | { status: 'imported'; layers: DxfLayerInfo[] | null; result: DxfImportResult; resultJson: string }
+  | { status: 'failed'; layers: DxfLayerInfo[] | null; error: { code: string; message: string } };
+
+/**
+ * Parses and imports the bytes in an import worker, under the firm's caps and time limit, and
+ * turns every way that can end into a stored outcome or one 422 sentence. The main thread only
+ * waits, so other people's requests keep being answered while a large drawing is read.
+ */
+async function readInWorker(bytes: Buffer, options: DxfImportOptions, listLayers: boolean, pool: ImportPool): Promise<ImportRead> {
+  const limits = await getImportLimits();
+  // A copy of its own: the buffer is handed over to the worker, never shared.
+  const own = new Uint8Array(bytes);
+  let outcome: ImportOutcome;
   try {
-    return { status: 'imported', result: dxfImport(parsed, options) };
+    outcome = await pool.read(
+      { bytes: own, options, listLayers, limits: { maxSegments: limits.maxSegments, maxBlockDepth: limits.maxBlockDepth, howToRaise: RAISE_LIMIT_HINT } },
+      limits.timeLimitSeconds * 1000,
+    );
   } catch (err) {
-    if (isDxfImportError(err)) {
-      if (!FIXED_BY_OPTIONS.has(err.code)) throw new AppError(err.code, err.message, 422);
-      return { status: 'failed', error: { code: err.code, message: err.message } };
+    if (err instanceof ImportPoolClosedError) {
+      throw new AppError('server-stopping', 'The server is shutting down, so the drawing was not read and nothing was stored; upload it again in a minute.', 503);
     }
     throw err;
   }
-}
-
-/** Parses the bytes or refuses the file outright (not a DXF at all: nothing is stored). */
-function parseOrRefuse(bytes: Buffer): DxfParsed {
-  try {
-    return dxfParseBytes(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength));
-  } catch (err) {
-    if (isDxfImportError(err)) throw new AppError(err.code, err.message, 422);
-    throw err;
-  }
-}
-
-/**
- * Lists the drawing's layers for the layer picker. Listing explodes the blocks, so a drawing
- * whose blocks cannot be exploded (a block inside itself, nesting too deep, too many segments)
- * is refused here with the import's own sentence, and nothing is stored.
- */
-function listLayersOrRefuse(parsed: DxfParsed) {
-  try {
-    return dxfLayers(parsed);
-  } catch (err) {
-    if (isDxfImportError(err)) throw new AppError(err.code, err.message, 422);
-    throw err;
+  switch (outcome.type) {
+    case 'read':
+      if ('resultJson' in outcome.imported) {
+        const { resultJson } = outcome.imported;
+        return { status: 'imported', layers: outcome.layers, result: JSON.parse(resultJson) as DxfImportResult, resultJson };
+      }
+      if (!FIXED_BY_OPTIONS.has(outcome.imported.error.code)) throw new AppError(outcome.imported.error.code, outcome.imported.error.message, 422);
+      return { status: 'failed', layers: outcome.layers, error: outcome.imported.error };
+    case 'refused':
+      throw new AppError(outcome.error.code, outcome.error.message, 422);
+    case 'timed-out':
+      throw new AppError(
+        'drawing-too-slow',
+        `The drawing took longer than ${outcome.seconds} s to read, so it was stopped and nothing was stored; upload a drawing of the one truss with its blocks exploded, or ${RAISE_LIMIT_HINT} (the time limit).`,
+        422,
+      );
+    case 'out-of-memory':
+      throw new AppError(
+        'drawing-too-large',
+        `Reading the drawing needed more than ${outcome.megabytes} MB of memory, so it was stopped and nothing was stored; upload a drawing of the one truss with its blocks exploded, or lower the segment limit in Firm settings.`,
+        422,
+      );
+    case 'crashed':
+      // A defect in the import, not in the drawing: said plainly, and the file is not kept.
+      throw new AppError(
+        'import-crashed',
+        `Panelpoint could not read this drawing because of an error of its own (${outcome.message.slice(0, 200)}), and nothing was stored; send the file to your admin so it can be reported.`,
+        422,
+      );
+    case 'stopped':
+      throw new AppError(
+        'import-stopped',
+        `The drawing import stopped before finishing (${outcome.why.slice(0, 200)}) and nothing was stored; upload it again, and tell your admin if it keeps happening.`,
+        503,
+      );
   }
 }
 
@@ -96,16 +123,15 @@ function listLayersOrRefuse(parsed: DxfParsed) {
  */
 export async function uploadDrawing(
   input: { trussId: number; file: UploadedFile; fields: Record<string, unknown>; userId: number },
-  store: FileStore,
+  { store, pool }: DrawingDeps,
 ): Promise<DrawingView> {
   try {
     await getTruss(input.trussId);
     const options = parseUploadOptions(input.fields);
     const bytes = await store.read(input.file.storedName);
     const sha256 = crypto.createHash('sha256').update(bytes).digest('hex');
-    const parsed = parseOrRefuse(bytes);
-    const layers = listLayersOrRefuse(parsed);
-    const outcome = runImport(parsed, options);
+    const outcome = await readInWorker(bytes, options, true, pool);
+    const layers = outcome.layers ?? [];
 
     const sequelize = Drawing.sequelize!;
     const drawing = await sequelize.transaction(async (transaction) => {
@@ -121,7 +147,7 @@ export async function uploadDrawing(
           status: outcome.status,
           options: JSON.stringify(options),
           layers: JSON.stringify(layers),
-          result: outcome.status === 'imported' ? JSON.stringify(outcome.result) : null,
+          result: outcome.status === 'imported' ? outcome.resultJson : null,
           error: outcome.status === 'failed' ? JSON.stringify(outcome.error) : null,
           uploadedById: input.userId,
           importedAt: new Date(),
@@ -139,18 +165,17 @@ export async function uploadDrawing(
 }
 
 /** Imports a stored drawing again with other options; the original bytes are untouched. */
-export async function reimportDrawing(id: number, options: DxfImportOptions, userId: number, store: FileStore): Promise<DrawingView> {
+export async function reimportDrawing(id: number, options: DxfImportOptions, userId: number, { store, pool }: DrawingDeps): Promise<DrawingView> {
   const drawing = await Drawing.findByPk(id);
   if (!drawing) throw notFound('That drawing');
-  const parsed = parseOrRefuse(await store.read(drawing.storedName));
-  const outcome = runImport(parsed, options);
+  const outcome = await readInWorker(await store.read(drawing.storedName), options, false, pool);
   if (outcome.status === 'failed') {
     // Nothing is written: the last good import stays as it was.
     throw new AppError(outcome.error.code, outcome.error.message, 422);
   }
   await Drawing.sequelize!.transaction(async (transaction) => {
     await drawing.update(
-      { status: 'imported', options: JSON.stringify(options), result: JSON.stringify(outcome.result), error: null, importedAt: new Date() },
+      { status: 'imported', options: JSON.stringify(options), result: outcome.resultJson, error: null, importedAt: new Date() },
       { transaction },
     );
     await applyToModel(drawing, outcome.result, userId, transaction);

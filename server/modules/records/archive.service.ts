@@ -9,8 +9,8 @@ import { recordsRepository as repo, type RevisionRow, type TrussContext } from '
 
 export async function searchArchive(query: { q?: string; jobNumber?: string; project?: string; truss?: string; superseded: 'include' | 'exclude' }): Promise<ArchiveEntryView[]> {
   const trussIds = await repo.trussIdsMatching({ text: query.q, jobNumber: query.jobNumber, project: query.project, truss: query.truss });
-  if (trussIds.length === 0) return [];
-  const rows = await repo.listRevisions({ trussIds, statuses: query.superseded === 'include' ? ['issued', 'superseded'] : ['issued'] });
+  if (trussIds !== 'all' && trussIds.length === 0) return [];
+  const rows = await repo.listRevisions({ ...(trussIds === 'all' ? {} : { trussIds }), statuses: query.superseded === 'include' ? ['issued', 'superseded'] : ['issued'] });
   const contexts = await repo.trussContexts([...new Set(rows.map((r) => r.trussId))]);
   const labels = await labelsOf(rows.map((r) => r.supersededById));
   return rows

@@ -56,8 +56,8 @@ export interface TrussContext {
 
 const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(v as string));
 
-export function revisionRow(r: SheetRevision): RevisionRow {
-  const p = r.get({ plain: true }) as unknown as RevisionRow;
+export function revisionRow(r: SheetRevision | RevisionRow): RevisionRow {
+  const p = (r instanceof SheetRevision ? r.get({ plain: true }) : r) as unknown as RevisionRow;
   return {
     ...p,
     submittedAt: toDate(p.submittedAt),
@@ -81,7 +81,7 @@ export const recordsRepository = {
     if (where.trussIds !== undefined) Object.assign(w, { trussId: where.trussIds });
     if (where.statuses !== undefined) Object.assign(w, { status: where.statuses });
     if (where.sha256 !== undefined) Object.assign(w, { sha256: where.sha256 });
-    const rows = await SheetRevision.findAll({ where: w, order: [['trussId', 'ASC'], ['number', 'DESC']] });
+    const rows = (await SheetRevision.findAll({ where: w, order: [['trussId', 'ASC'], ['number', 'DESC']], raw: true })) as unknown as RevisionRow[];
     return rows.map(revisionRow);
   },
 
@@ -101,8 +101,11 @@ export const recordsRepository = {
   async trussContexts(trussIds: number[]): Promise<Map<number, TrussContext>> {
     const out = new Map<number, TrussContext>();
     if (trussIds.length === 0) return out;
-    const trusses = await Truss.findAll({ where: { id: trussIds } });
-    const projects = new Map((await Project.findAll({ where: { id: [...new Set(trusses.map((t) => t.projectId))] } })).map((p) => [p.id, p]));
+    const trusses = (await Truss.findAll({ attributes: ['id', 'name', 'projectId'], where: { id: trussIds }, raw: true })) as unknown as Pick<Truss, 'id' | 'name' | 'projectId'>[];
+    const projectIds = [...new Set(trusses.map((t) => t.projectId))];
+    const projects = new Map(
+      ((await Project.findAll({ attributes: ['id', 'name', 'jobNumber'], where: { id: projectIds }, raw: true })) as unknown as Pick<Project, 'id' | 'name' | 'jobNumber'>[]).map((p) => [p.id, p]),
+    );
     for (const t of trusses) {
       const p = projects.get(t.projectId);
       if (p) out.set(t.id, { trussId: t.id, trussName: t.name, projectId: p.id, projectName: p.name, jobNumber: p.jobNumber });
@@ -111,7 +114,9 @@ export const recordsRepository = {
   },
 
   /** Trusses whose job number, project or truss name contain the given texts (case-insensitive). */
-  async trussIdsMatching(filter: { text?: string; jobNumber?: string; project?: string; truss?: string }): Promise<number[]> {
+  async trussIdsMatching(filter: { text?: string; jobNumber?: string; project?: string; truss?: string }): Promise<number[] | 'all'> {
+    // No filter (the archive page as it opens): every truss, without listing them in the query.
+    if (!filter.text && !filter.jobNumber && !filter.project && !filter.truss) return 'all';
     // Filtered here rather than with LIKE, whose escaping differs between SQLite and PostgreSQL.
     const projects = new Map((await Project.findAll({ attributes: ['id', 'name', 'jobNumber'], raw: true })).map((p) => [p.id, p]));
     const trusses = await Truss.findAll({ attributes: ['id', 'name', 'projectId'], raw: true });

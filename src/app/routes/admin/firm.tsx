@@ -5,6 +5,7 @@ import { FirmForm } from '@/features/firm/components/firm-form';
 import { SigningKey } from '@/features/firm/components/signing-key';
 import { SigningKeys } from '@/features/firm/components/signing-keys';
 import { AuditChain } from '@/features/firm/components/audit-chain';
+import { ImportLimitsForm } from '@/features/firm/components/import-limits-form';
 import { isAdmin } from '@/lib/permissions';
 import { useCurrentUser } from '../../current-user';
 
@@ -22,6 +23,9 @@ export function FirmRoute() {
         <div className="flex flex-col gap-6">
           <Panel title="Title block">
             <FirmForm firm={firm.data} editable={isAdmin(user.role)} />
+          </Panel>
+          <Panel title="Drawing limits">
+            <ImportLimitsForm editable={isAdmin(user.role)} />
           </Panel>
           <Panel title="Signing key">
             <SigningKey />
