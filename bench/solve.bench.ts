@@ -15,6 +15,8 @@ import { modelPrepare } from '@shared/solver/prepare';
 import { trussSolve } from '@shared/solver/solve';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
 import { zeroForceFind } from '@shared/solver/zero-force';
+import { runDesign } from '@shared/design/basis';
+import type { TrussModel } from '@shared/model/truss';
 
 const DENSE_BUDGET_S = 60;
 const targets = (process.argv[2] ?? '100,300,1000,10000,100000').split(',').map(Number);
@@ -102,3 +104,26 @@ const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].len
 const line = (r: string[]) => r.map((c, i) => c.padStart(widths[i])).join('  ');
 console.log(line(head));
 for (const r of rows) console.log(line(r));
+
+// Member design: every member of a ~1 000-joint Pratt truss under 10 combinations, steps
+// included (AISC 360-16 LRFD, one group), against the analysis of the same truss and
+// combinations by trussSolve. Target (issue 14): design ≤ 1.5 × analysis.
+{
+  const base = modelFromSketch(parallelChordSketch('pratt', 500, 3, 2.5, 10));
+  const dead = base.loadCases[0];
+  const model: TrussModel = {
+    ...base,
+    loadCases: [dead, { ...dead, id: 'L', name: 'Live', category: 'live', loads: dead.loads.map((l) => ({ ...l, fy: l.fy * 0.6 })) }],
+    combinations: Array.from({ length: 10 }, (_, i) => ({ name: `C${i + 1}`, factors: { [dead.id]: 0.9 + 0.05 * i, L: 1.6 - 0.1 * i } })),
+    design: {
+      standard: 'aisc360-16-lrfd',
+      groups: [{ name: 'All', members: 'all', material: { kind: 'grade', grade: 'A992' }, section: { shape: 'rect-hollow', B: 100, H: 100, t: 5 } }],
+    },
+  };
+  const [tAnalysis, analysis] = best(3, () => trussSolve(model));
+  const [tDesign, design] = best(3, () => runDesign(model, analysis));
+  const steps = design!.members.reduce((n, m) => n + (m.tension?.steps.length ?? 0) + (m.compression?.steps.length ?? 0), 0);
+  console.log('');
+  console.log(`member design, ${model.joints.length} joints, ${model.members.length} members × ${model.combinations.length} combinations (AISC 360-16 LRFD, ${steps} steps):`);
+  console.log(`  analysis (trussSolve) ${tAnalysis.toFixed(1)} ms · design checks with steps ${tDesign.toFixed(1)} ms · design / analysis ${(tDesign / tAnalysis).toFixed(2)} (target ≤ 1.5)`);
+}

@@ -78,6 +78,13 @@ export function modelRebase(
 
   const byEnds = new Map<string, Member>();
   for (const m of members) byEnds.set([m.from, m.to].sort().join('|'), m);
+  const memberMap = new Map<string, string>();
+  for (const old of previous.members) {
+    const a = mapJoint(old.from);
+    const b = mapJoint(old.to);
+    const target = a && b ? byEnds.get([a, b].sort().join('|')) : undefined;
+    if (target) memberMap.set(old.id, target.id);
+  }
   for (const old of previous.members) {
     const { E, A, EA, group, material, section } = old;
     if ([E, A, EA, group, material, section].every((v) => v === undefined)) continue;
@@ -91,8 +98,20 @@ export function modelRebase(
     Object.assign(target, Object.fromEntries(Object.entries({ E, A, EA, group, material, section }).filter(([, v]) => v !== undefined)));
   }
 
+  // Member design follows the members it names; a group left with none of its members goes.
+  let design = previous.design;
+  if (design) {
+    const groups = design.groups.flatMap((g) => {
+      if (!Array.isArray(g.members)) return [g];
+      const ids = g.members.flatMap((id) => memberMap.get(id) ?? []);
+      return ids.length ? [{ ...g, members: ids }] : [];
+    });
+    const deflJoints = design.deflection?.joints.flatMap((j) => mapJoint(j) ?? []) ?? [];
+    const { deflection, ...rest } = design;
+    design = groups.length ? { ...rest, groups, ...(deflection && deflJoints.length ? { deflection: { ...deflection, joints: deflJoints } } : {}) } : undefined;
+  }
   return {
-    model: { joints, members, supports, loadCases, combinations: previous.combinations },
+    model: { joints, members, supports, loadCases, combinations: previous.combinations, ...(design ? { design } : {}) },
     dropped,
   };
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { BOUNDS, withinMagnitude, withinRange } from './bounds';
+import { designInputSchema } from './design-input';
 
 /**
  * The truss model every part of Panelpoint speaks: the drawing import produces its geometry,
@@ -94,5 +95,7 @@ export const trussModelSchema = z.object({
   supports: z.array(supportSchema),
   loadCases: z.array(loadCaseSchema),
   combinations: z.array(combinationSchema).default([]),
+  /** Member design: basis, groups with material and section, deflection request (shared/model/design-input.ts). */
+  design: designInputSchema.optional(),
 });
 export type TrussModel = z.infer<typeof trussModelSchema>;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { combinationSchema, loadCaseSchema, memberSchema, supportSchema } from '@shared/model/truss';
 import { takeoffInputSchema } from '@shared/schemas/run.schema';
+import { designInputSchema } from '@shared/model/design-input';
 
 /**
  * What an engineer saves: supports, loads, combinations and member properties. Geometry
@@ -17,3 +18,13 @@ export const modelSaveSchema = z.object({
   takeoff: takeoffInputSchema.nullable().optional(),
 });
 export type ModelSaveInput = z.infer<typeof modelSaveSchema>;
+
+/**
+ * Body of PUT /api/trusses/:id/design: the member design saved with the model (a new model
+ * version); null removes it.
+ */
+export const designSaveSchema = z.object({
+  version: z.number({ error: 'Send the model version you edited.' }).int().positive(),
+  design: designInputSchema.nullable(),
+});
+export type DesignSaveInput = z.infer<typeof designSaveSchema>;

@@ -3,6 +3,7 @@ import type { TrussModel } from '@shared/model/truss';
 import { BOUNDS, withinMagnitude } from '@shared/model/bounds';
 import type { TrussAnalysis, DeterminacyKind } from '@shared/solver';
 import type { RoofTakeoffResult } from '@shared/takeoff';
+import type { RunDesign } from '@shared/design/basis';
 
 /**
  * The engineer's workspace API: roof-load takeoff and analysis runs.
@@ -162,7 +163,34 @@ export interface RunSummaryView {
   combinationCount: number;
   /** True when the run used the saved roof takeoff. */
   usedTakeoff: boolean;
+  /** The member design checks in brief; null when the model has no member design. */
+  design: DesignSummary | null;
 }
+
+/** A run's design checks in a line: how many members fail or nearly fail, the largest utilisation. */
+export interface DesignSummary {
+  standard: string;
+  members: number;
+  failing: number;
+  nearFailing: number;
+  maxUtilisation: number;
+  /** Tag of the member with the largest utilisation. */
+  governingMember: string | null;
+  /** Why the checks could not be made. */
+  error: string | null;
+  /** When the checks were redone on the stored forces without a new analysis. */
+  recheckedAt: string | null;
+}
+
+/** The stored results: the solver's output and, when the model has a member design, its checks. */
+export type RunAnalysis = TrussAnalysis & { design?: RunDesign | null };
+
+/** Body of POST /api/runs/:id/design: re-check a run's members with the saved sections, no new analysis. */
+export const designRecheckSchema = z.object({
+  /** The model version the engineer is looking at; refused (409) when the saved model moved on. */
+  modelVersion: z.number().int().positive().optional(),
+});
+export type DesignRecheckInput = z.infer<typeof designRecheckSchema>;
 
 /** One run with everything it stored. */
 export interface RunView extends RunSummaryView {
@@ -175,7 +203,7 @@ export interface RunView extends RunSummaryView {
    * for an unstable model it holds the classification and no forces; null while queued or
    * running and when the run failed.
    */
-  analysis: TrussAnalysis | null;
+  analysis: RunAnalysis | null;
 }
 
 /** Header of GET /api/runs/:id/forces.csv, one row per member per case, combination and envelope line. */

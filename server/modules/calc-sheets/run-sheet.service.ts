@@ -1,3 +1,4 @@
+import type { RunAnalysis } from '@shared/schemas/run.schema';
 import type { TrussModel } from '@shared/model/truss';
 import type { TrussAnalysis } from '@shared/solver';
 import type { RoofTakeoffResult } from '@shared/takeoff';
@@ -39,9 +40,12 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
       unitSystem: project.unitSystem,
     },
     trussName: truss.name,
-    subject: `${truss.name}: ${takeoff?.result ? 'load takeoff, analysis' : 'analysis'} and member forces`,
+    subject: `${truss.name}: ${takeoff?.result ? 'load takeoff, analysis' : 'analysis'}, member forces${run.analysis?.includes('"design":{') ? ' and member design' : ''}`,
     model: JSON.parse(run.model) as TrussModel,
-    analysis: JSON.parse(run.analysis!) as TrussAnalysis,
+    ...(() => {
+      const { design, ...analysis } = JSON.parse(run.analysis!) as RunAnalysis;
+      return { analysis: analysis as TrussAnalysis, design: design ?? null };
+    })(),
     takeoffSteps: takeoff?.result?.steps,
     runLabel: `Run ${run.id}${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
   };

@@ -1,7 +1,7 @@
-import { modelSaveSchema } from '@shared/schemas/model.schema';
+import { designSaveSchema, modelSaveSchema } from '@shared/schemas/model.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
-import { getModel, saveModel } from './models.service';
+import { getModel, saveDesign, saveModel } from './models.service';
 
 export function modelsRoutes(registry: RouteSpec[]) {
   const routes = new ApiRoutes('/api', registry);
@@ -11,6 +11,10 @@ export function modelsRoutes(registry: RouteSpec[]) {
   // Loads, supports and properties are the engineer's; drafters change geometry by drawings.
   routes.add('put', '/trusses/:id/model', ['engineer'], validateBody(modelSaveSchema), async (req, res) => {
     res.json(await saveModel(idParam(req.params.id, 'That truss'), req.body, req.user!.id));
+  });
+  // Member design (basis, groups, sections) is the engineer's, saved as a new model version.
+  routes.add('put', '/trusses/:id/design', ['engineer'], validateBody(designSaveSchema), async (req, res) => {
+    res.json(await saveDesign(idParam(req.params.id, 'That truss'), req.body, req.user!.id));
   });
   return routes.router;
 }

@@ -1,6 +1,8 @@
 import type { TrussModel } from '@shared/model/truss';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
-import type { ModelSaveInput } from '@shared/schemas/model.schema';
+import type { DesignSaveInput, ModelSaveInput } from '@shared/schemas/model.schema';
+import { designBasisOf } from '@shared/design/basis';
+import { DesignError } from '@shared/design/errors';
 import { AppError, conflict, notFound } from '../../errors/app-error';
 import { TrussModelRecord, User } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
@@ -92,6 +94,8 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
       supports: input.supports,
       loadCases: input.loadCases,
       combinations: input.combinations,
+      // The member design is saved by its own route and kept by this one.
+      ...(model.design ? { design: model.design } : {}),
     };
     const [updated] = await TrussModelRecord.update(
       {
@@ -111,4 +115,59 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
 
 function stripUndefined<T extends object>(o: T): Partial<T> {
   return Object.fromEntries(Object.entries(o).filter(([k, v]) => v !== undefined && k !== 'id')) as Partial<T>;
+}
+
+/**
+ * Checks a member design against the saved model: every member in a group, sections and
+ * materials that make sense, deflection joints and combinations that exist. One sentence (422)
+ * for the first thing wrong.
+ */
+export function assertDesign(model: TrussModel, design: NonNullable<DesignSaveInput['design']>): void {
+  try {
+    designBasisOf(model, design);
+  } catch (e) {
+    if (e instanceof DesignError) throw new AppError(e.code, e.message, 422);
+    throw e;
+  }
+  if (design.deflection) {
+    const joints = new Set(model.joints.map((j) => j.id));
+    const bad = design.deflection.joints.find((j) => !joints.has(j));
+    if (bad !== undefined) throw new AppError('unknown-joint', `The deflection joint “${bad}” is not in this truss; pick a joint on the drawing.`, 422);
+    const names = [...model.combinations.map((c) => c.name), ...model.loadCases.map((c) => c.id)];
+    const badCombo = design.deflection.combinations.find((c) => !names.includes(c));
+    if (badCombo !== undefined) {
+      throw new AppError('unknown-combination', `The service combination “${badCombo}” is neither a combination nor a load case of this truss; pick one of ${names.slice(0, 12).join(', ') || '(none yet: add load cases first)'}.`, 422);
+    }
+  }
+}
+
+/**
+ * Saves the member design (design basis, groups with material and section, deflection request)
+ * as a new model version, with the same edit-conflict rule as the model save.
+ */
+export async function saveDesign(trussId: number, input: DesignSaveInput, userId: number): Promise<TrussModelView> {
+  await getTruss(trussId);
+  const sequelize = TrussModelRecord.sequelize!;
+  const record = await sequelize.transaction(async (transaction) => {
+    const record = await TrussModelRecord.findByPk(trussId, { transaction });
+    if (!record) throw new AppError('no-model-yet', 'This truss has no model yet: upload its DXF drawing first.', 404);
+    if (record.version !== input.version) {
+      throw conflict(
+        'edit-conflict',
+        `Someone else saved this model while you were editing (yours was version ${input.version}, it is now ${record.version}). Reload to see their changes, then make yours again.`,
+      );
+    }
+    const model = JSON.parse(record.model) as TrussModel;
+    if (input.design) assertDesign(model, input.design);
+    const { design: _old, ...rest } = model;
+    void _old;
+    const next: TrussModel = input.design ? { ...rest, design: input.design } : rest;
+    const [updated] = await TrussModelRecord.update(
+      { model: JSON.stringify(next), version: record.version + 1, updatedById: userId },
+      { where: { trussId, version: input.version }, transaction },
+    );
+    if (updated !== 1) throw conflict('edit-conflict', 'Someone else saved this model at the same moment. Reload and make your change again.');
+    return (await TrussModelRecord.findByPk(trussId, { transaction }))!;
+  });
+  return toView(record);
 }

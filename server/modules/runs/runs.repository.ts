@@ -1,3 +1,4 @@
+import { Op, literal } from 'sequelize';
 import { AnalysisRun, TrussModelRecord, User } from '../../db/models';
 
 /** A run row as plain data; the JSON columns stay text so big results are never parsed needlessly. */
@@ -82,4 +83,22 @@ export async function currentModelVersion(trussId: number): Promise<number | nul
 export async function failUnfinishedRuns(values: { error: string; finishedAt: Date; progress: string }): Promise<number> {
   const [count] = await AnalysisRun.update({ status: 'failed', ...values }, { where: { status: ['queued', 'running'] } });
   return count;
+}
+
+/** The sheet revisions made from a run (another module's table, read by its columns), newest first. */
+export async function revisionsOfRun(runId: number): Promise<{ number: number; status: string }[]> {
+  const [rows] = await AnalysisRun.sequelize!.query('SELECT number, status FROM sheet_revisions WHERE runId = ? ORDER BY number DESC', { replacements: [runId] });
+  return rows as { number: number; status: string }[];
+}
+
+/**
+ * Writes a run's re-checked design in one statement that also makes sure no sheet revision was
+ * started from the run meanwhile; false when one was (nothing written).
+ */
+export async function updateRunDesign(id: number, values: { model: string; analysis: string; summary: string; modelVersion: number }): Promise<boolean> {
+  if (!Number.isSafeInteger(id)) return false;
+  const [count] = await AnalysisRun.update(values, {
+    where: { [Op.and]: [{ id }, literal(`NOT EXISTS (SELECT 1 FROM sheet_revisions WHERE sheet_revisions.runId = ${id})`)] },
+  });
+  return count === 1;
 }

@@ -1,4 +1,4 @@
-import { runCreateSchema } from '@shared/schemas/run.schema';
+import { designRecheckSchema, runCreateSchema } from '@shared/schemas/run.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import * as runs from './runs.service';
@@ -21,6 +21,10 @@ export function runsRoutes(registry: RouteSpec[], deps: runs.RunsDeps) {
   routes.add('get', '/runs/:id/reactions.csv', ANY_ROLE, async (req, res) => {
     const { csv, fileName } = await runs.getReactionsCsv(idParam(req.params.id, 'That analysis run'));
     res.attachment(fileName).type('text/csv; charset=utf-8').send(csv);
+  });
+  // Re-check a run's members with the saved sections on its stored forces (no new analysis).
+  routes.add('post', '/runs/:id/design', ['engineer'], validateBody(designRecheckSchema), async (req, res) => {
+    res.json(await runs.recheckDesign(idParam(req.params.id, 'That analysis run'), req.body));
   });
   return routes.router;
 }

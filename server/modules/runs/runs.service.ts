@@ -1,10 +1,12 @@
 import type { TrussModel } from '@shared/model/truss';
-import type { RunCreateInput, RunProgress, RunSummaryView } from '@shared/schemas/run.schema';
+import type { DesignRecheckInput, RunAnalysis, RunCreateInput, RunProgress, RunSummaryView } from '@shared/schemas/run.schema';
 import type { TrussAnalysis } from '@shared/solver';
 import { AppError, conflict, notFound } from '../../errors/app-error';
 import { TrussModelRecord } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
 import { assertTakeoffCases, computeTakeoff, takeoffApply, takeoffParseStored } from '../takeoff/takeoff-compute';
+import { designJson, designSummaryOf, runDesign, withDesignStiffness } from '@shared/design/basis';
+import { sheetRevisionLabel } from '@shared/schemas/review.schema';
 import { forcesCsv } from './forces-csv';
 import { reactionsCsv } from './reactions-csv';
 import * as repo from './runs.repository';
@@ -38,6 +40,7 @@ function summaryView(row: RunRow, currentVersion: number | null): RunSummaryView
     caseCount: summary?.caseCount ?? 0,
     combinationCount: summary?.combinationCount ?? 0,
     usedTakeoff: row.takeoff !== null,
+    design: summary?.design ?? null,
   };
 }
 
@@ -56,22 +59,7 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
       `The model was saved again since you opened it (you have version ${input.modelVersion}, it is now ${record.version}). Reload it, check the changes, then run.`,
     );
   }
-  const saved = JSON.parse(record.model) as TrussModel;
-  let model = saved;
-  let takeoff: string | null = null;
-  let error: { code: string; message: string } | null = null;
-  try {
-    const takeoffInput = takeoffParseStored(record.takeoff);
-    if (takeoffInput) {
-      assertTakeoffCases(takeoffInput, saved.loadCases);
-      const result = computeTakeoff(saved, takeoffInput);
-      model = takeoffApply(saved, result);
-      takeoff = JSON.stringify({ input: takeoffInput, result });
-    }
-  } catch (err) {
-    if (!(err instanceof AppError)) throw err;
-    error = { code: err.code, message: `The roof takeoff could not be computed: ${err.message}` };
-  }
+  const { model, takeoff, error } = snapshotOf(record);
   const now = new Date();
   const row = await repo.insertRun({
     trussId,
@@ -89,6 +77,95 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
   });
   if (!error) void solveRun(row.id, model, deps);
   return summaryView(row, record.version);
+}
+
+/**
+ * The model a run solves: the saved model with the takeoff's load cases put in, and members
+ * without stiffness of their own given their design section's (an indeterminate truss's forces
+ * depend on it). A takeoff that no longer fits gives the error the run fails with.
+ */
+function snapshotOf(record: TrussModelRecord): { model: TrussModel; takeoff: string | null; error: { code: string; message: string } | null } {
+  const saved = JSON.parse(record.model) as TrussModel;
+  let model = saved;
+  let takeoff: string | null = null;
+  let error: { code: string; message: string } | null = null;
+  try {
+    const takeoffInput = takeoffParseStored(record.takeoff);
+    if (takeoffInput) {
+      assertTakeoffCases(takeoffInput, saved.loadCases);
+      const result = computeTakeoff(saved, takeoffInput);
+      model = takeoffApply(saved, result);
+      takeoff = JSON.stringify({ input: takeoffInput, result });
+    }
+  } catch (err) {
+    if (!(err instanceof AppError)) throw err;
+    error = { code: err.code, message: `The roof takeoff could not be computed: ${err.message}` };
+  }
+  return { model: withDesignStiffness(model), takeoff, error };
+}
+
+/** What the analysis reads of a model: everything but the design, and for a determinate truss not the stiffness either. */
+function analysisInputs(model: TrussModel, withStiffness: boolean): string {
+  const { design: _d, ...rest } = model;
+  void _d;
+  const members = withStiffness ? rest.members : rest.members.map(({ E: _e, A: _a, EA: _ea, ...m }) => m);
+  return JSON.stringify({ ...rest, members });
+}
+
+/**
+ * Re-checks a solved run's members with the sections saved since, on the forces it stored: no
+ * new analysis. Allowed when nothing the forces depend on changed — for a determinate truss the
+ * geometry, supports and loads; for an indeterminate one also every member's stiffness, which
+ * a new section changes (then a re-run is needed, 409 're-run-needed'). A run that has a sheet
+ * revision keeps its checks: the sheet under check or issued must not change (409).
+ */
+export async function recheckDesign(runId: number, input: DesignRecheckInput): Promise<RunSummaryView> {
+  const row = await findRunOr404(runId);
+  if (row.status !== 'solved' || !row.analysis) {
+    throw conflict('run-not-solved', `Run ${runId} has no member forces to check (it is ${row.status}); run the analysis first.`);
+  }
+  const revs = await repo.revisionsOfRun(runId);
+  if (revs.length) {
+    const r = revs[0];
+    const issued = revs.find((x) => x.status === 'issued' || x.status === 'superseded');
+    if (issued) {
+      throw conflict('sheet-issued', `Run ${runId} is behind issued sheet revision ${sheetRevisionLabel(issued.number)}, so its sections and checks cannot change; run the analysis again for a new run and start a new revision from it.`);
+    }
+    throw conflict('run-has-sheet', `Run ${runId} has sheet revision ${sheetRevisionLabel(r.number)} (${r.status}), whose checks must not change under it; run the analysis again for a new run with the new sections.`);
+  }
+  const record = await TrussModelRecord.findByPk(row.trussId);
+  if (!record) throw new AppError('no-model-yet', 'This truss has no model yet: upload its DXF drawing first.', 404);
+  if (input.modelVersion !== undefined && input.modelVersion !== record.version) {
+    throw conflict('model-changed', `The model was saved again since you opened it (you have version ${input.modelVersion}, it is now ${record.version}). Reload it, check the changes, then re-check.`);
+  }
+  const snap = snapshotOf(record);
+  if (snap.error) throw new AppError(snap.error.code, snap.error.message, 422);
+  const next = snap.model;
+  if (!next.design) throw new AppError('no-design', 'The truss has no member design saved; add a design basis and groups with their sections first.', 422);
+  const stored = JSON.parse(row.model) as TrussModel;
+  const analysis = JSON.parse(row.analysis) as RunAnalysis;
+  const indeterminate = analysis.classification.kind === 'indeterminate';
+  if (analysisInputs(stored, false) !== analysisInputs(next, false)) {
+    throw conflict('model-changed-since-run', `The geometry, supports, loads or combinations changed since run ${runId}, so its forces no longer fit the model; run the analysis again.`);
+  }
+  if (indeterminate && analysisInputs(stored, true) !== analysisInputs(next, true)) {
+    throw conflict(
+      're-run-needed',
+      `The truss is statically indeterminate (degree ${analysis.classification.degree}), so its member forces depend on the members' stiffness, which the new sections change; run the analysis again.`,
+    );
+  }
+  const design = runDesign(next, analysis);
+  if (!design) throw new AppError('no-design', 'The truss has no member design saved; add a design basis and groups with their sections first.', 422);
+  design.modelVersion = record.version;
+  design.recheckedAt = new Date().toISOString();
+  const { design: _old, ...plain } = analysis;
+  void _old;
+  const analysisJson = `${JSON.stringify(plain).slice(0, -1)},"design":${designJson(design)}}`;
+  const summary = { ...(JSON.parse(row.summary!) as SolveSummary), design: designSummaryOf(design) };
+  // The run now stands for the current model version: same forces, the saved sections.
+  const written = await repo.updateRunDesign(runId, { model: JSON.stringify(next), analysis: analysisJson, summary: JSON.stringify(summary), modelVersion: record.version });
+  if (!written) throw conflict('run-has-sheet', `A sheet revision was just started from run ${runId}, so its checks must not change; run the analysis again for a new run with the new sections.`);
+  return summaryView({ ...row, modelVersion: record.version, summary: JSON.stringify(summary) }, record.version);
 }
 
 /** Runs the solve in the pool and records each change of status; never throws. */

@@ -4,6 +4,7 @@ import type { RunSummaryView } from '@shared/schemas/run.schema';
 
 /** What the worker reports about a solved model, besides the full analysis. */
 export type SolveSummary = Pick<RunSummaryView, 'maxResidual' | 'caseCount' | 'combinationCount'> & {
+  design?: RunSummaryView['design'];
   classification: NonNullable<RunSummaryView['classification']>;
 };
 

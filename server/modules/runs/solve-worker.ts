@@ -1,5 +1,6 @@
 import { parentPort } from 'node:worker_threads';
 import { SolverError, trussSolve, type TrussAnalysis } from '@shared/solver';
+import { designJson, designSummaryOf, runDesign } from '@shared/design/basis';
 import type { SolveJob, SolveReply, SolveSummary } from './solve-pool';
 
 function summaryOf(analysis: TrussAnalysis): SolveSummary {
@@ -34,7 +35,13 @@ function solve(job: SolveJob): SolveReply {
         },
       };
     }
-    return { jobId: job.jobId, type: 'solved', analysisJson, summary: summaryOf(analysis) };
+    // Member design checks on the forces just found (the model's saved sections); a design error
+    // is recorded with the run, the forces stand.
+    const design = runDesign(job.model, analysis);
+    const summary = summaryOf(analysis);
+    if (design) summary.design = designSummaryOf(design);
+    const withDesign = design ? `${analysisJson.slice(0, -1)},"design":${designJson(design)}}` : analysisJson;
+    return { jobId: job.jobId, type: 'solved', analysisJson: withDesign, summary };
   } catch (err) {
     if (err instanceof SolverError) return { jobId: job.jobId, type: 'failed', error: { code: err.code, message: err.message } };
     const message = err instanceof Error ? err.message : String(err);

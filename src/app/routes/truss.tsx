@@ -6,6 +6,7 @@ import { TrussSheets } from '@/features/sheet-revisions/components/truss-sheets'
 import { useTruss } from '@/features/trusses/api/get-truss';
 import { TrussPage } from '@/features/trusses/components/truss-page';
 import { TrussTabs, type TrussTab } from '@/features/trusses/components/truss-tabs';
+import { DesignWorkspace } from '@/features/workspace/components/design-editor';
 import { ModelWorkspace } from '@/features/workspace/components/model-editor';
 import { RunsWorkspace } from '@/features/workspace/components/runs-section';
 import { canUploadDrawings } from '@/lib/permissions';
@@ -46,6 +47,7 @@ function TrussRouteLoaded({ trussId }: { trussId: number }) {
     },
     // Engineers edit the model and run it; everyone else reads (the server enforces both).
     { id: 'model', label: 'Model & loads', content: <ModelWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} /> },
+    { id: 'design', label: 'Member design', content: <DesignWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} /> },
     {
       id: 'runs',
       label: 'Runs & results',

@@ -1,6 +1,7 @@
 import type { TrussAnalysis } from '@shared/solver';
 import type { SheetSection } from './context';
 import type { CalcSheetInput } from './types';
+import { DESIGN_CAUTION } from './design-checks';
 
 const CAUTION =
   'These results are an aid to design and must be reviewed by a licensed professional engineer before they are used. ' +
@@ -13,7 +14,7 @@ export const designBasisSection: SheetSection<'caution' | 'designBasis'> = {
     const clauses = [...new Set(model.combinations.map((c) => c.clause).filter((c): c is string => !!c))];
     return {
       view: {
-        caution: CAUTION,
+        caution: input.design ? `${CAUTION} ${DESIGN_CAUTION}` : CAUTION,
         designBasis: {
           paragraphs: (input.project.designBasis ?? '').split(/\n\s*\n/).map((p) => p.trim()).filter(Boolean),
           clauses,

@@ -14,6 +14,8 @@ import { envelopeSection } from './envelope';
 import { bearingsSection } from './bearings';
 import { residualSection } from './residual';
 import type { CalcSheetInput, CalcSheetView, StepView } from './types';
+import { deflectionSection } from './deflection';
+import { designChecksSection } from './design-checks';
 
 /**
  * The sections of the sheet in the order of its contents. A new section is a new file in this
@@ -32,6 +34,8 @@ const SECTIONS = [
   combinationsSection,
   envelopeSection,
   bearingsSection,
+  deflectionSection,
+  designChecksSection,
   residualSection,
 ] as const;
 

@@ -2,6 +2,7 @@ import type { TrussModel } from '@shared/model/truss';
 import type { FirmSettings, UnitSystem } from '@shared/schemas/project.schema';
 import type { TrussAnalysis } from '@shared/solver';
 import type { TakeoffStep } from '@shared/takeoff';
+import type { RunDesign } from '@shared/design/basis';
 
 /** A person who prepared or checked the sheet, with the date they did it (as it should print). */
 export interface SheetSigner {
@@ -32,6 +33,8 @@ export interface CalcSheetInput {
   issuedBy?: SheetSigner;
   model: TrussModel;
   analysis: TrussAnalysis;
+  /** The run's member design checks and deflections, when the model has a member design. */
+  design?: RunDesign | null;
   /** Roof takeoff steps (shared/takeoff), when the loads came from a takeoff. */
   takeoffSteps?: TakeoffStep[];
   /** Which analysis run the sheet was made from (printed on the cover and every page). */
@@ -147,5 +150,32 @@ export interface CalcSheetView {
     words: string[];
   };
   residual: { rows: TableRow[]; verdict: string; ok: boolean };
+  /** Member design pages: one per group, the governing member's steps in full, the others in a table. */
+  designChecks: {
+    present: boolean;
+    standard: string;
+    caution: string;
+    notApplied: string[];
+    error: string | null;
+    groups: DesignGroupView[];
+  };
+  /** Joint deflections by the unit-load method, after the member forces. */
+  deflection: {
+    present: boolean;
+    rows: TableRow[];
+    tables: { title: string; rows: TableRow[]; sum: string }[];
+    note: string;
+  };
   generatedAt: string;
+}
+
+/** One design group on the sheet. */
+export interface DesignGroupView {
+  anchor: string;
+  title: string;
+  /** Material, section, lengths: label and value. */
+  basis: SummaryRow[];
+  governing: { tag: string; line: string; steps: TableRow[]; notes: string[]; refused?: string } | null;
+  /** Every member of the group: tag, tension, compression, governing combination, clause, utilisation, result. */
+  rows: TableRow[];
 }

@@ -14,9 +14,24 @@ function Sense({ kN }: { kN: number }) {
 }
 
 /** Member forces: sortable, numbers right-aligned with fixed decimals, (T)/(C) beside each. */
-export function ForceTable({ rows, envelope, unitSystem }: { rows: ForceRow[]; envelope: boolean; unitSystem: UnitSystemId }) {
+export function ForceTable({
+  rows,
+  envelope,
+  unitSystem,
+  utilisationOf,
+}: {
+  rows: ForceRow[];
+  envelope: boolean;
+  unitSystem: UnitSystemId;
+  /** The member's design utilisation for the forces shown (a run with a member design). */
+  utilisationOf?: (memberId: string) => { value: number; text: string } | null;
+}) {
   const unit = forceUnit(unitSystem);
   const columns = useMemo<ColumnDef<ForceRow, any>[]>(() => {
+    const withU = (cols: ColumnDef<ForceRow, any>[]): ColumnDef<ForceRow, any>[] =>
+      utilisationOf
+        ? [...cols, { id: 'utilisation', header: 'Utilisation', accessorFn: (r) => utilisationOf(r.id)?.value ?? 0, meta: { align: 'right' }, cell: (c) => utilisationOf(c.row.original.id)?.text ?? '—' }]
+        : cols;
     const base: ColumnDef<ForceRow, any>[] = [
       { accessorKey: 'tag', header: 'Member', cell: (c) => <span className="font-medium text-ink">{c.getValue()}</span> },
       { accessorFn: (r) => (r.group ? GROUP_LABELS[r.group] : '—'), id: 'group', header: 'Group' },
@@ -24,13 +39,13 @@ export function ForceTable({ rows, envelope, unitSystem }: { rows: ForceRow[]; e
       { accessorKey: 'length', header: 'Length (m)', meta: { align: 'right' }, cell: (c) => (c.getValue() as number).toFixed(3) },
     ];
     if (!envelope) {
-      return [
+      return withU([
         ...base,
         { accessorKey: 'force', header: `Force (${unit})`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
         { id: 'sense', header: 'T / C', accessorFn: (r) => forceSense(r.force), cell: (c) => <Sense kN={c.row.original.force} />, meta: { align: 'right' } },
-      ];
+      ]);
     }
-    return [
+    return withU([
       ...base,
       { id: 'maxT', accessorFn: (r) => r.envelope?.maxTension ?? 0, header: `Max tension (${unit})`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
       { id: 'maxTBy', accessorFn: (r) => r.envelope?.maxTensionCombo ?? '—', header: 'from', cell: (c) => <span className="text-ink-soft">{c.getValue()}</span> },
@@ -39,8 +54,8 @@ export function ForceTable({ rows, envelope, unitSystem }: { rows: ForceRow[]; e
       { accessorKey: 'force', header: `Governing (${unit})`, meta: { align: 'right' }, cell: (c) => <span className="font-medium">{forceDigits(c.getValue(), unitSystem)}</span> },
       { id: 'sense', header: 'T / C', accessorFn: (r) => forceSense(r.force), cell: (c) => <Sense kN={c.row.original.force} />, meta: { align: 'right' } },
       { id: 'governing', accessorFn: (r) => r.envelope?.governing ?? '—', header: 'Governing combination' },
-    ];
-  }, [envelope, unit, unitSystem]);
+    ]);
+  }, [envelope, unit, unitSystem, utilisationOf]);
 
   return (
     <DataTable

@@ -17,8 +17,10 @@ import {
   type GroupFilter,
   type ResultSource,
 } from '../utils/run-results';
+import { DesignResults } from './design-results';
 import { ForceTable } from './force-table';
 import { ReactionEnvelopeTable, upliftWords } from './reaction-envelope-table';
+import { utilisationText } from '../utils/utilisation-look';
 import { RunStatusBadge } from './run-status-badge';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
@@ -39,7 +41,7 @@ function smallKn(v: number): ReactNode {
 }
 
 /** One run: its status, the classification, and for a solved run the forces, diagram and steps. */
-export function RunResults({ runId, unitSystem }: { runId: number; unitSystem: UnitSystemId }) {
+export function RunResults({ runId, unitSystem, mayRun = false }: { runId: number; unitSystem: UnitSystemId; mayRun?: boolean }) {
   const run = useRun(runId);
   if (run.isPending) return <LoadingState label="Loading the run…" />;
   if (run.isError) return <ErrorState title="The run could not be loaded" error={run.error} onRetry={() => void run.refetch()} />;
@@ -97,6 +99,7 @@ export function RunResults({ runId, unitSystem }: { runId: number; unitSystem: U
         </div>
       )}
       {r.analysis && <Analysis run={r} analysis={r.analysis} unitSystem={unitSystem} />}
+      {r.analysis?.design && <DesignResults run={r} unitSystem={unitSystem} mayRun={mayRun} />}
     </section>
   );
 }
@@ -127,6 +130,22 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
   const reactionEnvelope = useMemo(() => reactionEnvelopeOf(analysis), [analysis]);
   const envelopeOver = analysis.combinations.length ? 'combinations' : 'load cases';
   const lifted = reactionEnvelope.filter((row) => upliftWords(row, unitSystem) !== null);
+  // With a member design: the utilisation under the combination shown (the largest for the envelope).
+  const design = (analysis as RunView['analysis'])?.design;
+  const utilisationOf = useMemo(() => {
+    if (!design || design.error) return undefined;
+    const byId = new Map(design.members.map((m) => [m.member, m]));
+    const name = source.kind === 'combination' ? source.name : source.kind === 'case' ? source.caseId : null;
+    return (id: string) => {
+      const d = byId.get(id);
+      if (!d) return null;
+      if (name === null) return { value: d.utilisation, text: utilisationText(d.utilisation, d.pass, !!d.refused) };
+      const c = d.combinations.find((x) => x.name === name);
+      if (!c) return null;
+      const refused = !!d.refused && c.force < 0;
+      return { value: c.ratio, text: utilisationText(c.ratio, !refused && c.ratio <= 1, refused) };
+    };
+  }, [design, sourceKey]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const largest = result ? Math.max(0, ...Object.values(result.forces).map(Math.abs)) : 0;
   const arrows: JointArrow[] = [];
@@ -228,7 +247,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
           <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
             <div className="flex flex-col gap-3">
               <h3 className="text-sm font-semibold text-ink">Member forces</h3>
-              <ForceTable rows={rows} envelope={source.kind === 'envelope'} unitSystem={unitSystem} />
+              <ForceTable rows={rows} envelope={source.kind === 'envelope'} unitSystem={unitSystem} utilisationOf={utilisationOf} />
               <p className="text-xs text-ink-faint">Tension positive, compression negative; (T) tension, (C) compression.</p>
             </div>
             <div className="flex flex-col gap-4">

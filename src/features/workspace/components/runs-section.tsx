@@ -129,7 +129,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
         )}
       </Panel>
 
-      {selectedId !== undefined && <RunResults key={selectedId} runId={selectedId} unitSystem={unitSystem} />}
+      {selectedId !== undefined && <RunResults key={selectedId} runId={selectedId} unitSystem={unitSystem} mayRun={mayRun} />}
     </div>
   );
 }

@@ -1,0 +1,89 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import type { TrussModelView } from '@shared/schemas/drawing.schema';
+import { launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
+
+let running: RunningApp;
+let browser: Browser;
+let page: Page;
+const shots = path.resolve(import.meta.dirname, '..', '..', 'tmp-screens');
+
+beforeAll(async () => {
+  running = await startRunningApp();
+  browser = await launchBrowser();
+  page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
+}, 180_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await running?.stop();
+});
+
+/**
+ * The engineer gives the demo truss T1 (12 m span, six 2 m panels) its supports and a dead load
+ * through the API, then enters the member design in the app, runs it and reads the utilisation
+ * on the diagram and in the table, in Chromium.
+ */
+describe('member design in the workspace', () => {
+  it('saves a design, runs it and shows each member’s utilisation written on the diagram and in the table, with the failing filter', async () => {
+    await page.goto(`${running.baseUrl}/sign-in`);
+    await page.getByLabel(/e-mail/i).fill('engineer@demo.panelpoint.test');
+    await page.getByLabel(/password/i).fill('panelpoint-demo');
+    await page.getByRole('button', { name: /sign in/i }).click();
+    await page.waitForURL(/\/projects/);
+
+    // Supports and a 12 kN dead load at every bottom-chord joint between the bearings, by the API (same session).
+    const csrf = ((await (await page.request.get(`${running.baseUrl}/api/session`)).json()) as { csrfToken: string }).csrfToken;
+    const view = (await (await page.request.get(`${running.baseUrl}/api/trusses/1/model`)).json()) as TrussModelView;
+    const left = view.model.joints.find((j) => j.x === 0 && j.y === 0)!;
+    const right = view.model.joints.find((j) => Math.abs(j.x - 12) < 1e-9 && j.y === 0)!;
+    const inner = view.model.joints.filter((j) => j.y === 0 && j.x > 0 && j.x < 12);
+    const saved = await page.request.put(`${running.baseUrl}/api/trusses/1/model`, {
+      headers: { 'X-CSRF-Token': csrf },
+      data: {
+        version: view.version,
+        supports: [{ joint: left.id, kind: 'pin' }, { joint: right.id, kind: 'roller', angleDeg: 90 }],
+        loadCases: [{ id: 'D', name: 'Dead', category: 'dead', loads: inner.map((j) => ({ joint: j.id, fx: 0, fy: -12 })) }],
+        combinations: [{ name: '1.4D', factors: { D: 1.4 } }],
+        members: [],
+      },
+    });
+    expect(saved.status()).toBe(200);
+
+    await page.getByRole('link', { name: 'HV-2417' }).click();
+    await page.getByRole('link', { name: /^T1/ }).click();
+    await page.getByRole('tab', { name: 'Member design' }).click();
+    await page.getByLabel('Section shape').selectOption('rect-hollow');
+    await page.getByLabel('Section B').fill('50');
+    await page.getByLabel('Section H').fill('50');
+    await page.getByLabel('Section t').fill('3');
+    await page.getByLabel('Section t').blur();
+    await page.getByRole('button', { name: 'Save member design' }).click();
+    await page.getByText('Member design saved.').waitFor({ timeout: 15_000 });
+
+    await page.getByRole('tab', { name: 'Runs & results' }).click();
+    await page.getByRole('button', { name: 'Run analysis' }).click();
+    await page.getByText(/Member design — AISC 360-16, LRFD/).waitFor({ timeout: 30_000 });
+    const table = page.getByRole('table', { name: 'Member design checks' });
+    const count = view.model.members.length;
+    expect(await table.locator('tbody tr').count()).toBe(count);
+    // Every member's utilisation is written on the diagram as a label.
+    const diagram = page.getByRole('group', { name: /Utilisation diagram/ });
+    const labels = await diagram.locator('text').allTextContents();
+    expect(labels.filter((t) => /^\d+\.\d\d( ✗)?$/.test(t.trim())).length).toBe(count);
+
+    fs.mkdirSync(shots, { recursive: true });
+    await page.getByLabel('Design summary').scrollIntoViewIfNeeded();
+    await diagram.screenshot({ path: path.join(shots, 'member-design-diagram.png') });
+    await page.emulateMedia({ colorScheme: 'light' });
+    await page.addStyleTag({ content: 'html { filter: grayscale(1); }' });
+    await diagram.screenshot({ path: path.join(shots, 'member-design-diagram-grey.png') });
+
+    // The failing filter keeps exactly the rows marked failing.
+    const failingRows = await table.locator('tbody tr[data-band="fails"]').count();
+    await page.getByLabel('Design filter').selectOption('failing');
+    expect(await table.locator('tbody tr').count()).toBe(failingRows);
+  }, 150_000);
+});
