@@ -94,6 +94,12 @@ function cosinesToKatex(f: JointForce, d: number): string {
   return `${f.symbol}:\\ (\\cos, \\sin) = (${numberFormat(f.cx, d)},\\ ${numberFormat(f.cy, d)})`;
 }
 
+/** A degree of freedom as a typeset symbol: u_{A}, v_{A}, or t_{M} along a roller's line. */
+function dofSymbol(f: { label: string; tag: string }): string {
+  const letter = /^([uvt])_/.exec(f.label)?.[1] ?? 'u';
+  return `${letter}_{${texText(f.tag)}}`;
+}
+
 function matrixToKatex(rows: number[][], d: number): string {
   const body = rows.map((r) => r.map((v) => numberFormat(v, d)).join(' & ')).join(' \\\\ ');
   return `\\begin{bmatrix} ${body} \\end{bmatrix}`;
@@ -161,8 +167,14 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       );
     case 'stiffness-assembly': {
       const lines = [
-        `\\mathbf{u} = [${step.dofs.map((f) => texText(f.label)).join(',\\ ')}]^{T}`,
+        `\\mathbf{u} = [${step.dofs.map((f) => dofSymbol(f)).join(',\\ ')}]^{T}`,
       ];
+      const rollers = step.dofs.filter((f) => f.label.startsWith('t_'));
+      if (rollers.length) {
+        lines.push(
+          `${rollers.map((f) => dofSymbol(f)).join(',\\ ')}:\\ \\text{movement of ${rollers.length === 1 ? 'the roller joint' : 'each roller joint'} along its rolling line; } u, v\\text{: movement of a free joint in } x, y`,
+        );
+      }
       if (step.matrix) lines.push(`\\mathbf{K} = ${matrixToKatex(step.matrix, 1)}\\ \\mathrm{kN/m}`);
       if (step.note) lines.push(texText(step.note));
       lines.push(`\\mathbf{P} = [${step.loads.map((v) => numberFormat(v, d)).join(',\\ ')}]^{T}\\ \\mathrm{kN}`);

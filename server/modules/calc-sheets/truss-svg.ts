@@ -91,7 +91,18 @@ function haloText(x: number, y: number, text: string, attrs: string): string {
   const h = size * 1.05;
   const anchor = /text-anchor="(start|end|middle)"/.exec(attrs)?.[1] ?? 'start';
   const left = anchor === 'start' ? x - 1.5 : anchor === 'end' ? x - w + 1.5 : x - w / 2;
-  return `<rect x="${f1(left)}" y="${f1(y - size * 0.82)}" width="${f1(w)}" height="${f1(h)}" rx="2" fill="#fff" fill-opacity="0.88"/><text x="${f1(x)}" y="${f1(y)}" ${attrs}>${svgEscape(text)}</text>`;
+  return `<rect x="${f1(left)}" y="${f1(y - size * 0.82)}" width="${f1(w)}" height="${f1(h)}" rx="2" fill="#fff" fill-opacity="0.88"/><text x="${f1(x)}" y="${f1(y)}" ${attrs}>${subscriptText(text, size)}</text>`;
+}
+
+/**
+ * A label whose symbol has a subscript ("R_A,y = 50.00 kN") typeset as in the equations: the
+ * subscript lowered and smaller, never the raw underscore. Other labels are escaped as they are.
+ */
+export function subscriptText(text: string, size: number): string {
+  const m = /^([A-Za-z])_([^\s=]+)(.*)$/s.exec(text);
+  if (!m) return svgEscape(text);
+  const shift = f1(size * 0.25);
+  return `${svgEscape(m[1])}<tspan dy="${shift}" font-size="${f1(size * 0.72)}">${svgEscape(m[2])}</tspan><tspan dy="-${shift}">${svgEscape(m[3])}</tspan>`;
 }
 
 /** Direction (unit, model axes) pointing away from the members at a joint: where its tag goes. */
