@@ -1,4 +1,4 @@
-import { Worker } from 'node:worker_threads';
+import { threadPoolCreate, type ThreadPool } from '../../workers/thread-pool';
 import { AppError } from '../../errors/app-error';
 import type { PasswordVerdict } from './password-rule';
 
@@ -15,7 +15,7 @@ export interface JudgeJob {
   personal: string[];
 }
 
-export type JudgeReply = { type: 'ready' } | { type: 'verdict'; jobId: number; verdict: PasswordVerdict };
+export type JudgeReply = { jobId: number; type: 'started' } | { jobId: number; type: 'verdict'; verdict: PasswordVerdict };
 
 const WORKER_ENTRY = new URL('./password-judge-entry.mjs', import.meta.url);
 /** Longest one password may take to judge; past it the password is refused (the cautious reading). */
@@ -26,80 +26,23 @@ const MAX_WAITING = 32;
 export const TOO_SLOW_REFUSAL =
   'That password takes too long to check because it repeats a short pattern many times: use a phrase of four or more unrelated words instead.';
 
-interface Task {
-  job: JudgeJob;
-  timeLimitMs: number;
-  resolve(v: PasswordVerdict): void;
-  reject(e: Error): void;
-}
+const stoppedError = () => new Error('The password check stopped unexpectedly.');
 
-let worker: Worker | null = null;
-let ready = false;
-let running: { task: Task; timer: NodeJS.Timeout } | null = null;
-const waiting: Task[] = [];
-let nextId = 1;
-
-function startWorker(): void {
-  const w = new Worker(WORKER_ENTRY);
-  worker = w;
-  ready = false;
-  w.on('message', (reply: JudgeReply) => {
-    if (w !== worker) return;
-    if (reply.type === 'ready') {
-      ready = true;
-    } else if (running && running.task.job.jobId === reply.jobId) {
-      clearTimeout(running.timer);
-      const { task } = running;
-      running = null;
-      task.resolve(reply.verdict);
-    }
-    pump();
-  });
-  w.on('error', () => replaceWorker(new Error('The password check stopped unexpectedly.')));
-  w.on('exit', () => {
-    if (w === worker) replaceWorker(new Error('The password check stopped unexpectedly.'));
-  });
-}
-
-/** Ends the current worker (hung or dead); the job it held gets `failure`; the next starts fresh. */
-function replaceWorker(failure: Error | PasswordVerdict): void {
-  const old = worker;
-  worker = null;
-  ready = false;
-  if (running) {
-    clearTimeout(running.timer);
-    const { task } = running;
-    running = null;
-    if (failure instanceof Error) task.reject(failure);
-    else task.resolve(failure);
-  }
-  void old?.terminate();
-  pump();
-}
-
-function pump(): void {
-  if (running || waiting.length === 0) {
-    // An idle worker must not keep the process alive (tests, scripts).
-    if (!running) worker?.unref();
-    return;
-  }
-  if (!worker) startWorker();
-  worker!.ref();
-  if (!ready) return;
-  const task = waiting.shift()!;
-  const timer = setTimeout(() => replaceWorker({ score: 0, refusal: TOO_SLOW_REFUSAL }), task.timeLimitMs);
-  running = { task, timer };
-  worker!.postMessage(task.job);
-}
+/** One worker, one password at a time; made on first use. */
+let pool: ThreadPool<Omit<JudgeJob, 'jobId'>, JudgeReply> | null = null;
 
 /** zxcvbn's verdict on a password, judged off the main thread within {@link JUDGE_TIME_LIMIT_MS}. */
 export function judgePasswordOffThread(password: string, personal: string[], timeLimitMs = JUDGE_TIME_LIMIT_MS): Promise<PasswordVerdict> {
-  if (waiting.length >= MAX_WAITING) {
-    return Promise.reject(new AppError('password-check-busy', 'Many passwords are being checked right now: wait a minute and try again.', 503));
-  }
-  return new Promise((resolve, reject) => {
-    waiting.push({ job: { jobId: nextId++, password, personal }, timeLimitMs, resolve, reject });
-    pump();
+  pool ??= threadPoolCreate({
+    entry: WORKER_ENTRY,
+    maxWaiting: MAX_WAITING,
+    closedError: stoppedError,
+    busyError: () => new AppError('password-check-busy', 'Many passwords are being checked right now: wait a minute and try again.', 503),
+  });
+  return pool.run({ password, personal }, { timeLimitMs }).then((outcome) => {
+    if (outcome.type === 'timed-out') return { score: 0, refusal: TOO_SLOW_REFUSAL };
+    if (outcome.type !== 'done' || outcome.reply.type !== 'verdict') throw stoppedError();
+    return outcome.reply.verdict;
   });
 }
 
