@@ -120,8 +120,8 @@ for (const r of rows) console.log(line(r));
       groups: [{ name: 'All', members: 'all', material: { kind: 'grade', grade: 'A992' }, section: { shape: 'rect-hollow', B: 100, H: 100, t: 5 } }],
     },
   };
-  const [tAnalysis, analysis] = best(3, () => trussSolve(model));
-  const [tDesign, design] = best(3, () => runDesign(model, analysis));
+  const [tAnalysis, analysis] = best(5, () => trussSolve(model));
+  const [tDesign, design] = best(5, () => runDesign(model, analysis));
   const steps = design!.members.reduce((n, m) => n + (m.tension?.steps.length ?? 0) + (m.compression?.steps.length ?? 0), 0);
   console.log('');
   console.log(`member design, ${model.joints.length} joints, ${model.members.length} members × ${model.combinations.length} combinations (AISC 360-16 LRFD, ${steps} steps):`);

@@ -99,3 +99,20 @@ describe('designCheck over a truss and its combinations', () => {
     expect(() => steelGrade('S420')).toThrow(/not preset/);
   });
 });
+
+describe('checks shared between members of one group and one length', () => {
+  it('each member keeps the capacity of its own buckling length: rafters (5 m) and ties (4 m) differ, equal lengths agree', () => {
+    // Rafters AC, CB are 5 m (3-4-5 triangle), ties AD, DB 4 m, post CD 3 m: closed-form lengths.
+    const res = designCheck(model, analysis, { standard: 'aisc360-16-lrfd', groups: [group()] });
+    const by = (id: string) => res.find((r) => r.member === id)!;
+    const { compression: ac } = by('AC');
+    const { compression: cb } = by('CB');
+    expect(ac!.capacity).toBe(cb!.capacity);
+    expect(ac!.steps).toEqual(cb!.steps);
+    // The same section at 4 m buckles less than at 5 m: a tie's compression capacity (under C2's
+    // uplift the ties compress) must be the larger, so a memo keyed on the wrong thing would fail.
+    const ad = by('AD').compression!;
+    expect(ad.capacity).toBeGreaterThan(ac!.capacity);
+    expect(ad.steps).not.toEqual(ac!.steps);
+  });
+});

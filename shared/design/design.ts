@@ -101,6 +101,16 @@ export function designCheck(model: TrussModel, analysis: TrussAnalysis, basis: D
   }
   const joint = new Map(model.joints.map((j) => [j.id, j]));
   const sources = forcesSources(analysis);
+  // A capacity and its steps depend on the group, the sense and the buckling lengths only, not
+  // on the force: members of one group and one length (a chord's panels, a web's repeats)
+  // share one check. The results are not mutated afterwards, so sharing them is safe.
+  const senseMemo = new Map<string, SenseCheck>();
+  const senseOf = (sense: 'tension' | 'compression', g: DesignGroup, design: Parameters<typeof senseCheck>[2]): SenseCheck => {
+    const key = `${basis.groups.indexOf(g)}|${sense}|${design.Lx}|${design.Ly}`;
+    let sc = senseMemo.get(key);
+    if (!sc) senseMemo.set(key, (sc = senseCheck(basis.standard, sense, design, en)));
+    return sc;
+  };
   return model.members.map((mb) => {
     const g = groupOf.get(mb.id)!;
     const a = joint.get(mb.from)!;
@@ -130,8 +140,8 @@ export function designCheck(model: TrussModel, analysis: TrussAnalysis, basis: D
         maxCName = s.name;
       }
     }
-    const tension = maxT > 0 ? { ...senseCheck(basis.standard, 'tension', design, en), combination: maxTName, force: maxT } : null;
-    const compression = maxC < 0 ? { ...senseCheck(basis.standard, 'compression', design, en), combination: maxCName, force: maxC } : null;
+    const tension = maxT > 0 ? { ...senseOf('tension', g, design), combination: maxTName, force: maxT } : null;
+    const compression = maxC < 0 ? { ...senseOf('compression', g, design), combination: maxCName, force: maxC } : null;
     const checks: LimitRatio[] = [];
     for (const sc of [tension, compression]) {
       if (!sc) continue;
@@ -142,10 +152,12 @@ export function designCheck(model: TrussModel, analysis: TrussAnalysis, basis: D
     }
     // Per combination: the force over the least capacity of its sense, and the slenderness limit of that sense.
     const slenderRatio = (sc: SenseCheck | null) => Math.max(0, ...(sc?.limits.filter((l) => l.slenderness).map((l) => l.slenderness!.value / l.slenderness!.limit) ?? []));
+    const slenderT = slenderRatio(tension);
+    const slenderC = slenderRatio(compression);
     const combinations = sources.map((s) => {
       const force = s.forces[mb.id] ?? 0;
       const sc = force > 0 ? tension : force < 0 ? compression : null;
-      const ratio = sc ? Math.max(Math.abs(force) / sc.capacity, slenderRatio(sc)) : 0;
+      const ratio = sc ? Math.max(Math.abs(force) / sc.capacity, force > 0 ? slenderT : slenderC) : 0;
       return { name: s.name, force, ratio };
     });
     let utilisation = 0;
