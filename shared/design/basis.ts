@@ -2,6 +2,7 @@ import type { DesignInput, DesignSelection } from '@shared/model/design-input';
 import type { TrussModel } from '@shared/model/truss';
 import type { TrussAnalysis } from '@shared/solver/types';
 import { deflectionCheck, type DeflectionResult } from './deflection';
+import { deflectedShapes, type DeflectedShape } from './deflected-shape';
 import { designCheck, type DesignBasis, type DesignGroup, type MemberDesignResult } from './design';
 import { DesignError } from './errors';
 import { materialValidate, steelGrade, type Material } from './materials';
@@ -179,6 +180,11 @@ export interface RunDesign {
   groups: RunDesignGroup[];
   members: RunMemberDesign[];
   deflection: DeflectionResult[];
+  /**
+   * Every joint's movement under each service combination, for the deflected-shape drawing;
+   * null past the joint limit; absent in runs made before it existed.
+   */
+  shapes?: DeflectedShape[] | null;
   /** Set when the checks could not be made (a bad section, an uncovered member, …). */
   error: { code: string; message: string } | null;
   /** The model version whose design this is (a re-check without re-analysis moves it on). */
@@ -198,12 +204,12 @@ export function runDesign(model: TrussModel, analysis: TrussAnalysis): RunDesign
   try {
     const basis = designBasisOf(model, input);
     const members = designCheck(model, analysis, basis).map((r) => (basis.groupOf.get(r.member)!.section.shape === 'double-angle' ? refuseBuiltUp(r) : r));
-    const deflection = input.deflection
-      ? deflectionCheck(model, analysis, input.deflection, (id) => {
-          const g = basis.groupOf.get(id);
-          return g ? { A: g.section.A, E: g.material.E } : null;
-        })
-      : [];
+    const props = (id: string) => {
+      const g = basis.groupOf.get(id);
+      return g ? { A: g.section.A, E: g.material.E } : null;
+    };
+    const deflection = input.deflection ? deflectionCheck(model, analysis, input.deflection, props) : [];
+    const shapes = input.deflection ? deflectedShapes(model, analysis, input.deflection.combinations, props) : [];
     return {
       ...empty,
       en1993: input.standard === 'en1993-1-1' ? { gammaM0: 1.0, gammaM1: 1.0, gammaM2: 1.25, ...basis.en1993 } : null,
@@ -221,6 +227,7 @@ export function runDesign(model: TrussModel, analysis: TrussAnalysis): RunDesign
       })),
       members,
       deflection,
+      shapes,
     };
   } catch (e) {
     if (e instanceof DesignError) return { ...empty, error: { code: e.code, message: e.message } };

@@ -86,4 +86,39 @@ describe('member design in the workspace', () => {
     await page.getByLabel('Design filter').selectOption('failing');
     expect(await table.locator('tbody tr').count()).toBe(failingRows);
   }, 150_000);
+
+  it('draws the deflected shape under the service combination, exaggerated with its scale written', async () => {
+    await page.addStyleTag({ content: 'html { filter: none; }' });
+    const csrf = ((await (await page.request.get(`${running.baseUrl}/api/session`)).json()) as { csrfToken: string }).csrfToken;
+    const view = (await (await page.request.get(`${running.baseUrl}/api/trusses/1/model`)).json()) as TrussModelView;
+    const mid = view.model.joints.find((j) => Math.abs(j.x - 6) < 1e-9 && j.y === 0)!;
+    const saved = await page.request.put(`${running.baseUrl}/api/trusses/1/design`, {
+      headers: { 'X-CSRF-Token': csrf },
+      data: {
+        version: view.version,
+        design: {
+          standard: 'aisc360-16-lrfd',
+          groups: [{ name: 'All', members: 'all', material: { kind: 'grade', grade: 'A992' }, section: { shape: 'rect-hollow', B: 100, H: 100, t: 6 } }],
+          deflection: { joints: [mid.id], combinations: ['1.4D'], limit: 240 },
+        },
+      },
+    });
+    expect(saved.status()).toBe(200);
+    await page.reload();
+    await page.getByRole('tab', { name: 'Runs & results' }).click();
+    await page.getByRole('button', { name: 'Run analysis' }).click();
+    const caption = page.getByTestId('shape-caption');
+    await caption.waitFor({ timeout: 30_000 });
+    const text = (await caption.textContent()) ?? '';
+    expect(text).toMatch(/^Under 1\.4D: movements drawn \d+ × their size; the truss as drawn is dashed\. Largest movement \d+\.\d\d mm at /);
+    // The largest movement is at least the vertical deflection the table gives at midspan.
+    const table = page.getByRole('table', { name: 'Deflections' });
+    const dy = Math.abs(Number((await table.locator('tbody tr td').nth(3).textContent())!.replace('\u2212', '-')));
+    const largest = Number(/Largest movement (\d+\.\d\d) mm/.exec(text)![1]);
+    expect(largest).toBeGreaterThanOrEqual(dy - 0.005);
+    const drawing = page.getByRole('group', { name: 'Deflected shape under 1.4D' });
+    expect(await drawing.locator('line').count()).toBeGreaterThan(0);
+    await drawing.scrollIntoViewIfNeeded();
+    await drawing.screenshot({ path: path.join(shots, 'member-design-deflected-shape.png') });
+  }, 120_000);
 });

@@ -1,5 +1,6 @@
 import type { JointLoad, TrussModel } from '@shared/model/truss';
 import type { JointForce, JointStep } from '@shared/solver';
+import type { DeflectedShape } from '@shared/design/deflected-shape';
 
 /**
  * SVG drawings for the calc sheet: the truss with tags and dimensions, the loads of a case, the
@@ -539,4 +540,57 @@ export function trussBands(model: TrussModel, maxAspect = 6, maxMembers = 30): T
     });
   }
   return bands;
+}
+
+export interface DeflectedShapeSvgOptions {
+  label: string;
+  /** The largest movement as the sheet writes it, e.g. "5.41 mm". */
+  maxText: string;
+}
+
+/**
+ * The deflected shape, exaggerated: the truss as drawn in thin grey dashes, the displaced truss
+ * in ink over it, the joint that moves most marked and labelled, and the exaggeration written
+ * under the drawing so nobody reads it as true to scale.
+ */
+export function deflectedShapeSvg(model: TrussModel, shape: DeflectedShape, options: DeflectedShapeSvgOptions): string {
+  const moved = new Map(shape.joints.map((d) => [d.joint, d]));
+  const displaced = (j: { id: string; x: number; y: number }) => {
+    const d = moved.get(j.id);
+    return { x: j.x + (shape.scale * (d?.ux ?? 0)) / 1000, y: j.y + (shape.scale * (d?.uy ?? 0)) / 1000 };
+  };
+  const after = new Map(model.joints.map((j) => [j.id, displaced(j)]));
+  const before = extentOf(model);
+  const xs = [...after.values()].map((p) => p.x);
+  const ys = [...after.values()].map((p) => p.y);
+  const ext = { minX: Math.min(before.minX, ...xs), maxX: Math.max(before.maxX, ...xs), minY: Math.min(before.minY, ...ys), maxY: Math.max(before.maxY, ...ys) };
+  const frame = frameFit(ext, [24, 40, 56, 40], 360);
+  const byId = new Map(model.joints.map((j) => [j.id, j]));
+  const out: string[] = [svgOpen(frame, options.label, 'deflected-shape')];
+  for (const m of model.members) {
+    const a = byId.get(m.from);
+    const b = byId.get(m.to);
+    if (!a || !b) continue;
+    out.push(`<line x1="${f1(frame.x(a.x))}" y1="${f1(frame.y(a.y))}" x2="${f1(frame.x(b.x))}" y2="${f1(frame.y(b.y))}" stroke="${FAINT}" stroke-width="1.2" stroke-dasharray="5 4"/>`);
+  }
+  for (const m of model.members) {
+    const a = after.get(m.from);
+    const b = after.get(m.to);
+    if (!a || !b) continue;
+    out.push(`<line x1="${f1(frame.x(a.x))}" y1="${f1(frame.y(a.y))}" x2="${f1(frame.x(b.x))}" y2="${f1(frame.y(b.y))}" stroke="${INK}" stroke-width="2.2"/>`);
+  }
+  for (const j of model.joints) {
+    const p = after.get(j.id)!;
+    out.push(`<circle cx="${f1(frame.x(p.x))}" cy="${f1(frame.y(p.y))}" r="2.4" fill="${INK}"/>`);
+  }
+  const most = model.joints.find((j) => j.tag === shape.maxTag);
+  if (most && shape.maxMm > 0) {
+    const p = after.get(most.id)!;
+    out.push(`<circle cx="${f1(frame.x(p.x))}" cy="${f1(frame.y(p.y))}" r="6" fill="none" stroke="${INK}" stroke-width="1.4"/>`);
+    out.push(haloText(frame.x(p.x) + 9, frame.y(p.y) + 18, `${most.tag}: ${options.maxText}`, `font-size="13" fill="${INK}" class="tnum"`));
+  }
+  const caption = shape.scale > 1 ? `Movements drawn ${shape.scale} × their size; the truss as drawn is dashed.` : 'Movements drawn true to size; the truss as drawn is dashed.';
+  out.push(`<text x="${VIEW_W / 2}" y="${f1(frame.height - 14)}" text-anchor="middle" font-size="13" fill="${INK}">${svgEscape(caption)}</text>`);
+  out.push('</svg>');
+  return out.join('');
 }

@@ -35,6 +35,31 @@ describe('sheet view: deflection page', () => {
     expect(Number(t.rows.find((r) => r.cells[0] === 'AC')!.cells[1])).toBeCloseTo(5 / 6, 4);
     expect(t.sum).toBe('Σ = δy = \u22120.63 mm');
     expect(view.cover.contents.map((c) => c.anchor)).toContain('deflection');
+    // The deflected shape: drawn exaggerated with its scale written (span 8000 mm, largest
+    // movement √(0.16² + 0.63²) = 0.65 mm at C: 6 % of the span is ×738, rounded down to ×500).
+    expect(view.deflection.shapes).toHaveLength(1);
+    const svg = view.deflection.shapes[0].svg;
+    expect(svg).toContain('Movements drawn 500 × their size');
+    expect(svg).toContain('C: 0.65 mm');
+    expect(view.deflection.shapesNote).toMatch(/direct stiffness method/);
+  });
+
+  it('a run stored before shapes existed says so instead of drawing nothing', () => {
+    const base = triangleModel(['D']);
+    const C = base.joints.find((j) => j.tag === 'C')!.id;
+    const model = {
+      ...base,
+      design: {
+        standard: 'aisc360-16-lrfd' as const,
+        groups: [{ name: 'All', members: 'all' as const, material: { kind: 'grade' as const, grade: 'A992' }, section: { shape: 'properties' as const, A: 1000, rx: 30, ry: 30 } }],
+        deflection: { joints: [C], combinations: ['D'], limit: 240 },
+      },
+    };
+    const analysis = trussSolve(model);
+    const { shapes: _dropped, ...old } = runDesign(model, analysis)!;
+    const view = buildCalcSheetView(sheetInput(model, { analysis, design: old }));
+    expect(view.deflection.shapes).toEqual([]);
+    expect(view.deflection.shapesNote).toMatch(/run the truss again/);
   });
 
   it('no deflection request, no page', () => {

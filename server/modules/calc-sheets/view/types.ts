@@ -165,6 +165,9 @@ export interface CalcSheetView {
     rows: TableRow[];
     tables: { title: string; rows: TableRow[]; sum: string }[];
     note: string;
+    /** The deflected shape per service combination, exaggerated with its scale written; a sentence when not drawn. */
+    shapes: { title: string; svg: string }[];
+    shapesNote: string | null;
   };
   generatedAt: string;
 }

@@ -10,6 +10,7 @@ import { useTrussModel } from '../api/get-model';
 import { useRecheckDesign } from '../api/recheck-design';
 import { forceDigits } from '../utils/force-format';
 import { BAND_LOOK, designFilterKeep, utilisationBand, utilisationText, type DesignFilter, type UtilisationBand } from '../utils/utilisation-look';
+import { DeflectedShapeView } from './deflected-shape-view';
 import { TrussSvg } from './truss-svg';
 
 /** Infinite values arrive as null (a zero span). */
@@ -141,6 +142,7 @@ export function DesignResults({ run, unitSystem, mayRun }: { run: RunView; unitS
             <DesignTable rows={rows} unitSystem={unitSystem} picked={shown?.member ?? null} onPick={setPicked} />
             {shown && <MemberSteps member={shown} />}
             {design.deflection.length > 0 && <Deflections run={run} />}
+            {design.deflection.length > 0 && <DeflectedShapeView model={model} shapes={design.shapes} />}
           </>
         )}
       </div>
