@@ -23,7 +23,7 @@ import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
 import { importPoolCreate } from './modules/drawings/import-pool';
-import { localFileStore } from './storage/file-store';
+import type { FileStores } from './storage/stores';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
 import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
@@ -40,6 +40,8 @@ export interface AppDeps {
   sessionSecret: string;
   /** The firm's signing keys, opened at start (bootstrap.ts: signingKeysOpen). */
   signingKeys: SigningKeys;
+  /** Where drawings and issued sheets are kept (bootstrap.ts: fileStoresOpen, as STORAGE_URL says). */
+  stores: Pick<FileStores, 'drawings' | 'sheets'>;
   /** Where the built client lives; served when present. */
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
@@ -138,11 +140,11 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));
   app.use('/api', projectsRoutes(registry));
-  const uploads = localFileStore(config.uploadsDir);
+  const uploads = deps.stores.drawings;
   // Drawings are parsed and imported in a worker thread with a time limit, so a hostile file
   // cannot hold the main thread (and everyone's requests) while it explodes.
   const importPool = importPoolCreate({ size: config.importWorkers, memoryMb: config.importMemoryMb });
-  app.use('/api', drawingsRoutes(registry, { store: uploads, pool: importPool, uploadsDir: config.uploadsDir, maxUploadBytes: config.maxUploadBytes }));
+  app.use('/api', drawingsRoutes(registry, { store: uploads, pool: importPool, maxUploadBytes: config.maxUploadBytes }));
   app.use('/api', modelsRoutes(registry));
   app.use('/api', takeoffRoutes(registry));
   const solvePool = solvePoolCreate();
@@ -150,7 +152,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
   app.use('/api', calcSheetsRoutes(registry, { printer }));
-  const issuedSheets = localFileStore(path.join(config.dataDir, 'issued-sheets'));
+  const issuedSheets = deps.stores.sheets;
   app.use(
     '/api',
     sheetRevisionsRoutes(registry, {

@@ -13,7 +13,8 @@ import { chromiumLeftoversSweep, type SheetPrinter } from './modules/calc-sheets
 import { seedDemo } from './seed/demo';
 import { firstAdminLink } from './modules/users/first-admin';
 import { runsFailInterrupted } from './modules/runs/runs.service';
-import { localFileStore } from './storage/file-store';
+import type { FileStore } from './storage/file-store';
+import { fileStoresOpen, type FileStores } from './storage/stores';
 import { signingKeysOpen, type SigningKeys } from './modules/records/signing-keys';
 import { auditChainSealExisting } from './modules/records/audit-chain';
 import { sweepOrphans, tightenModes } from './storage/file-hygiene';
@@ -23,15 +24,17 @@ export const ORPHAN_GRACE_MS = 60 * 60 * 1000;
 const SWEEP_EVERY_MS = 60 * 60 * 1000;
 
 /**
- * Removes uploads no drawing row names (left by a request that died between multer's write and
- * the row) and `.part` files of interrupted writes, in the uploads folder and the issued-sheets
- * folder. Issued sheets are never swept by row: a PDF there is only ever removed by hand.
+ * Removes uploads no drawing row names (left by a request that died between the store's write
+ * and the row) and `.part` files of interrupted writes, among the drawings and the issued
+ * sheets, in the local folders or the object store alike. Issued sheets are never swept by
+ * row: a stored sheet is only ever removed by hand.
  */
-export async function sweepLeftovers(config: Config, say: (m: string) => void, graceMs = ORPHAN_GRACE_MS): Promise<string[]> {
+export async function sweepLeftovers(stores: Pick<FileStores, 'drawings' | 'sheets'>, say: (m: string) => void, graceMs = ORPHAN_GRACE_MS): Promise<string[]> {
   const drawings = new Set((await Drawing.findAll({ attributes: ['storedName'], raw: true })).map((d) => d.storedName));
-  const uploads = await sweepOrphans({ dir: config.uploadsDir, isReferenced: (n) => drawings.has(n), graceMs });
-  const sheets = await sweepOrphans({ dir: path.join(config.dataDir, 'issued-sheets'), isReferenced: (n) => !n.endsWith('.part'), graceMs });
-  const removed = [...uploads.removed.map((n) => path.join(config.uploadsDir, n)), ...sheets.removed.map((n) => path.join(config.dataDir, 'issued-sheets', n))];
+  const uploads = await sweepOrphans({ store: stores.drawings, isReferenced: (n) => drawings.has(n), graceMs });
+  const sheets = await sweepOrphans({ store: stores.sheets, isReferenced: (n) => !n.endsWith('.part'), graceMs });
+  const at = (store: FileStore, key: string) => (store.where.endsWith('/') ? `${store.where}${key}` : path.join(store.where, key));
+  const removed = [...uploads.removed.map((n) => at(stores.drawings, n)), ...sheets.removed.map((n) => at(stores.sheets, n))];
   if (removed.length) say(`Removed ${removed.length} file(s) left behind by interrupted uploads or writes: ${removed.join(', ')}`);
   const kept = uploads.kept.length + sheets.kept.length;
   if (kept) say(`Kept ${kept} unreferenced upload(s) younger than ${Math.round(graceMs / 60000)} minutes for now (perhaps another server process's upload in progress); the next sweep looks again.`);
@@ -43,6 +46,8 @@ export interface Services extends CreatedApp {
   sequelize: Sequelize;
   mailer: Mailer;
   signingKeys: SigningKeys;
+  /** Where drawings and issued sheets are kept. */
+  stores: FileStores;
   sink?: SmtpSink;
   shutdown(): Promise<void>;
 }
@@ -67,24 +72,34 @@ export async function startServices(config: Config, options: { clientDir?: strin
   }
   // tsx turns source maps on; production turns them off again (see SOURCE_MAPS in config.ts).
   process.setSourceMapsEnabled(config.sourceMaps);
-  const sequelize = await openDatabase(config.databaseStorage);
+  // First, before anything is written: an object store that is not there, or refuses the
+  // credentials, stops the start with one sentence naming the variable (HeadBucket).
+  const stores = await fileStoresOpen(config);
+  let sequelize: Sequelize;
+  try {
+    sequelize = await openDatabase(config.databaseStorage);
+  } catch (err) {
+    stores.close();
+    throw err;
+  }
   await migrate(sequelize);
   initModels(sequelize);
-  fs.mkdirSync(config.uploadsDir, { recursive: true, mode: 0o700 });
-  // Folders 0700, files 0600, including files an older version wrote with the default mode.
+  // The local folders (none on an object store): 0700, files 0600, including files an older
+  // version wrote with the default mode. The issued-sheets folder is made at its first write.
+  if (stores.kind === 'local') fs.mkdirSync(config.uploadsDir, { recursive: true, mode: 0o700 });
   if (config.databaseStorage !== ':memory:') {
-    const tightened = await tightenModes([config.dataDir, path.join(config.dataDir, 'issued-sheets'), config.uploadsDir]);
+    const tightened = await tightenModes([config.dataDir, ...stores.folders]);
     if (tightened) say(`Made ${tightened} file(s) and folder(s) in the data and uploads folders readable by this user only (files 0600, folders 0700).`);
-  } else {
+  } else if (stores.kind === 'local') {
     await tightenModes([config.uploadsDir]);
   }
   await runsFailInterrupted();
-  await sweepLeftovers(config, say);
+  await sweepLeftovers(stores, say);
   const sweeper = setInterval(() => {
-    sweepLeftovers(config, say).catch((err) => say(`Sweeping left-over uploads failed: ${err instanceof Error ? err.message : String(err)}`));
+    sweepLeftovers(stores, say).catch((err) => say(`Sweeping left-over uploads failed: ${err instanceof Error ? err.message : String(err)}`));
   }, SWEEP_EVERY_MS);
   sweeper.unref();
-  if (config.seedDemo) await seedDemo(config.bcryptRounds, localFileStore(config.uploadsDir));
+  if (config.seedDemo) await seedDemo(config.bcryptRounds, stores.drawings);
   // Refuses to start (one sentence naming the file and how to restore it) when issued sheets
   // exist and the key file is missing or holds another key; never silently makes a new one.
   let signingKeys;
@@ -92,6 +107,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     signingKeys = await signingKeysOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
   } catch (err) {
     await sequelize.close();
+    stores.close();
     throw err;
   }
   await auditChainSealExisting(sequelize);
@@ -117,6 +133,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     mailer,
     sessionSecret: sessionSecretFor(config),
     signingKeys,
+    stores,
     clientDir: options.clientDir,
     log: options.log,
     review: options.review,
@@ -128,12 +145,14 @@ export async function startServices(config: Config, options: { clientDir?: strin
     sequelize,
     mailer,
     signingKeys,
+    stores,
     sink,
     async shutdown() {
       clearInterval(sweeper);
       await created.close();
       await sink?.close();
       await sequelize.close();
+      stores.close();
     },
   };
 }

@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import type { S3StorageConfig } from './storage/s3-store';
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -39,6 +40,13 @@ const envSchema = z.object({
    * every frame (a fifth of the server's CPU time under load, measured with bench:api).
    */
   SOURCE_MAPS: z.enum(['true', 'false']).optional(),
+  /** Unset: drawings in UPLOADS_DIR and issued sheets in DATA_DIR. s3://bucket[/prefix]: an S3-compatible object store. */
+  STORAGE_URL: z.string().optional(),
+  /** Another S3-compatible service than AWS, e.g. http://127.0.0.1:9000 (path-style addresses). */
+  S3_ENDPOINT: z.string().optional(),
+  S3_REGION: z.string().optional(),
+  AWS_ACCESS_KEY_ID: z.string().optional(),
+  AWS_SECRET_ACCESS_KEY: z.string().optional(),
 });
 
 export interface Config {
@@ -66,7 +74,11 @@ export interface Config {
   importMemoryMb: number;
   /** Map stack traces to the TypeScript sources (process.setSourceMapsEnabled). */
   sourceMaps: boolean;
+  /** Where drawings and issued sheets are kept (STORAGE_URL): the local folders or an S3 bucket. */
+  storage: StorageConfig;
 }
+
+export type StorageConfig = { kind: 'local' } | S3StorageConfig;
 
 /** Reads the environment once at start-up; a bad value stops the server with a clear line. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -101,6 +113,46 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     importWorkers: e.IMPORT_WORKERS,
     importMemoryMb: e.IMPORT_MEMORY_MB,
     sourceMaps: e.SOURCE_MAPS ? e.SOURCE_MAPS === 'true' : e.NODE_ENV !== 'production',
+    storage: parseStorage(e),
+  };
+}
+
+/**
+ * STORAGE_URL and the S3 variables, each fault as one sentence naming the variable. Bucket
+ * names follow Amazon S3's general purpose bucket naming rules (3 to 63 characters; lowercase
+ * letters, digits, dots and hyphens; a letter or digit first and last; no two dots together).
+ */
+export function parseStorage(e: { STORAGE_URL?: string; S3_ENDPOINT?: string; S3_REGION?: string; AWS_ACCESS_KEY_ID?: string; AWS_SECRET_ACCESS_KEY?: string }): StorageConfig {
+  const url = e.STORAGE_URL?.trim();
+  if (!url) return { kind: 'local' };
+  const m = /^s3:\/\/([^/]+)(?:\/(.*))?$/.exec(url);
+  if (!m) throw new Error(`Configuration: STORAGE_URL must look like s3://bucket or s3://bucket/prefix (or be unset for the local folders), not "${url}".`);
+  const bucket = m[1];
+  if (!/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/.test(bucket) || bucket.includes('..') || /^\d+\.\d+\.\d+\.\d+$/.test(bucket)) {
+    throw new Error(
+      `Configuration: the bucket "${bucket}" in STORAGE_URL is not a valid bucket name (3 to 63 lowercase letters, digits, dots or hyphens, starting and ending with a letter or digit, not an IP address).`,
+    );
+  }
+  const prefix = (m[2] ?? '').replace(/^\/+|\/+$/g, '');
+  if (prefix && (!/^[A-Za-z0-9._\/-]+$/.test(prefix) || prefix.split('/').some((p) => p === '' || p === '.' || p === '..'))) {
+    throw new Error(`Configuration: the prefix "${prefix}" in STORAGE_URL may hold only letters, digits, ".", "_", "-" and single "/" between parts.`);
+  }
+  const endpoint = e.S3_ENDPOINT?.trim() || undefined;
+  if (endpoint && !/^https?:\/\/[^/\s]+/.test(endpoint)) {
+    throw new Error(`Configuration: S3_ENDPOINT must be an http:// or https:// address such as http://127.0.0.1:9000, not "${endpoint}".`);
+  }
+  const accessKeyId = e.AWS_ACCESS_KEY_ID || undefined;
+  const secretAccessKey = e.AWS_SECRET_ACCESS_KEY || undefined;
+  if (accessKeyId && !secretAccessKey) throw new Error('Configuration: AWS_ACCESS_KEY_ID is set but AWS_SECRET_ACCESS_KEY is not; set both, or neither to use the SDK\'s own credential sources.');
+  if (secretAccessKey && !accessKeyId) throw new Error('Configuration: AWS_SECRET_ACCESS_KEY is set but AWS_ACCESS_KEY_ID is not; set both, or neither to use the SDK\'s own credential sources.');
+  return {
+    kind: 's3',
+    bucket,
+    prefix: prefix ? `${prefix}/` : '',
+    endpoint,
+    region: e.S3_REGION?.trim() || 'us-east-1',
+    accessKeyId,
+    secretAccessKey,
   };
 }
 

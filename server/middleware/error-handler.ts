@@ -59,6 +59,17 @@ function toAppError(err: unknown): AppError | null {
     const status = e.code === 'print-timeout' ? 504 : e.code === 'print-queue-full' ? 429 : 503;
     return new AppError(e.code as string, (e as Error).message, status);
   }
+  // the file store (local folder or object store)
+  if (e && (e as Error).name === 'FileStoreUnavailableError') {
+    return new AppError(
+      'file-store-unavailable',
+      `${(e as Error).message.replace(/\.$/, '')}, so nothing was read or stored; try again in a minute, and tell your admin if it keeps happening.`,
+      503,
+    );
+  }
+  if (e && (e as Error).name === 'StoredFileMissingError') {
+    return new AppError('stored-file-missing', 'A stored file this request needs is missing; ask your admin to restore it from backup.', 409);
+  }
   // multer failures
   if (e?.code === 'LIMIT_FILE_SIZE') {
     return new AppError('file-too-large', 'The file is larger than the upload limit. Send a smaller file or ask your admin to raise MAX_UPLOAD_MB.', 413);

@@ -1,6 +1,5 @@
 import bcrypt from 'bcryptjs';
 import type { Role } from '@shared/schemas/auth.schema';
-import crypto from 'node:crypto';
 import { Firm, Project, Truss, User } from '../db/models';
 import type { FileStore } from '../storage/file-store';
 import { uploadDrawing } from '../modules/drawings/drawings.service';
@@ -48,10 +47,8 @@ export async function seedDemo(bcryptRounds: number, uploads: FileStore): Promis
   // T1 arrives with its drawing, uploaded by the demo drafter, as the start of the journeys.
   const drafter = users.find((u) => u.role === 'drafter')!;
   const bytes = Buffer.from(demoTrussDxf(), 'latin1');
-  const storedName = `${crypto.randomBytes(16).toString('hex')}.dxf`;
-  await uploads.write(storedName, bytes);
   await uploadDrawing(
-    { trussId: t1.id, file: { storedName, originalName: 'KL-T1-roof-truss.dxf', size: bytes.length }, fields: { layers: '["CHORDS","WEBS"]' }, userId: drafter.id },
+    { trussId: t1.id, file: { bytes, originalName: 'KL-T1-roof-truss.dxf' }, fields: { layers: '["CHORDS","WEBS"]' }, userId: drafter.id },
     // Our own drawing: read on this thread, before the app's import workers exist.
     { store: uploads, pool: importInline() },
   );

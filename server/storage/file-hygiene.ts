@@ -1,10 +1,11 @@
 import fs from 'node:fs/promises';
 import path from 'node:path';
+import type { FileStore } from './file-store';
 
 /**
  * Start-up care of the folders the server writes to: folders 0700 and files 0600 (readable by
  * the server's user only, also for files an older version wrote with the default 0644), and
- * the sweep of uploads a crash left behind.
+ * the sweep of uploads a crash left behind (in the local folders or the object store).
  */
 
 /**
@@ -49,36 +50,29 @@ export interface SweepResult {
 }
 
 /**
- * Removes files in `dir` (not in its sub-folders) that no database row names: an upload whose
- * request died between multer writing the file and the drawing row being stored, or a `.part`
- * file of a write that never got renamed. A file younger than `graceMs` is left alone, since a
- * second server process on the same folder may be about to store its row.
+ * Removes objects of a store that no database row names: an upload whose request died between
+ * the store's write and the drawing row, or (local folder only) a `.part` file of a write that
+ * never got renamed. One younger than `graceMs` is left alone, since a second server process on
+ * the same store may be about to write its row. On an object store the same sweep runs over the
+ * bucket's listing: a PUT is stored whole, so there is never a `.part`, but an object whose row
+ * was never written is found and removed the same way.
  */
 export async function sweepOrphans(options: {
-  dir: string;
-  isReferenced: (name: string) => boolean;
+  store: FileStore;
+  isReferenced: (key: string) => boolean;
   graceMs: number;
   now?: number;
 }): Promise<SweepResult> {
   const now = options.now ?? Date.now();
   const result: SweepResult = { removed: [], kept: [] };
-  let entries;
-  try {
-    entries = await fs.readdir(options.dir, { withFileTypes: true });
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return result;
-    throw err;
-  }
-  for (const entry of entries) {
-    if (!entry.isFile() || options.isReferenced(entry.name)) continue;
-    const at = path.join(options.dir, entry.name);
-    const stat = await fs.stat(at);
-    if (now - stat.mtimeMs < options.graceMs) {
-      result.kept.push(entry.name);
+  for await (const entry of options.store.list()) {
+    if (options.isReferenced(entry.key)) continue;
+    if (now - entry.modifiedAt.getTime() < options.graceMs) {
+      result.kept.push(entry.key);
       continue;
     }
-    await fs.rm(at, { force: true });
-    result.removed.push(entry.name);
+    await options.store.delete(entry.key);
+    result.removed.push(entry.key);
   }
   return result;
 }

@@ -45,7 +45,7 @@ describe('files Panelpoint writes are readable by its own user only', () => {
     const up = await drafter.agent.post(`/api/trusses/${truss.body.id}/drawings`).set('X-CSRF-Token', drafter.csrf).attach('file', dxf, 'modes.dxf');
     expect(up.status).toBe(201);
     // An issued sheet is written through the same store the sheet-revision service uses.
-    await localFileStore(path.join(file.dataDir, 'issued-sheets')).write('probe.pdf', tinyPdf(['mode probe']));
+    await localFileStore(path.join(file.dataDir, 'issued-sheets')).put('probe.pdf', tinyPdf(['mode probe']));
 
     const db = file.databaseStorage;
     const expected = [db, `${db}-wal`, `${db}-shm`, path.join(file.dataDir, 'session-secret'), path.join(file.dataDir, FIRM_KEY_FILE), path.join(file.dataDir, 'issued-sheets', 'probe.pdf')];

@@ -1,21 +1,21 @@
+import { pipeline } from 'node:stream/promises';
 import multer from 'multer';
 import { reimportSchema } from '@shared/schemas/drawing.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import { AppError } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
-import { privateDiskStorage } from '../../storage/private-disk-storage';
 import * as drawings from './drawings.service';
 import type { ImportPool } from './import-pool';
 
 const UPLOADERS = ['drafter', 'engineer'] as const;
 
-export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; pool: ImportPool; uploadsDir: string; maxUploadBytes: number }) {
+export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; pool: ImportPool; maxUploadBytes: number }) {
   const routes = new ApiRoutes('/api', registry);
   const upload = multer({
-    // Generated names only (the user's file name is kept in the database, never on disk),
-    // created with mode 0600.
-    storage: privateDiskStorage(deps.uploadsDir, '.dxf'),
+    // Held in memory (at most MAX_UPLOAD_MB) while the drawing is read; only a drawing that is
+    // kept goes to the store, under a generated key (the user's file name stays in the database).
+    storage: multer.memoryStorage(),
     limits: { fileSize: deps.maxUploadBytes, files: 1, fields: 10 },
   });
 
@@ -29,7 +29,7 @@ export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; 
     const view = await drawings.uploadDrawing(
       {
         trussId: idParam(req.params.id, 'That truss'),
-        file: { storedName: req.file.filename, originalName: req.file.originalname, size: req.file.size },
+        file: { bytes: req.file.buffer, originalName: req.file.originalname },
         fields: req.body ?? {},
         userId: req.user!.id,
       },
@@ -44,8 +44,10 @@ export function drawingsRoutes(registry: RouteSpec[], deps: { store: FileStore; 
     res.json(await drawings.reimportDrawing(idParam(req.params.id, 'That drawing'), req.body, req.user!.id, deps));
   });
   routes.add('get', '/drawings/:id/file', ANY_ROLE, async (req, res) => {
-    const { bytes, name } = await drawings.getDrawingFile(idParam(req.params.id, 'That drawing'), deps.store);
-    res.attachment(name).type('application/dxf').send(bytes);
+    const { stream, name } = await drawings.getDrawingFile(idParam(req.params.id, 'That drawing'), deps.store);
+    res.attachment(name).type('application/dxf');
+    // A store that fails mid-file ends the response; the client sees a cut-off download.
+    await pipeline(stream, res).catch(() => res.destroy());
   });
   return routes.router;
 }

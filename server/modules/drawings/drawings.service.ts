@@ -6,15 +6,14 @@ import type { TrussModel } from '@shared/model/truss';
 import { AppError, notFound } from '../../errors/app-error';
 import { validationError } from '../../middleware/error-handler';
 import { Drawing, TrussModelRecord, User } from '../../db/models';
-import type { FileStore } from '../../storage/file-store';
+import { StoredFileMissingError, type FileStore } from '../../storage/file-store';
 import { getTruss } from '../projects/projects.service';
 import { getImportLimits } from '../firm/import-limits.service';
 import { ImportPoolClosedError, type ImportOutcome, type ImportPool } from './import-pool';
 
 export interface UploadedFile {
-  storedName: string;
+  bytes: Buffer;
   originalName: string;
-  size: number;
 }
 
 /** Multipart fields arrive as strings; layers as a JSON array or repeated fields. */
@@ -117,22 +116,26 @@ async function readInWorker(bytes: Buffer, options: DxfImportOptions, listLayers
 }
 
 /**
- * Stores an uploaded DXF as the truss's next drawing version and imports it. A file that is
- * not an ASCII DXF is refused and removed; a DXF whose import fails (units not given, no
- * lines on the layers) is kept as a failed version the user can re-import with other options.
+ * Reads an uploaded DXF and stores it as the truss's next drawing version. A file that is not
+ * an ASCII DXF, or a drawing with a fault of its own, is refused before anything is stored; a
+ * DXF whose import fails for options (units not given, no lines on the layers) is kept as a
+ * failed version the user can re-import with other options. The bytes go to the store under a
+ * generated key only once they are to be kept; if the row then cannot be written the object is
+ * removed again (a crash in between leaves an object the start-up sweep removes).
  */
 export async function uploadDrawing(
   input: { trussId: number; file: UploadedFile; fields: Record<string, unknown>; userId: number },
   { store, pool }: DrawingDeps,
 ): Promise<DrawingView> {
+  await getTruss(input.trussId);
+  const options = parseUploadOptions(input.fields);
+  const bytes = input.file.bytes;
+  const sha256 = crypto.createHash('sha256').update(bytes).digest('hex');
+  const outcome = await readInWorker(bytes, options, true, pool);
+  const layers = outcome.layers ?? [];
+  const storedName = `${crypto.randomBytes(16).toString('hex')}.dxf`;
+  await store.put(storedName, bytes);
   try {
-    await getTruss(input.trussId);
-    const options = parseUploadOptions(input.fields);
-    const bytes = await store.read(input.file.storedName);
-    const sha256 = crypto.createHash('sha256').update(bytes).digest('hex');
-    const outcome = await readInWorker(bytes, options, true, pool);
-    const layers = outcome.layers ?? [];
-
     const sequelize = Drawing.sequelize!;
     const drawing = await sequelize.transaction(async (transaction) => {
       const latest = (await Drawing.max('version', { where: { trussId: input.trussId }, transaction })) as number | null;
@@ -141,8 +144,8 @@ export async function uploadDrawing(
           trussId: input.trussId,
           version: (latest ?? 0) + 1,
           originalName: input.file.originalName.slice(0, 255),
-          storedName: input.file.storedName,
-          size: input.file.size,
+          storedName,
+          size: bytes.length,
           sha256,
           status: outcome.status,
           options: JSON.stringify(options),
@@ -159,16 +162,34 @@ export async function uploadDrawing(
     });
     return toDrawingView(drawing);
   } catch (err) {
-    await store.remove(input.file.storedName);
+    await store.delete(storedName).catch(() => {});
     throw err;
   }
+}
+
+/** The stored bytes of a drawing version; a missing object is one sentence, not a 500. */
+async function storedDrawing(drawing: Drawing, store: FileStore): Promise<Buffer> {
+  try {
+    return await store.get(drawing.storedName);
+  } catch (err) {
+    if (err instanceof StoredFileMissingError) throw drawingFileMissing(drawing, store);
+    throw err;
+  }
+}
+
+function drawingFileMissing(drawing: Drawing, store: FileStore): AppError {
+  return new AppError(
+    'drawing-file-missing',
+    `The file of drawing version ${drawing.version} is missing from ${store.label}; ask your admin to restore it from backup, or upload the drawing again.`,
+    409,
+  );
 }
 
 /** Imports a stored drawing again with other options; the original bytes are untouched. */
 export async function reimportDrawing(id: number, options: DxfImportOptions, userId: number, { store, pool }: DrawingDeps): Promise<DrawingView> {
   const drawing = await Drawing.findByPk(id);
   if (!drawing) throw notFound('That drawing');
-  const outcome = await readInWorker(await store.read(drawing.storedName), options, false, pool);
+  const outcome = await readInWorker(await storedDrawing(drawing, store), options, false, pool);
   if (outcome.status === 'failed') {
     // Nothing is written: the last good import stays as it was.
     throw new AppError(outcome.error.code, outcome.error.message, 422);
@@ -218,10 +239,15 @@ export async function getDrawing(id: number): Promise<DrawingView> {
   return toDrawingView(drawing);
 }
 
-export async function getDrawingFile(id: number, store: FileStore): Promise<{ bytes: Buffer; name: string }> {
+export async function getDrawingFile(id: number, store: FileStore): Promise<{ stream: import('node:stream').Readable; name: string }> {
   const drawing = await Drawing.findByPk(id);
   if (!drawing) throw notFound('That drawing');
-  return { bytes: await store.read(drawing.storedName), name: drawing.originalName };
+  try {
+    return { stream: await store.getStream(drawing.storedName), name: drawing.originalName };
+  } catch (err) {
+    if (err instanceof StoredFileMissingError) throw drawingFileMissing(drawing, store);
+    throw err;
+  }
 }
 
 async function userName(id: number | null): Promise<string> {

@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import { sheetRevisionLabel, type ArchiveEntryView } from '@shared/schemas/review.schema';
 import { AppError, notFound } from '../../errors/app-error';
-import type { FileStore } from '../../storage/file-store';
+import { StoredFileMissingError, type FileStore } from '../../storage/file-store';
 import { issuedSigners } from './issued-record';
 import { recordsRepository as repo, type RevisionRow, type TrussContext } from './records.repository';
 
@@ -26,9 +26,11 @@ export async function getIssuedPdf(id: number, store: FileStore): Promise<{ byte
   }
   let bytes: Buffer;
   try {
-    bytes = await store.read(row.pdfStoredName);
-  } catch {
-    throw new AppError('archived-file-missing', `The archived file of revision ${sheetRevisionLabel(row.number)} is missing from the data folder; restore it from backup.`, 409);
+    bytes = await store.get(row.pdfStoredName);
+  } catch (err) {
+    // Only a missing object is "missing"; a store that does not answer is its own 503.
+    if (!(err instanceof StoredFileMissingError)) throw err;
+    throw new AppError('archived-file-missing', `The archived file of revision ${sheetRevisionLabel(row.number)} is missing from ${store.label}; restore it from backup.`, 409);
   }
   // Served only if it still is the file that was issued: its SHA-256 against the record's.
   if (crypto.createHash('sha256').update(bytes).digest('hex') !== row.sha256) {

@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import type { SheetVerifyView } from '@shared/schemas/review.schema';
 import { AppError } from '../../errors/app-error';
-import type { FileStore } from '../../storage/file-store';
+import { StoredFileMissingError, type FileStore } from '../../storage/file-store';
 import { archiveEntry, labelsOf } from './archive.service';
 import { issuedRecordVerify } from './issued-record';
 import { recordsRepository as repo, type RevisionRow } from './records.repository';
@@ -54,10 +54,11 @@ export async function verifyPdf(bytes: Buffer, deps: { keys: SigningKeys; sheets
 async function archivedFileState(row: RevisionRow, store: FileStore): Promise<'intact' | 'altered' | 'missing'> {
   if (!row.pdfStoredName) return 'missing';
   try {
-    const stored = await store.read(row.pdfStoredName);
+    const stored = await store.get(row.pdfStoredName);
     return crypto.createHash('sha256').update(stored).digest('hex') === row.sha256 ? 'intact' : 'altered';
-  } catch {
-    return 'missing';
+  } catch (err) {
+    if (err instanceof StoredFileMissingError) return 'missing';
+    throw err;
   }
 }
 

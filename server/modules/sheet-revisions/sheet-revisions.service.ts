@@ -205,7 +205,7 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
   };
   const record = issuedRecordText(issued);
   const signature = key.sign(record);
-  await deps.sheets.write(storedName, pdf);
+  await deps.sheets.put(storedName, pdf);
   let moved = false;
   try {
     moved = await repo.transition(row.id, 'checked', 'issued', actor.id, note, {
@@ -220,7 +220,7 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
       keyFingerprint: key.fingerprint,
     });
   } finally {
-    if (!moved) await deps.sheets.remove(storedName);
+    if (!moved) await deps.sheets.delete(storedName);
   }
   return { moved, sha256 };
 }
