@@ -2,27 +2,31 @@
  * npm run bench:api — the API under load on loopback, against a real SQLite file (WAL) in a
  * temp folder, as one office server would run it.
  *
- * Seeds the demo firm plus 60 projects of 4 trusses (an invented office's year of jobs),
- * 40 issued sheet revisions for the archive, and the demo drawing imported on two trusses for
- * the writers. Then, with autocannon at 50 connections for DURATION seconds each (after a
- * 2 s warm-up), one signed-in engineer's cookie on every connection:
+ * The server runs in a child process of its own (bench/api-server.ts), so the load generator
+ * and the writers, here in the parent, never count in the server's latency or CPU. The child
+ * seeds the demo firm plus 60 projects of 4 trusses and 40 issued sheet revisions; the parent
+ * imports the demo drawing on two trusses for the writers. Then, with autocannon at 50
+ * connections for DURATION seconds each (after a 2 s warm-up), one signed-in engineer's cookie
+ * on every connection:
  *   GET /api/projects, GET /api/trusses/:id/model, GET /api/archive
  * each alone and again while two writers (two other engineers' sessions) save their trusses'
  * models back to back (GET the model, PUT it with its version). Prints req/s, p50, p97.5, p99
- * and max latency, non-2xx answers, the main thread's CPU time per request, and the writers'
- * saves per second and failures.
- * Asserts nothing. Usage: npm run bench:api [-- seconds]   (default 8)
+ * and max latency, non-2xx answers, the server's CPU time per request (its main thread, and the
+ * whole process with the SQLite driver's threads), and the writers' saves per second and failures.
+ * Asserts nothing.
+ * Usage: npm run bench:api [-- seconds]   (default 8)
+ *   BENCH_CPU_PROF=folder  writes the server's V8 CPU profile there (node --cpu-prof); read its
+ *                          top self-time functions with `node bench/cpu-profile-top.mjs FILE`.
  */
 import fs from 'node:fs';
 import os from 'node:os';
-import type { AddressInfo } from 'node:net';
+import path from 'node:path';
+import { fork } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
-import { loadConfig } from '../server/config';
-import { startServices } from '../server/bootstrap';
-import { Project, Truss, User, SheetRevision } from '../server/db/models';
 import { demoTrussDxf } from '../server/seed/demo-drawing';
 import { DEMO_PASSWORD } from '../server/seed/demo';
-import { tempDataDir } from '../tests/support/test-services';
+import type { BenchServerReady } from './api-server';
 
 const DURATION = Number(process.argv[2] ?? 8);
 const CONNECTIONS = 50;
@@ -49,62 +53,15 @@ async function signIn(base: string, email: string): Promise<Session> {
   return { cookie: [...jar.values()].join('; '), csrf: body.csrfToken };
 }
 
-async function seed(base: string, engineer: Session, drafter: Session): Promise<{ modelTruss: number; writerTrusses: [number, number] }> {
-  const eng = await User.findOne({ where: { role: 'engineer' } });
-  for (let p = 0; p < 60; p++) {
-    const project = await Project.create({
-      name: `Bench job ${p + 1} — ${['depot roof', 'school hall', 'farm shed', 'retail canopy'][p % 4]}`,
-      jobNumber: `BJ-${String(1000 + p)}`,
-      client: `Client ${p % 17} (invented)`,
-      site: `Plot ${p + 3}, Bench Road`,
-      designBasis: 'Invented project for the API benchmark.',
-      unitSystem: p % 5 === 0 ? 'US' : 'SI',
-      createdById: eng!.id,
-    });
-    for (let t = 0; t < 4; t++) await Truss.create({ projectId: project.id, name: `T${t + 1}` });
-  }
-  const trusses = await Truss.findAll({ order: [['id', 'ASC']] });
-  // The archive: issued revisions straight into the table (printing 40 sheets is bench:sheet's job).
-  for (let i = 0; i < 40; i++) {
-    const truss = trusses[5 + i];
-    // Inserted as a draft and then moved to issued, as the database's guards require.
-    const row = await SheetRevision.create({
-      trussId: truss.id,
-      runId: 1,
-      number: 1,
-      status: 'draft',
-      preparedById: eng!.id,
-      preparedByName: 'Eli Marsh',
-      lastActorId: eng!.id,
-      lastNote: '',
-    } as never);
-    await row.update({
-      status: 'issued',
-      checkedById: eng!.id,
-      issuedById: eng!.id,
-      checkedByName: 'Rosa Quint',
-      issuedByName: 'Eli Marsh',
-      submittedAt: new Date(),
-      checkedAt: new Date(),
-      issuedAt: new Date(Date.now() - i * 3600_000),
-      pdfStoredName: `bench-${i}.pdf`,
-      pdfSize: 120_000 + i,
-      sha256: i.toString(16).padStart(2, '0').repeat(32),
-      signedRecord: '{}',
-      signature: 'ab'.repeat(32),
-      keyFingerprint: 'cd'.repeat(32),
-    } as never);
-  }
-  const writerTrusses: [number, number] = [trusses[1].id, trusses[2].id];
-  for (const id of writerTrusses) {
+/** The demo drawing imported on the writers' trusses, so they have models to save. */
+async function uploadDrawings(base: string, drafter: Session, trussIds: number[]): Promise<void> {
+  for (const id of trussIds) {
     const form = new FormData();
     form.set('layers', '["CHORDS","WEBS"]');
     form.set('file', new Blob([Buffer.from(demoTrussDxf(), 'latin1')]), 'bench.dxf');
     const res = await fetch(`${base}/api/trusses/${id}/drawings`, { method: 'POST', headers: { cookie: drafter.cookie, 'x-csrf-token': drafter.csrf }, body: form });
     if (res.status !== 201) throw new Error(`upload for the writers: ${res.status} ${await res.text()}`);
   }
-  void engineer;
-  return { modelTruss: trusses[0].id, writerTrusses };
 }
 
 /** Saves one truss's model back to back until stopped; counts saves and failures. */
@@ -145,34 +102,58 @@ function writer(base: string, s: Session, trussId: number) {
 }
 
 async function load(url: string, cookie: string, seconds: number) {
-  // The load comes from a worker thread of its own, so it does not share the server's event loop.
-  return autocannon({ url, connections: CONNECTIONS, duration: seconds, headers: { cookie }, workers: 1 });
+  return autocannon({ url, connections: CONNECTIONS, duration: seconds, headers: { cookie } });
 }
 
 const fmt = (n: number, w = 8) => String(Math.round(n)).padStart(w);
 
 /**
- * CPU time of the server's main thread so far, ms (Linux: /proc/self/task/<pid>/stat, utime +
- * stime in clock ticks of 10 ms). On a shared machine latencies swing with the load; the main
- * thread's CPU time per request does not, so it is the figure to compare before and after.
+ * CPU time of the server so far, ms: its main thread (/proc/<pid>/task/<pid>/stat) and the
+ * whole process (/proc/<pid>/stat: the SQLite driver's threads too); utime + stime in clock
+ * ticks of 10 ms. On a shared machine latencies swing with the load; CPU time per request does
+ * not, so it is the figure to compare before and after.
  */
-function mainThreadCpuMs(): number {
-  const stat = fs.readFileSync(`/proc/self/task/${process.pid}/stat`, 'utf8');
-  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-  return (Number(fields[11]) + Number(fields[12])) * 10;
+function cpuMs(pid: number): { main: number; process: number } {
+  const read = (file: string) => {
+    const stat = fs.readFileSync(file, 'utf8');
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    return (Number(fields[11]) + Number(fields[12])) * 10;
+  };
+  return { main: read(`/proc/${pid}/task/${pid}/stat`), process: read(`/proc/${pid}/stat`) };
+}
+
+async function startServer() {
+  const profDir = process.env.BENCH_CPU_PROF;
+  if (profDir) fs.mkdirSync(profDir, { recursive: true });
+  const child = fork(path.join(path.dirname(fileURLToPath(import.meta.url)), 'api-server.ts'), [], {
+    execArgv: ['--import', 'tsx', ...(profDir ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(profDir)}`] : [])],
+    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+  });
+  const ready = await new Promise<BenchServerReady>((resolve, reject) => {
+    child.once('message', (m) => resolve(m as BenchServerReady));
+    child.once('exit', (code) => reject(new Error(`the bench server exited (${code}) before it was ready`)));
+  });
+  return {
+    child,
+    ready,
+    async stop() {
+      const exited = new Promise((r) => child.once('exit', r));
+      child.send('stop');
+      await exited;
+    },
+  };
 }
 
 async function main() {
-  const dir = tempDataDir();
-  const config = { ...loadConfig({ NODE_ENV: 'test' }), ...dir, bcryptRounds: 4, publicUrl: 'http://127.0.0.1', uploadsDir: fs.mkdtempSync(`${os.tmpdir()}/panelpoint-bench-uploads-`), seedDemo: true, sourceMaps: process.env.SOURCE_MAPS === 'true' };
-  const services = await startServices(config, { log: () => {} });
-  const server = services.app.listen(0, '127.0.0.1');
-  await new Promise((r) => server.once('listening', r));
-  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const server = await startServer();
+  const { ready, child } = server;
+  const base = `http://127.0.0.1:${ready.port}`;
+  const pid = child.pid!;
   try {
     const engineer = await signIn(base, 'engineer@demo.panelpoint.test');
     const drafter = await signIn(base, 'drafter@demo.panelpoint.test');
-    const { modelTruss, writerTrusses } = await seed(base, engineer, drafter);
+    const { modelTruss, writerTrusses } = ready;
+    await uploadDrawings(base, drafter, writerTrusses);
     const writers = [await signIn(base, 'engineer@demo.panelpoint.test'), await signIn(base, 'engineer@demo.panelpoint.test')];
     const targets: [string, string][] = [
       ['GET /api/projects', `${base}/api/projects`],
@@ -184,30 +165,28 @@ async function main() {
       const bytes = (await probe.arrayBuffer()).byteLength;
       console.log(`${url.replace(base, '')}: ${probe.status}, ${bytes} bytes${probe.headers.get('content-encoding') ? ` (${probe.headers.get('content-encoding')})` : ''}`);
     }
-    console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, SQLite file (WAL), source maps ${config.sourceMaps ? 'on' : 'off (the production default)'}; ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
-    console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}${'cpu ms/req'.padStart(11)}  saves/s (failed)`);
+    console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, server in a child process, SQLite file (WAL), source maps ${ready.sourceMaps ? 'on' : 'off (the production default)'}; ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+    console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}${'cpu main'.padStart(10)}${'cpu all'.padStart(9)}  saves/s (failed)`);
     for (const [name, url] of targets) {
       await load(url, engineer.cookie, 2); // warm-up
       for (const withWriters of [false, true]) {
         const w = withWriters ? writers.map((s, i) => writer(base, s, writerTrusses[i])) : [];
-        const cpu0 = mainThreadCpuMs();
+        const cpu0 = cpuMs(pid);
         const r = await load(url, engineer.cookie, DURATION);
-        const cpuPerRequest = (mainThreadCpuMs() - cpu0) / Math.max(1, r.requests.total);
+        const cpu1 = cpuMs(pid);
+        const n = Math.max(1, r.requests.total);
         await Promise.all(w.map((x) => x.stop()));
         const saves = w.reduce((s, x) => s + x.tally.saves, 0);
         const failed = w.reduce((s, x) => s + x.tally.failed, 0);
         const statuses = w.flatMap((x) => [...x.tally.statuses.entries()].map(([k, v]) => `${v}×${k}`)).join(' ');
         console.log(
-          `${name.padEnd(28)}${String(w.length).padStart(8)}${fmt(r.requests.average)}${fmt(r.latency.p50)}${fmt(r.latency.p97_5)}${fmt(r.latency.p99)}${fmt(r.latency.max)}${String(r.non2xx + r.errors).padStart(9)}${cpuPerRequest.toFixed(2).padStart(11)}  ${withWriters ? `${(saves / DURATION).toFixed(1)} (${failed}${statuses ? `: ${statuses}` : ''})` : ''}`,
+          `${name.padEnd(28)}${String(w.length).padStart(8)}${fmt(r.requests.average)}${fmt(r.latency.p50)}${fmt(r.latency.p97_5)}${fmt(r.latency.p99)}${fmt(r.latency.max)}${String(r.non2xx + r.errors).padStart(9)}${((cpu1.main - cpu0.main) / n).toFixed(2).padStart(10)}${((cpu1.process - cpu0.process) / n).toFixed(2).padStart(9)}  ${withWriters ? `${(saves / DURATION).toFixed(1)} (${failed}${statuses ? `: ${statuses}` : ''})` : ''}`,
         );
       }
     }
-    console.log('latencies in ms; cpu ms/req: CPU time of the server\'s main thread per request answered (with writers, their saves included)');
+    console.log('latencies in ms; cpu main / all: the server\'s CPU ms per request answered, its main thread / the whole process (with writers, their saves included)');
   } finally {
-    server.close();
-    await services.shutdown();
-    fs.rmSync(dir.dataDir, { recursive: true, force: true });
-    fs.rmSync(config.uploadsDir, { recursive: true, force: true });
+    await server.stop();
   }
 }
 
