@@ -2,6 +2,7 @@ import bcrypt from 'bcryptjs';
 import passportModule from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { User } from '../../db/models';
+import { sessionUserCache } from './session-user';
 
 /** A hash to compare against when the e-mail is unknown, so both paths take the same time. */
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', 10);
@@ -32,14 +33,18 @@ export function createPassport(): PassportInstance {
   // A session holds the user's id and session epoch at sign-in; a password change or reset
   // raises the epoch, which signs out every session made before it.
   passport.serializeUser((user, done) => done(null, { id: (user as User).id, epoch: (user as User).sessionEpoch ?? 0 } satisfies SessionUser));
+  // Every signed-in request needs its user: read through a short per-process cache (see
+  // SESSION_USER_TTL_MS for why that is safe) instead of a model read per request.
+  const users = sessionUserCache();
   passport.deserializeUser(async (stored: SessionUser | number, done) => {
     try {
       // Sessions made before epochs existed hold the bare id, which counts as epoch 0.
       const { id, epoch } = typeof stored === 'number' ? { id: stored, epoch: 0 } : stored;
-      const user = await User.findByPk(id);
-      // A disabled or removed user's existing sessions stop working at once, and so do
-      // sessions from before the user's last password change.
-      done(null, user && !user.disabled && user.passwordHash && user.sessionEpoch === epoch ? user : false);
+      const user = await users.get(id);
+      // A disabled or removed user's existing sessions stop working (at once in this process,
+      // within the cache's time in another), and so do sessions from before the user's last
+      // password change.
+      done(null, user && !user.disabled && user.hasPassword && user.sessionEpoch === epoch ? user : false);
     } catch (err) {
       done(err);
     }
