@@ -1,3 +1,4 @@
+import { QueryTypes } from 'sequelize';
 import type { TrussModel } from '@shared/model/truss';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { DesignSaveInput, ModelSaveInput } from '@shared/schemas/model.schema';
@@ -22,12 +23,39 @@ async function toView(r: TrussModelRecord): Promise<TrussModelView> {
 }
 
 export async function getModel(trussId: number): Promise<TrussModelView> {
-  await getTruss(trussId);
-  const record = await TrussModelRecord.findByPk(trussId);
-  if (!record) {
+  // Read on every visit to a truss: the truss, its model and the name of who saved it last in
+  // one hand-written query of plain rows, not three model reads (bench:api).
+  const rows = await TrussModelRecord.sequelize!.query<{
+    truss: number;
+    trussId: number | null;
+    drawingId: number | null;
+    model: string | null;
+    takeoff: string | null;
+    version: number;
+    updatedAt: string | Date;
+    updatedBy: string | null;
+  }>(
+    `SELECT t."id" AS "truss", m."trussId", m."drawingId", m."model", m."takeoff", m."version", m."updatedAt", u."name" AS "updatedBy"
+       FROM "trusses" t
+       LEFT JOIN "truss_models" m ON m."trussId" = t."id"
+       LEFT JOIN "users" u ON u."id" = m."updatedById"
+      WHERE t."id" = :trussId`,
+    { type: QueryTypes.SELECT, replacements: { trussId }, raw: true },
+  );
+  const r = rows[0];
+  if (!r) throw notFound('That truss');
+  if (r.trussId === null || r.model === null) {
     throw new AppError('no-model-yet', 'This truss has no model yet: upload its DXF drawing first.', 404);
   }
-  return toView(record);
+  return {
+    trussId: r.trussId,
+    drawingId: r.drawingId,
+    model: JSON.parse(r.model),
+    takeoff: r.takeoff ? JSON.parse(r.takeoff) : null,
+    version: r.version,
+    updatedBy: r.updatedBy ?? '',
+    updatedAt: new Date(r.updatedAt).toISOString(),
+  };
 }
 
 /** Checks every reference of a save against the model's joints and members, naming what is wrong. */

@@ -1,4 +1,4 @@
-import { fn, col } from 'sequelize';
+import { fn, col, QueryTypes } from 'sequelize';
 import type { ProjectView, TrussView } from '@shared/schemas/project.schema';
 import { Project, Truss } from '../../db/models';
 
@@ -44,15 +44,18 @@ async function trussCounts(projectIds: number[]): Promise<Map<number, number>> {
 
 export const projectsRepository = {
   async list(includeArchived: boolean): Promise<ProjectView[]> {
-    // Raw rows: the list is read on every visit to the projects page, and building model
-    // instances was most of its cost (bench:api).
-    const projects = (await Project.findAll({
-      where: includeArchived ? {} : { archived: false },
-      order: [['updatedAt', 'DESC']],
-      raw: true,
-    })) as unknown as ProjectRow[];
-    const counts = await trussCounts(projects.map((p) => p.id));
-    return projects.map((p) => toProjectView(p, counts.get(p.id) ?? 0));
+    // The list is read on every visit to the projects page: one hand-written query with the
+    // truss counts joined in, plain rows (no model instances, no query building; bench:api).
+    const rows = await Project.sequelize!.query<ProjectRow & { trussCount: number | string }>(
+      `SELECT p."id", p."name", p."jobNumber", p."client", p."site", p."designBasis", p."unitSystem", p."archived", p."createdAt", p."updatedAt",
+              COUNT(t."id") AS "trussCount"
+         FROM "projects" p LEFT JOIN "trusses" t ON t."projectId" = p."id"
+        ${includeArchived ? '' : 'WHERE p."archived" = :no'}
+        GROUP BY p."id"
+        ORDER BY p."updatedAt" DESC`,
+      { type: QueryTypes.SELECT, replacements: { no: false }, raw: true },
+    );
+    return rows.map((p) => toProjectView(p, Number(p.trussCount)));
   },
   async find(id: number): Promise<ProjectView | null> {
     const p = await Project.findByPk(id);

@@ -3,18 +3,20 @@ import { sheetRevisionLabel, type ArchiveEntryView } from '@shared/schemas/revie
 import { AppError, notFound } from '../../errors/app-error';
 import { StoredFileMissingError, type FileStore } from '../../storage/file-store';
 import { issuedSigners } from './issued-record';
-import { recordsRepository as repo, type RevisionRow, type TrussContext } from './records.repository';
+import { recordsRepository as repo, type ArchiveRevisionRow, type TrussContext } from './records.repository';
 
 /** Issued (and superseded) sheets across projects and their archived bytes. */
 
 export async function searchArchive(query: { q?: string; jobNumber?: string; project?: string; truss?: string; superseded: 'include' | 'exclude' }): Promise<ArchiveEntryView[]> {
   const trussIds = await repo.trussIdsMatching({ text: query.q, jobNumber: query.jobNumber, project: query.project, truss: query.truss });
   if (trussIds !== 'all' && trussIds.length === 0) return [];
-  const rows = await repo.listRevisions({ ...(trussIds === 'all' ? {} : { trussIds }), statuses: query.superseded === 'include' ? ['issued', 'superseded'] : ['issued'] });
-  const contexts = await repo.trussContexts([...new Set(rows.map((r) => r.trussId))]);
-  const labels = await labelsOf(rows.map((r) => r.supersededById));
-  return rows
-    .map((r) => archiveEntry(r, contexts.get(r.trussId)!, labels))
+  const lines = await repo.archiveLines({ ...(trussIds === 'all' ? {} : { trussIds }), statuses: query.superseded === 'include' ? ['issued', 'superseded'] : ['issued'] });
+  const labels = new Map<number, string>();
+  for (const l of lines) {
+    if (l.row.supersededById !== null && l.supersededByNumber !== null) labels.set(l.row.supersededById, sheetRevisionLabel(l.supersededByNumber));
+  }
+  return lines
+    .map((l) => archiveEntry(l.row, l.context, labels))
     .sort((a, b) => b.issuedAt.localeCompare(a.issuedAt) || b.sheetId - a.sheetId);
 }
 
@@ -53,7 +55,7 @@ export async function labelsOf(ids: (number | null)[]): Promise<Map<number, stri
 }
 
 /** One line of the archive: the issued revision, where it belongs, who signed, what superseded it. */
-export function archiveEntry(r: RevisionRow, c: TrussContext, labels: Map<number, string>): ArchiveEntryView {
+export function archiveEntry(r: ArchiveRevisionRow, c: TrussContext, labels: Map<number, string>): ArchiveEntryView {
   return {
     sheetId: r.id,
     projectId: c.projectId,
@@ -72,7 +74,7 @@ export function archiveEntry(r: RevisionRow, c: TrussContext, labels: Map<number
   };
 }
 
-function safeSigners(r: RevisionRow) {
+function safeSigners(r: ArchiveRevisionRow) {
   try {
     return issuedSigners(r);
   } catch {

@@ -30,7 +30,10 @@ const iso = (d: Date | null, what: string, id: number): string => {
   return d.toISOString();
 };
 
-export function issuedSigners(row: RevisionRow): SheetSignerView[] {
+/** The columns of a revision that name its signers and their dates. */
+export type SignerColumns = Pick<RevisionRow, 'id' | 'preparedById' | 'preparedByName' | 'submittedAt' | 'checkedById' | 'checkedByName' | 'checkedAt' | 'issuedById' | 'issuedByName' | 'issuedAt'>;
+
+export function issuedSigners(row: SignerColumns): SheetSignerView[] {
   return [
     { role: 'prepared', userId: row.preparedById, name: row.preparedByName ?? '', at: iso(row.submittedAt, 'prepared', row.id) },
     { role: 'checked', userId: row.checkedById ?? 0, name: row.checkedByName ?? '', at: iso(row.checkedAt, 'checked', row.id) },
