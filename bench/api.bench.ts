@@ -15,6 +15,7 @@
  * whole process with the SQLite driver's threads), and the writers' saves per second and failures.
  * Asserts nothing.
  * Usage: npm run bench:api [-- seconds]   (default 8)
+ *   BENCH_ONLY=text        only the endpoints whose name contains the text (e.g. archive)
  *   BENCH_CPU_PROF=folder  writes the server's V8 CPU profile there (node --cpu-prof); read its
  *                          top self-time functions with `node bench/cpu-profile-top.mjs FILE`.
  */
@@ -167,7 +168,7 @@ async function main() {
     }
     console.log(`\nautocannon, ${CONNECTIONS} connections, ${DURATION} s each, loopback, server in a child process, SQLite file (WAL), source maps ${ready.sourceMaps ? 'on' : 'off (the production default)'}; ${os.cpus().length} CPUs, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
     console.log(`${'endpoint'.padEnd(28)}${'writers'.padStart(8)}${'req/s'.padStart(8)}${'p50'.padStart(8)}${'p97.5'.padStart(8)}${'p99'.padStart(8)}${'max'.padStart(8)}${'non-2xx'.padStart(9)}${'cpu main'.padStart(10)}${'cpu all'.padStart(9)}  saves/s (failed)`);
-    for (const [name, url] of targets) {
+    for (const [name, url] of targets.filter(([n]) => !process.env.BENCH_ONLY || n.includes(process.env.BENCH_ONLY))) {
       await load(url, engineer.cookie, 2); // warm-up
       for (const withWriters of [false, true]) {
         const w = withWriters ? writers.map((s, i) => writer(base, s, writerTrusses[i])) : [];

@@ -33,5 +33,24 @@ const print = (title, map) => {
     console.log(`${(us / 1000).toFixed(1).padStart(9)} ms ${((100 * us) / total).toFixed(1).padStart(5)} %  ${k}`);
   }
 };
+// Total (inclusive) time: a function counts once per sample in whose stack it appears.
+const parent = new Map();
+for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+const keyOf = (n) => {
+  const f = n.callFrame;
+  const where = f.url ? f.url.replace(/^file:\/\//, '').replace(/.*node_modules\//, 'nm/').replace(process.cwd() + '/', '') : '';
+  return `${f.functionName || '(anonymous)'}  ${where}${f.url ? `:${f.lineNumber + 1}` : ''}`;
+};
+const totalUs = new Map();
+for (const [id, us] of selfUs) {
+  const seen = new Set();
+  for (let at = id; at !== undefined; at = parent.get(at)) {
+    const k = keyOf(byId.get(at));
+    if (seen.has(k)) continue;
+    seen.add(k);
+    totalUs.set(k, (totalUs.get(k) ?? 0) + us);
+  }
+}
 print('self time by function', byFunction);
+print('total time by function (self and callees)', new Map([...totalUs].filter(([k]) => !k.startsWith('(root)'))));
 print('self time by file', byFile);
