@@ -17,7 +17,30 @@ export type TakeoffErrorCode =
   | 'missing-load-case'
   | 'duplicate-load-case'
   | 'unknown-basis'
-  | 'unknown-method';
+  | 'unknown-method'
+  | 'pattern-not-allowed'
+  | 'wind-without-pressure'
+  | 'wind-without-coefficients'
+  | 'wind-value-not-finite'
+  | 'wind-pressure-out-of-range'
+  | 'wind-coefficient-out-of-range'
+  | 'wind-case-not-wind'
+  | 'unknown-windward-side';
+
+/**
+ * The codes of input that is well-formed but cannot be taken off as asked (wind and pattern
+ * loading): the API answers these 422 with the one sentence.
+ */
+export const TAKEOFF_UNPROCESSABLE: ReadonlySet<TakeoffErrorCode> = new Set<TakeoffErrorCode>([
+  'pattern-not-allowed',
+  'wind-without-pressure',
+  'wind-without-coefficients',
+  'wind-value-not-finite',
+  'wind-pressure-out-of-range',
+  'wind-coefficient-out-of-range',
+  'wind-case-not-wind',
+  'unknown-windward-side',
+]);
 
 /**
  * Thrown for takeoff input that cannot give a trustworthy number. The message names the

@@ -1,8 +1,10 @@
 export { continuousBeamSolve, continuousBeamTributary } from './continuous-beam';
 export type { ContinuousBeamResult } from './continuous-beam';
-export { TakeoffError } from './errors';
+export { TAKEOFF_UNPROCESSABLE, TakeoffError } from './errors';
 export type { TakeoffErrorCode } from './errors';
-export { roofTakeoff } from './roof-takeoff';
+export { PATTERN_CATEGORIES, WIND_LIMITS, roofTakeoff } from './roof-takeoff';
+export { governingSpanPattern, spanPatternLabel } from './span-patterns';
+export type { SpanPattern } from './span-patterns';
 export type {
   AreaLoad,
   LoadBasis,
@@ -12,6 +14,9 @@ export type {
   TakeoffMethod,
   TakeoffPurlin,
   TakeoffPurlinCase,
+  TakeoffWind,
+  TakeoffWindPurlin,
+  WindLoad,
 } from './roof-takeoff';
 export { takeoffIdPart } from './steps';
 export type {
@@ -19,10 +24,13 @@ export type {
   PurlinBeamStep,
   PurlinReactionStep,
   PurlinWidthStep,
+  SpanPatternStep,
   TakeoffStep,
   TakeoffUnit,
   TakeoffValue,
   TributaryHalf,
+  WindHalf,
+  WindPurlinStep,
 } from './steps';
 export { takeoffStepKatex } from './katex';
 export type { TakeoffKatexOptions } from './katex';

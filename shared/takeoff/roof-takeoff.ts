@@ -1,13 +1,17 @@
-import type { Joint, JointLoad } from '@shared/model/truss';
+import type { Joint, JointLoad, LoadCategory } from '@shared/model/truss';
 import { continuousBeamSolve, continuousBeamTributary } from './continuous-beam';
 import { TakeoffError } from './errors';
+import { governingSpanPattern, type SpanPattern } from './span-patterns';
 import {
   takeoffIdPart,
   type LineLoadStep,
   type PurlinBeamStep,
   type PurlinReactionStep,
   type PurlinWidthStep,
+  type SpanPatternStep,
   type TakeoffStep,
+  type WindHalf,
+  type WindPurlinStep,
 } from './steps';
 
 /** Which area a load is given per: m² of roof slope, or m² of horizontal projection (plan). */
@@ -25,6 +29,45 @@ export interface AreaLoad {
    */
   q: number;
   basis: LoadBasis;
+  /** The case's category, when known: pattern loading is refused for any but live, roof live and snow. */
+  category?: LoadCategory;
+  /**
+   * Check the unfavourable span patterns of the continuous purlin (ASCE/SEI 7-16 §4.3.3 partial
+   * loading, §7.5 partial snow loading): the reaction on the chosen truss is the largest downward
+   * one over every pattern of loaded and unloaded spans (span-patterns.ts).
+   */
+  patterns?: boolean;
+}
+
+/** Categories whose load may sit on some spans and not others (partial loading). */
+export const PATTERN_CATEGORIES: readonly LoadCategory[] = ['roof-live', 'live', 'snow'];
+
+/**
+ * Bounds of the wind input (common practice, no source: chosen by us far outside design values;
+ * a velocity pressure of 50 kPa is a wind speed near 290 m/s).
+ */
+export const WIND_LIMITS = { qMaxKpa: 50, cMax: 5 } as const;
+
+/**
+ * Wind normal to the roof surface. Each roof panel (between neighbouring purlins) faces left or
+ * right of the ridge: a panel rising towards +x is on the left slope, one falling towards +x on
+ * the right slope; a level panel takes the windward coefficient. The pressure q·c acts on the
+ * sloped area, normal to the panel, positive towards the surface (pressure) and negative away
+ * from it (suction).
+ */
+export interface WindLoad {
+  /** The wind load case the joint loads go to. */
+  caseId: string;
+  /** Its category, when known: must be 'wind'. */
+  category?: LoadCategory;
+  /** kPa, velocity pressure, > 0. */
+  q?: number | null;
+  /** Which slope the wind blows onto: 'left' (the slope on the −x side of the ridge) or 'right'. */
+  windward: 'left' | 'right';
+  /** Pressure coefficient of the windward slope (+ pressure, − suction). */
+  cWindward?: number | null;
+  /** Pressure coefficient of the leeward slope. */
+  cLeeward?: number | null;
 }
 
 /** What the engineer enters in the roof-takeoff form. */
@@ -39,6 +82,8 @@ export interface RoofTakeoffInput {
    */
   purlinJoints?: string[];
   areaLoads: AreaLoad[];
+  /** Wind normal to the roof, into its own wind load case; none when absent or null. */
+  wind?: WindLoad | null;
   /** Truss spacing, m: one value for equal spacing, or the trussCount − 1 spacings in order. */
   spacing: number | number[];
   /** Number of trusses the purlins run over (≥ 2). */
@@ -86,6 +131,32 @@ export interface TakeoffCase {
   purlins: TakeoffPurlinCase[];
   /** Joint loads on the chosen truss by the chosen method (fx = 0, fy = −reaction, kN). */
   loads: JointLoad[];
+  /** The governing span pattern, when the case asked for pattern loading. */
+  pattern?: { label: string; loaded: boolean[]; exactPerUnit: number; tributaryPerUnit: number };
+}
+
+/** One purlin's wind numbers. */
+export interface TakeoffWindPurlin {
+  joint: string;
+  tag: string;
+  /** kN/m, line load on the purlin (+x right, +y up). */
+  wx: number;
+  wy: number;
+  /** kN, the joint load on the truss by the chosen method. */
+  fx: number;
+  fy: number;
+}
+
+/** The wind takeoff. */
+export interface TakeoffWind {
+  caseId: string;
+  /** kPa */
+  q: number;
+  windward: 'left' | 'right';
+  cWindward: number | null;
+  cLeeward: number | null;
+  purlins: TakeoffWindPurlin[];
+  loads: JointLoad[];
 }
 
 /** Everything the takeoff found; `steps` hold every number for the calc sheet. */
@@ -101,6 +172,8 @@ export interface RoofTakeoffResult {
   tributaryPerUnit: number;
   purlins: TakeoffPurlin[];
   cases: TakeoffCase[];
+  /** Wind normal to the roof, when given. */
+  wind: TakeoffWind | null;
   /** Case id → joint loads for the chosen method. */
   caseLoads: Record<string, JointLoad[]>;
   steps: TakeoffStep[];
@@ -207,11 +280,12 @@ function purlinJointsFrom(input: RoofTakeoffInput): Joint[] {
 }
 
 function areaLoadsFrom(input: RoofTakeoffInput): AreaLoad[] {
-  if (!Array.isArray(input.areaLoads) || input.areaLoads.length === 0) {
-    throw new TakeoffError('no-area-loads', 'No area loads given; enter at least one load case with its area load q in kPa.');
+  const areaLoads = Array.isArray(input.areaLoads) ? input.areaLoads : [];
+  if (areaLoads.length === 0 && !input.wind) {
+    throw new TakeoffError('no-area-loads', 'No area loads given; enter at least one load case with its area load q in kPa, or a wind pressure.');
   }
   const seen = new Set<string>();
-  for (const load of input.areaLoads) {
+  for (const load of areaLoads) {
     if (typeof load.caseId !== 'string' || load.caseId.trim() === '') {
       throw new TakeoffError('missing-load-case', 'An area load has no load case; choose the load case it belongs to.');
     }
@@ -229,8 +303,73 @@ function areaLoadsFrom(input: RoofTakeoffInput): AreaLoad[] {
         `The area load of case "${load.caseId}" has basis "${String(load.basis)}"; use 'slope' (per m² of roof) or 'plan' (per m² of horizontal projection).`,
       );
     }
+    if (load.patterns === true && load.category !== undefined && !PATTERN_CATEGORIES.includes(load.category)) {
+      throw new TakeoffError(
+        'pattern-not-allowed',
+        `Load case "${load.caseId}" is a ${load.category} case, and span patterns are checked only for roof live, live and snow load (ASCE/SEI 7-16 4.3.3, 7.5); untick "check unfavourable span patterns" for it.`,
+      );
+    }
   }
-  return input.areaLoads;
+  return areaLoads;
+}
+
+const given = (v: number | null | undefined): v is number => v !== null && v !== undefined;
+
+/** Checks the wind input; returns it with q in kPa, or null when there is none. */
+function windFrom(input: RoofTakeoffInput, areaLoads: AreaLoad[]): (WindLoad & { q: number }) | null {
+  const wind = input.wind;
+  if (wind === undefined || wind === null) return null;
+  if (typeof wind.caseId !== 'string' || wind.caseId.trim() === '') {
+    throw new TakeoffError('missing-load-case', 'The wind pressure has no load case; choose the wind load case it belongs to.');
+  }
+  for (const [key, name] of [['cWindward', 'windward'], ['cLeeward', 'leeward']] as const) {
+    const c = wind[key];
+    if (!given(c)) continue;
+    if (typeof c !== 'number' || !Number.isFinite(c)) {
+      throw new TakeoffError('wind-value-not-finite', `The ${name} pressure coefficient is ${String(c)}; enter a finite number (positive for pressure, negative for suction).`);
+    }
+    if (Math.abs(c) > WIND_LIMITS.cMax) {
+      throw new TakeoffError(
+        'wind-coefficient-out-of-range',
+        `The ${name} pressure coefficient is ${c}; a roof pressure coefficient lies between −${WIND_LIMITS.cMax} and ${WIND_LIMITS.cMax}, so check the value.`,
+      );
+    }
+  }
+  const anyCoefficient = given(wind.cWindward) || given(wind.cLeeward);
+  if (!given(wind.q)) {
+    if (anyCoefficient) {
+      throw new TakeoffError('wind-without-pressure', 'A wind pressure coefficient is given without a velocity pressure q; enter q, or clear the coefficients.');
+    }
+    throw new TakeoffError('wind-without-pressure', 'The wind section has no velocity pressure q; enter q and the slope coefficients, or remove the wind.');
+  }
+  if (typeof wind.q !== 'number' || !Number.isFinite(wind.q)) {
+    throw new TakeoffError('wind-value-not-finite', `The velocity pressure q is ${String(wind.q)}; enter a finite pressure greater than 0.`);
+  }
+  if (wind.q <= 0 || wind.q > WIND_LIMITS.qMaxKpa) {
+    throw new TakeoffError(
+      'wind-pressure-out-of-range',
+      `The velocity pressure q is ${wind.q} kPa; it must be greater than 0 and at most ${WIND_LIMITS.qMaxKpa} kPa (1 044 psf), so check the value and its unit.`,
+    );
+  }
+  if (!anyCoefficient) {
+    throw new TakeoffError('wind-without-coefficients', 'A velocity pressure q is given without pressure coefficients; enter the windward and leeward coefficients.');
+  }
+  if (wind.windward !== 'left' && wind.windward !== 'right') {
+    throw new TakeoffError('unknown-windward-side', `The windward side is "${String(wind.windward)}"; choose 'left' or 'right' of the ridge.`);
+  }
+  if (wind.category !== undefined && wind.category !== 'wind') {
+    throw new TakeoffError(
+      'wind-case-not-wind',
+      `Load case "${wind.caseId}" is a ${wind.category} case; put the wind pressure into a wind load case so the combinations treat it as wind.`,
+    );
+  }
+  if (areaLoads.some((l) => l.caseId === wind.caseId)) {
+    throw new TakeoffError(
+      'duplicate-load-case',
+      `Load case "${wind.caseId}" has both an area load and the wind pressure; give the wind its own wind load case.`,
+    );
+  }
+  return { ...wind, q: wind.q };
 }
 
 const value = (key: string, symbol: string, label: string, v: number, unit: PurlinWidthStep['values'][number]['unit']) => ({
@@ -268,6 +407,7 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
   const spans = spansFrom(input);
   const joints = purlinJointsFrom(input);
   const areaLoads = areaLoadsFrom(input);
+  const wind = windFrom(input, areaLoads);
   const { trussIndex, trussCount, method } = input;
   const trussPosition = trussIndex === 0 || trussIndex === trussCount - 1 ? 'end' : 'interior';
   const steps: TakeoffStep[] = [];
@@ -335,6 +475,14 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
   // 3. Per load case: line loads, reactions, joint loads.
   const cases: TakeoffCase[] = areaLoads.map((load) => {
     const casePart = takeoffIdPart(load.caseId);
+    // Pattern loading: the governing span pattern's reaction factors replace the all-spans ones.
+    let pattern: SpanPattern | null = null;
+    if (load.patterns === true) {
+      pattern = governingSpanPattern(spans, trussIndex, load.q < 0 ? -1 : 1);
+      steps.push(spanPatternStep(load.caseId, spans, trussIndex, pattern, exactPerUnit));
+    }
+    const caseExactPerUnit = pattern ? pattern.exactPerUnit : exactPerUnit;
+    const caseTributaryPerUnit = pattern ? pattern.tributaryPerUnit : tributaryPerUnit;
     const rows: TakeoffPurlinCase[] = purlins.map((purlin) => {
       const width = load.basis === 'slope' ? purlin.widthSlope : purlin.widthPlan;
       const w = load.q * width;
@@ -362,8 +510,8 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
             : []),
         ],
       } satisfies LineLoadStep);
-      const exact = w * exactPerUnit;
-      const tributary = w * tributaryPerUnit;
+      const exact = w * caseExactPerUnit;
+      const tributary = w * caseTributaryPerUnit;
       const differencePct = exact === 0 ? null : ((tributary - exact) / exact) * 100;
       const chosen = method === 'exact' ? exact : tributary;
       steps.push({
@@ -379,10 +527,11 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
         differencePct,
         chosen: method,
         fy: -chosen,
+        ...(pattern ? { pattern: pattern.label } : {}),
         values: [
           value('w', 'w', 'line load on the purlin', w, 'kN/m'),
-          value('exactPerUnit', 'c_{\\mathrm{exact}}', 'reaction per 1 kN/m, three-moment equation', exactPerUnit, 'm'),
-          value('tributaryPerUnit', 'c_{\\mathrm{trib}}', 'reaction per 1 kN/m, tributary length', tributaryPerUnit, 'm'),
+          value('exactPerUnit', 'c_{\\mathrm{exact}}', 'reaction per 1 kN/m, three-moment equation', caseExactPerUnit, 'm'),
+          value('tributaryPerUnit', 'c_{\\mathrm{trib}}', 'reaction per 1 kN/m, tributary length', caseTributaryPerUnit, 'm'),
           value('exact', 'R_{\\mathrm{exact}}', 'reaction, three-moment equation', exact, 'kN'),
           value('tributary', 'R_{\\mathrm{trib}}', 'reaction, tributary length', tributary, 'kN'),
           ...(differencePct === null
@@ -397,10 +546,24 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
       joint: row.joint,
       fx: 0,
       fy: -(method === 'exact' ? row.exact : row.tributary),
-      note: `purlin at ${row.tag}, roof takeoff (${method === 'exact' ? 'continuous purlin' : 'tributary length'})`,
+      note: `purlin at ${row.tag}, roof takeoff (${method === 'exact' ? 'continuous purlin' : 'tributary length'}${pattern ? `, ${pattern.label}` : ''})`,
     }));
-    return { caseId: load.caseId, q: load.q, basis: load.basis, purlins: rows, loads };
+    return {
+      caseId: load.caseId,
+      q: load.q,
+      basis: load.basis,
+      purlins: rows,
+      loads,
+      ...(pattern
+        ? { pattern: { label: pattern.label, loaded: pattern.loaded, exactPerUnit: pattern.exactPerUnit, tributaryPerUnit: pattern.tributaryPerUnit } }
+        : {}),
+    };
   });
+
+  // 4. Wind normal to the roof surface.
+  const windResult = wind ? windTakeoff(wind, joints, method === 'exact' ? exactPerUnit : tributaryPerUnit, method, trussIndex, steps) : null;
+  const caseLoads: Record<string, JointLoad[]> = Object.fromEntries(cases.map((c) => [c.caseId, c.loads]));
+  if (windResult) caseLoads[windResult.caseId] = windResult.loads;
 
   return {
     method,
@@ -412,7 +575,130 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
     tributaryPerUnit,
     purlins,
     cases,
-    caseLoads: Object.fromEntries(cases.map((c) => [c.caseId, c.loads])),
+    wind: windResult,
+    caseLoads,
     steps,
+  };
+}
+
+const PATTERN_NOTE =
+  'Partial loading: ASCE/SEI 7-16 4.3.3 (live load at full intensity on part of a member where that is more unfavourable) and 7.5 (partial snow loading of continuous members). The purlin is linear, so the reaction under any pattern of loaded spans is the sum of the loaded spans\' reactions r_j; loading exactly the spans with r_j > 0 gives the largest downward reaction of all 2^n patterns (which include the three loadings of 7.5.1). Unloaded spans carry no load, which gives at least the reaction with half the balanced snow load on them (conservative).';
+
+function spanPatternStep(caseId: string, spans: number[], trussIndex: number, pattern: SpanPattern, allPerUnit: number): SpanPatternStep {
+  const diff = allPerUnit === 0 ? null : ((pattern.exactPerUnit - allPerUnit) / allPerUnit) * 100;
+  return {
+    kind: 'span-pattern',
+    id: `takeoff/${takeoffIdPart(caseId)}/span-pattern`,
+    caseId,
+    title: `Load case ${caseId}: unfavourable span pattern for truss ${trussIndex + 1} — ${pattern.label}`,
+    spans,
+    trussIndex,
+    loaded: pattern.loaded,
+    contributions: pattern.contributions,
+    momentsPerUnit: pattern.momentsPerUnit,
+    label: pattern.label,
+    note: PATTERN_NOTE,
+    values: [
+      ...spans.map((sp, i) => value(`span${i}`, `L_{${i + 1}}`, `spacing between trusses ${i + 1} and ${i + 2}`, sp, 'm')),
+      ...pattern.contributions.map((r, j) => value(`r${j}`, `r_{${j + 1}}`, `reaction per 1 kN/m on span ${j + 1} alone`, r, 'm')),
+      value('exactPerUnit', 'c_{\\mathrm{exact}}', `reaction per 1 kN/m, ${pattern.label}, three-moment equation`, pattern.exactPerUnit, 'm'),
+      value('tributaryPerUnit', 'c_{\\mathrm{trib}}', `reaction per 1 kN/m, ${pattern.label}, tributary length`, pattern.tributaryPerUnit, 'm'),
+      value('allPerUnit', 'c_{\\mathrm{all}}', 'reaction per 1 kN/m, all spans loaded', allPerUnit, 'm'),
+      ...(diff === null ? [] : [value('differencePct', '\\Delta_{\\mathrm{all}}', 'pattern against all spans loaded', diff, '%' as const)]),
+    ],
+  };
+}
+
+const WIND_NOTE =
+  'Wind pressure q·c normal to each roof panel on its sloped area, positive towards the surface (pressure), negative away from it (suction); θ is the panel\'s angle from +x, positive where it rises to the right. A pressure w_n pushes along the inward normal: w_x = w_n sin θ, w_y = −w_n cos θ (+x right, +y up). The purlin carries both components to the trusses like any line load.';
+
+/** Wind on each purlin: the normal line loads of the half panels either side, their components, the joint loads. */
+function windTakeoff(
+  wind: WindLoad & { q: number },
+  joints: Joint[],
+  perUnit: number,
+  method: TakeoffMethod,
+  trussIndex: number,
+  steps: TakeoffStep[],
+): TakeoffWind {
+  const casePart = takeoffIdPart(wind.caseId);
+  const coefficient = (side: 'windward' | 'leeward') => (side === 'windward' ? wind.cWindward : wind.cLeeward);
+  const purlins = joints.map((joint, index) => {
+    const halves: (WindHalf & { c: number; p: number; wn: number; sin: number; cos: number; wx: number; wy: number })[] = [];
+    for (const n of [joints[index - 1], joints[index + 1]]) {
+      if (!n) continue;
+      const [a, b] = n.x < joint.x ? [n, joint] : [joint, n];
+      const dx = b.x - a.x;
+      const dy = b.y - a.y;
+      const length = Math.hypot(dx, dy);
+      // Rising towards +x: the slope left of the ridge; falling: right of it; level: windward.
+      const slope = dy > 0 ? 'left' : dy < 0 ? 'right' : wind.windward;
+      const side: 'windward' | 'leeward' = slope === wind.windward ? 'windward' : 'leeward';
+      const c = coefficient(side);
+      if (!given(c)) {
+        throw new TakeoffError(
+          'wind-without-coefficients',
+          `The roof panel ${joint.tag}–${n.tag} is on the ${side} slope, which has no pressure coefficient; enter the ${side} coefficient.`,
+        );
+      }
+      const p = wind.q * c;
+      const wn = (p * length) / 2;
+      const sin = dy / length;
+      const cos = dx / length;
+      halves.push({ neighbour: n.id, neighbourTag: n.tag, side, dx, dy, length, c, p, wn, sin, cos, wx: wn * sin, wy: -wn * cos });
+    }
+    const wx = halves.reduce((sum, h) => sum + h.wx, 0);
+    const wy = halves.reduce((sum, h) => sum + h.wy, 0);
+    const fx = perUnit * wx;
+    const fy = perUnit * wy;
+    steps.push({
+      kind: 'wind-purlin',
+      id: `takeoff/${casePart}/purlin-${takeoffIdPart(joint.id)}/wind`,
+      caseId: wind.caseId,
+      title: `Purlin at ${joint.tag}: wind normal to the roof, resolved into x and y`,
+      joint: joint.id,
+      jointTag: joint.tag,
+      halves: halves.map(({ neighbour, neighbourTag, side, dx, dy, length }) => ({ neighbour, neighbourTag, side, dx, dy, length })),
+      chosen: method,
+      fx,
+      fy,
+      note: WIND_NOTE,
+      values: [
+        value('q', 'q', 'velocity pressure', wind.q, 'kPa'),
+        ...halves.flatMap((h, k) => [
+          value(`dx${k}`, `\\Delta x_{${k + 1}}`, `run of panel ${joint.tag}–${h.neighbourTag}`, h.dx, 'm'),
+          value(`dy${k}`, `\\Delta y_{${k + 1}}`, `rise of panel ${joint.tag}–${h.neighbourTag} (left to right)`, h.dy, 'm'),
+          value(`s${k}`, `s_{${k + 1}}`, `length of panel ${joint.tag}–${h.neighbourTag}`, h.length, 'm'),
+          value(`half${k}`, `\\tfrac{1}{2}s_{${k + 1}}`, `half the panel ${joint.tag}–${h.neighbourTag}`, h.length / 2, 'm'),
+          value(`sin${k}`, `\\sin\\theta_{${k + 1}}`, `sine of the panel angle`, h.sin, '1'),
+          value(`cos${k}`, `\\cos\\theta_{${k + 1}}`, `cosine of the panel angle`, h.cos, '1'),
+          value(`c${k}`, `c_{${k + 1}}`, `pressure coefficient, ${h.side} slope`, h.c, '1'),
+          value(`p${k}`, `p_{${k + 1}}`, `wind pressure normal to the panel`, h.p, 'kPa'),
+          value(`wn${k}`, `w_{n,${k + 1}}`, `normal line load from the half panel`, h.wn, 'kN/m'),
+          value(`wx${k}`, `w_{x,${k + 1}}`, `its x component`, h.wx, 'kN/m'),
+          value(`wy${k}`, `w_{y,${k + 1}}`, `its y component`, h.wy, 'kN/m'),
+        ]),
+        value('wx', 'w_{x}', 'line load on the purlin, x', wx, 'kN/m'),
+        value('wy', 'w_{y}', 'line load on the purlin, y', wy, 'kN/m'),
+        value('perUnit', method === 'exact' ? 'c_{\\mathrm{exact}}' : 'c_{\\mathrm{trib}}', `reaction on truss ${trussIndex + 1} per 1 kN/m`, perUnit, 'm'),
+        value('fx', 'P_{x}', 'joint load on the truss, x', fx, 'kN'),
+        value('fy', 'P_{y}', 'joint load on the truss, y (+y up)', fy, 'kN'),
+      ],
+    } satisfies WindPurlinStep);
+    return { joint: joint.id, tag: joint.tag, wx, wy, fx, fy };
+  });
+  return {
+    caseId: wind.caseId,
+    q: wind.q,
+    windward: wind.windward,
+    cWindward: given(wind.cWindward) ? wind.cWindward : null,
+    cLeeward: given(wind.cLeeward) ? wind.cLeeward : null,
+    purlins,
+    loads: purlins.map((p) => ({
+      joint: p.joint,
+      fx: p.fx,
+      fy: p.fy,
+      note: `purlin at ${p.tag}, wind normal to the roof (${method === 'exact' ? 'continuous purlin' : 'tributary length'})`,
+    })),
   };
 }

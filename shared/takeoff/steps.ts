@@ -30,6 +30,8 @@ interface TakeoffStepBase {
   /** Short heading for the sheet, e.g. "Purlin at C: tributary width". */
   title: string;
   values: TakeoffValue[];
+  /** Plain words printed under the step (a clause, the sign convention), when it needs them. */
+  note?: string;
 }
 
 /** Half the distance from a purlin to one neighbour, along the slope and on plan. */
@@ -102,9 +104,53 @@ export interface PurlinReactionStep extends TakeoffStepBase {
   chosen: 'exact' | 'tributary';
   /** kN, the joint load on the truss (+y up): −(chosen reaction). */
   fy: number;
+  /** The span pattern the reaction factors are for, in words, when the case is pattern-loaded. */
+  pattern?: string;
 }
 
-export type TakeoffStep = PurlinWidthStep | PurlinBeamStep | LineLoadStep | PurlinReactionStep;
+/**
+ * The unfavourable span pattern of a pattern-loaded case (roof live, live or snow): the reaction
+ * on the chosen truss per 1 kN/m on each span alone, the spans loaded, and the reaction factors.
+ */
+export interface SpanPatternStep extends TakeoffStepBase {
+  kind: 'span-pattern';
+  spans: number[];
+  trussIndex: number;
+  /** Per span, loaded or not (span 0 between trusses 0 and 1). */
+  loaded: boolean[];
+  /** m: reaction per 1 kN/m on span j alone. */
+  contributions: number[];
+  /** m² per 1 kN/m: support moments under the governing pattern. */
+  momentsPerUnit: number[];
+  /** In words, e.g. "spans 2 and 3 loaded". */
+  label: string;
+}
+
+/** One half of a sloped roof panel next to a purlin, carrying wind normal to its surface. */
+export interface WindHalf {
+  neighbour: string;
+  neighbourTag: string;
+  /** Which slope the panel is on and so which coefficient it takes. */
+  side: 'windward' | 'leeward';
+  /** m: the panel's run and rise from its left end to its right end (dx ≥ 0), and its length. */
+  dx: number;
+  dy: number;
+  length: number;
+}
+
+/** Wind normal to the roof on one purlin: the pressure, its normal line load and both components. */
+export interface WindPurlinStep extends TakeoffStepBase {
+  kind: 'wind-purlin';
+  joint: string;
+  jointTag: string;
+  halves: WindHalf[];
+  chosen: 'exact' | 'tributary';
+  /** kN, the joint load on the truss (+x right, +y up). */
+  fx: number;
+  fy: number;
+}
+
+export type TakeoffStep = PurlinWidthStep | PurlinBeamStep | LineLoadStep | PurlinReactionStep | SpanPatternStep | WindPurlinStep;
 
 /** Turns any string into a piece that is safe in an HTML id and a URL fragment. */
 export function takeoffIdPart(text: string): string {
