@@ -86,6 +86,30 @@ function withTakeoff(model: TrussModel, method: TakeoffMethod, spacing: number |
   return { model, takeoffSteps: takeoff.steps };
 }
 
+/** The demo truss with snow checked for span patterns and wind normal to both slopes (invented values). */
+function withWindAndPatterns(model: TrussModel, method: TakeoffMethod, spacing: number | number[], trussIndex: number) {
+  const topChord = ['L0', 'U1', 'U2', 'U3', 'U4', 'U5', 'L6'];
+  const takeoff = roofTakeoff({
+    joints: model.joints,
+    topChordJoints: topChord,
+    areaLoads: [
+      { caseId: 'D', q: 0.87, basis: 'slope', category: 'dead' },
+      { caseId: 'S', q: 1.13, basis: 'plan', category: 'snow', patterns: true },
+    ],
+    wind: { caseId: 'W', category: 'wind', q: 0.737, windward: 'left', cWindward: -0.37, cLeeward: -0.53 },
+    spacing,
+    trussCount: Array.isArray(spacing) ? spacing.length + 1 : 6,
+    trussIndex,
+    method,
+  });
+  model.loadCases = [
+    { id: 'D', name: 'Roofing, purlins and ceiling', category: 'dead', loads: takeoff.caseLoads.D },
+    { id: 'S', name: 'Snow, unfavourable spans', category: 'snow', loads: takeoff.caseLoads.S },
+    { id: 'W', name: 'Wind across the ridge', category: 'wind', loads: takeoff.caseLoads.W },
+  ];
+  return { model, takeoffSteps: takeoff.steps };
+}
+
 function input(model: TrussModel, extra: Partial<CalcSheetInput> = {}, unitSystem: 'SI' | 'US' = 'SI'): CalcSheetInput {
   return {
     firm: { name: 'Hollin Bank Structures (test)', address: '4 Quarry Lane', paperSize: 'A4' },
@@ -106,6 +130,10 @@ function sheets(): { name: string; view: CalcSheetView }[] {
   out.push({ name: 'demo truss, takeoff exact (SI)', view: buildCalcSheetView(input(demoExact.model, { takeoffSteps: demoExact.takeoffSteps })) });
   const demoTrib = withTakeoff(demoTruss(), 'tributary', [4.5, 3.7, 4.1, 4.5, 3.9]);
   out.push({ name: 'demo truss, takeoff tributary (US units)', view: buildCalcSheetView(input(demoTrib.model, { takeoffSteps: demoTrib.takeoffSteps }, 'US')) });
+  const windSi = withWindAndPatterns(demoTruss(), 'exact', [4.5, 3.7, 4.1, 4.5, 3.9], 2);
+  out.push({ name: 'demo truss, wind and snow patterns, exact (SI)', view: buildCalcSheetView(input(windSi.model, { takeoffSteps: windSi.takeoffSteps })) });
+  const windUs = withWindAndPatterns(demoTruss(), 'tributary', 4.5, 0);
+  out.push({ name: 'demo truss, wind and snow patterns, tributary (US units)', view: buildCalcSheetView(input(windUs.model, { takeoffSteps: windUs.takeoffSteps }, 'US')) });
   out.push({ name: 'K-truss', view: buildCalcSheetView(input(modelFromSketch(kTruss()))) });
   // Two pins and a three-hinged outline: reactions found at the joints, some unknowns together.
   out.push({
@@ -452,12 +480,19 @@ function sheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number
 describe('calc sheet arithmetic redone by hand from the printed numbers', () => {
   const built = sheets();
 
-  it('when every equation of seven sheets is redone from its printed operands, then every printed result comes back to its printed precision: 0 mismatches', () => {
+  it('when every equation of nine sheets is redone from its printed operands, then every printed result comes back to its printed precision: 0 mismatches', () => {
     const bad: Mismatch[] = [];
     const counts: Record<string, number> = {};
     for (const { name, view } of built) counts[name] = sheetCheck(name, view, bad);
     // Each sheet had arithmetic to redo, and the readers found it (a reader that matched nothing would pass silently).
     for (const [name, n] of Object.entries(counts)) expect(n, name).toBeGreaterThan(10);
+    // The wind and span-pattern steps were among those redone.
+    const newSteps = built.flatMap((b) => b.view.takeoff.filter((s) => /\/(wind|span-pattern)$/.test(s.id)));
+    expect(newSteps.length).toBeGreaterThan(10);
+    // …and each had lines the reader redid: a wind step its sines, cosines, pressures, components
+    // and joint loads; a pattern step its sums and statics.
+    for (const s of newSteps) expect(takeoffCheck('new steps', s, bad), s.id).toBeGreaterThanOrEqual(s.id.endsWith('/wind') ? 8 : 2);
+    expect(bad).toEqual([]);
     const methods = built.flatMap((b) => b.view.cases.map((c) => c.method));
     expect(methods.some((m) => /simultaneous/i.test(m))).toBe(true);
     expect(methods.some((m) => /stiffness/i.test(m))).toBe(true);

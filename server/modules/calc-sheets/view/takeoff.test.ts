@@ -34,4 +34,28 @@ describe('sheet view: roof load takeoff', () => {
     expect(view.takeoff).toEqual([]);
     expect(view.cover.contents.map((c) => c.anchor)).not.toContain('takeoff');
   });
+
+  it('when snow is checked for span patterns and wind acts on the slopes, then the pattern step names the pattern and its clauses and the wind step states its signs', () => {
+    // Four 2.5 m panels, flat top chord; three spans of 4 m, the first interior truss.
+    const model = modelFromSketch(parallelChordSketch('pratt', 4, 2.5, 2, 1));
+    const top = model.joints.filter((j) => j.tag.startsWith('U'));
+    const takeoff = roofTakeoff({
+      joints: model.joints,
+      topChordJoints: top.map((j) => j.id),
+      areaLoads: [{ caseId: 'S', q: 0.8, basis: 'plan', category: 'snow', patterns: true }],
+      wind: { caseId: 'W', category: 'wind', q: 0.6, windward: 'left', cWindward: -0.7, cLeeward: -0.5 },
+      spacing: 4,
+      trussCount: 4,
+      trussIndex: 1,
+      method: 'exact',
+    });
+    const view = buildCalcSheetView(sheetInput(model, { takeoffSteps: takeoff.steps }));
+    const pattern = view.takeoff.find((s) => s.id === 'takeoff/S/span-pattern');
+    expect(pattern?.title).toContain('spans 1 and 2 loaded');
+    expect(pattern?.note).toMatch(/ASCE\/SEI 7-16 4\.3\.3/);
+    expect(pattern?.note).toMatch(/7\.5/);
+    const wind = view.takeoff.find((s) => s.id.startsWith('takeoff/W/') && s.id.endsWith('/wind'));
+    expect(wind?.note).toMatch(/positive towards the surface/);
+    expect(katexText(wind!.lines[0])).toMatch(/sin/);
+  });
 });

@@ -8,7 +8,7 @@ export const takeoffSection: SheetSection<'takeoff'> = {
   build({ input, system }) {
     const takeoff: StepView[] = (input.takeoffSteps ?? []).map((s) => {
       const tex = [takeoffStepKatex(s, { system })];
-      return { id: s.id, title: s.title, lines: tex.map((t) => katexHtml(t)), tex };
+      return { id: s.id, title: s.title, lines: tex.map((t) => katexHtml(t)), tex, ...(s.note ? { note: s.note } : {}) };
     });
     return { view: { takeoff }, contents: takeoff.length ? [{ anchor: 'takeoff', title: 'Roof load takeoff' }] : [] };
   },
