@@ -35,8 +35,36 @@ export const takeoffAreaLoadSchema = z.object({
   unit: z.enum(['kPa', 'psf']).default('kPa'),
   /** 'slope': per m² of roof surface; 'plan': per m² of horizontal projection. */
   basis: z.enum(['slope', 'plan'], { error: "Choose the load basis: 'slope' (per m² of roof) or 'plan' (per m² of horizontal projection)." }),
+  /**
+   * "Check unfavourable span patterns": for a roof live, live or snow case, the purlin reaction is
+   * the largest over every pattern of loaded and unloaded spans (ASCE/SEI 7-16 4.3.3, 7.5). A
+   * request for any other category is refused (422 'pattern-not-allowed').
+   */
+  patterns: z.boolean({ error: 'The span-pattern tick-box is true or false.' }).optional(),
 });
 export type TakeoffAreaLoad = z.infer<typeof takeoffAreaLoadSchema>;
+
+/**
+ * A number as sent. Wind values are only type-checked here: whether they are finite and in range
+ * (q > 0 and at most 50 kPa, |c| ≤ 5) and whether they go together is the takeoff's own check,
+ * answered 422 with one sentence (shared/takeoff WIND_LIMITS).
+ */
+const windNumber = (what: string) => z.custom<number>((v) => typeof v === 'number', { error: `Enter ${what} as a number.` });
+
+/**
+ * Wind normal to the roof surface, into a wind load case: velocity pressure q (kPa or psf) and a
+ * pressure coefficient per slope (+ pressure towards the surface, − suction), the windward slope
+ * chosen by its side of the ridge. Acts on the sloped area.
+ */
+export const takeoffWindSchema = z.object({
+  caseId: z.string().min(1, { error: 'Choose the wind load case the wind pressure writes.' }).max(40),
+  q: windNumber('the velocity pressure q').nullable().optional(),
+  unit: z.enum(['kPa', 'psf']).default('kPa'),
+  windward: z.enum(['left', 'right'], { error: "Choose which side of the ridge the wind blows onto: 'left' or 'right'." }),
+  cWindward: windNumber('the windward pressure coefficient').nullable().optional(),
+  cLeeward: windNumber('the leeward pressure coefficient').nullable().optional(),
+});
+export type TakeoffWindInput = z.infer<typeof takeoffWindSchema>;
 
 const spacingValue = z
   .number({ error: 'Enter the truss spacing in metres.' })
@@ -54,7 +82,10 @@ export const takeoffInputSchema = z
     topChordJoints: z.array(jointId).min(2, { error: 'Pick at least two top-chord joints.' }).max(10_000),
     /** Purlin joints in order along the roof; default: every top-chord joint in the order given. */
     purlinJoints: z.array(jointId).min(2, { error: 'Pick at least two purlin joints.' }).max(10_000).optional(),
-    areaLoads: z.array(takeoffAreaLoadSchema).min(1, { error: 'Enter at least one area load.' }).max(20),
+    /** Vertical area loads; may be empty when the takeoff carries wind only. */
+    areaLoads: z.array(takeoffAreaLoadSchema).max(20),
+    /** Wind normal to the roof; null or absent for none. */
+    wind: takeoffWindSchema.nullable().optional(),
     /** m: one value for equal spacing, or the trussCount − 1 spacings in order. */
     spacing: z.union([spacingValue, z.array(spacingValue).min(1).max(1000)]),
     /** Trusses the purlins run over. */
@@ -72,6 +103,9 @@ export const takeoffInputSchema = z
     method: z.enum(['exact', 'tributary'], { error: "Choose 'exact' (continuous purlin) or 'tributary' (tributary length)." }),
   })
   .superRefine((v, ctx) => {
+    if (v.areaLoads.length === 0 && !v.wind) {
+      ctx.addIssue({ code: 'custom', path: ['areaLoads'], message: 'Enter at least one area load or a wind pressure.' });
+    }
     const seen = new Set<string>();
     v.areaLoads.forEach((l, i) => {
       if (seen.has(l.caseId)) {

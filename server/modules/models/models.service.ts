@@ -110,7 +110,7 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
     const takeoff = input.takeoff === undefined ? takeoffParseStored(record.takeoff) : input.takeoff;
     if (takeoff) {
       assertTakeoffCases(takeoff, input.loadCases);
-      computeTakeoff(model, takeoff);
+      computeTakeoff(model, takeoff, input.loadCases);
     }
     const props = new Map(input.members.map((m) => [m.id, m]));
     const next: TrussModel = {
