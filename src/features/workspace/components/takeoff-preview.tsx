@@ -44,6 +44,12 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
         <table key={c.caseId} className="w-full border-collapse text-[13px]" aria-label={`Takeoff of load case ${c.caseId}`}>
           <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
             {c.caseId} — {caseNames.get(c.caseId) ?? 'new case'}: q = {f(c.q, 3)} kPa on the {c.basis === 'slope' ? 'sloped roof area' : 'horizontal projection'}
+            {c.pattern && (
+              <span className="block font-normal text-ink">
+                Governing span pattern for this truss: <strong>{c.pattern.label}</strong> — {f(c.pattern.exactPerUnit, 3)} m per 1 kN/m continuous (all spans
+                loaded: {f(result.exactPerUnit, 3)} m); ASCE/SEI 7-16 4.3.3, 7.5
+              </span>
+            )}
           </caption>
           <thead>
             <tr className="border-b border-paper-line">
@@ -74,6 +80,37 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
           </tbody>
         </table>
       ))}
+      {result.wind && (
+        <table className="w-full border-collapse text-[13px]" aria-label={`Wind on the roof, load case ${result.wind.caseId}`}>
+          <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
+            {result.wind.caseId} — {caseNames.get(result.wind.caseId) ?? 'new case'}: wind normal to the roof, q = {f(result.wind.q, 3)} kPa onto the{' '}
+            {result.wind.windward} slope; coefficients windward {result.wind.cWindward === null ? '—' : f(result.wind.cWindward, 2)}, leeward{' '}
+            {result.wind.cLeeward === null ? '—' : f(result.wind.cLeeward, 2)}
+          </caption>
+          <thead>
+            <tr className="border-b border-paper-line">
+              <th className={TH}>Purlin at</th>
+              <th className={TH_RIGHT}>x (m)</th>
+              <th className={TH_RIGHT}>wx (kN/m)</th>
+              <th className={TH_RIGHT}>wy (kN/m)</th>
+              <th className={TH_RIGHT}>Joint load Fx (kN)</th>
+              <th className={TH_RIGHT}>Joint load Fy (kN)</th>
+            </tr>
+          </thead>
+          <tbody className="figures">
+            {result.wind.purlins.map((p) => (
+              <tr key={p.joint} className="border-b border-paper-line/60">
+                <td className="px-2 py-1 font-medium">{p.tag}</td>
+                <td className="px-2 py-1 text-right">{f(result.purlins.find((r) => r.joint === p.joint)?.x ?? Number.NaN, 3)}</td>
+                <td className="px-2 py-1 text-right">{f(p.wx, 3)}</td>
+                <td className="px-2 py-1 text-right">{f(p.wy, 3)}</td>
+                <td className="px-2 py-1 text-right">{f(p.fx, 2)}</td>
+                <td className="px-2 py-1 text-right">{f(p.fy, 2)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
       <p className="text-xs text-ink-faint">
         Difference = (tributary − continuous) / continuous. The joint loads use the {result.method === 'exact' ? 'continuous-purlin' : 'tributary-length'} reactions, downward (Fy &lt; 0).
       </p>

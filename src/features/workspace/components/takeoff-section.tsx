@@ -3,7 +3,7 @@ import { useFieldArray, useWatch, type UseFormReturn } from 'react-hook-form';
 import type { z } from 'zod';
 import { loadCategorySchema, type Joint, type LoadCategory } from '@shared/model/truss';
 import { takeoffInputSchema, type TakeoffInput } from '@shared/schemas/run.schema';
-import type { RoofTakeoffResult } from '@shared/takeoff';
+import { PATTERN_CATEGORIES, type RoofTakeoffResult } from '@shared/takeoff';
 import { Button } from '@/components/ui/button';
 import { errorMessage } from '@/lib/api-client';
 import { useTakeoffPreview } from '../api/preview-takeoff';
@@ -46,7 +46,10 @@ export function takeoffCandidate(values: TakeoffFormValues, topChord: readonly J
   const top = topChord.map((j) => j.id);
   const x = new Map(topChord.map((j) => [j.id, j.x]));
   const purlins = (values.purlinJoints ?? top).filter((id) => x.has(id)).sort((a, b) => x.get(a)! - x.get(b)!);
-  return takeoffInputSchema.safeParse({ ...values, spacing: spacingParse(values.spacing), topChordJoints: top, purlinJoints: purlins });
+  // An empty number field reads as NaN: for the wind that means "not given".
+  const given = (v: unknown) => (typeof v === 'number' && Number.isNaN(v) ? null : v);
+  const wind = values.wind ? { ...values.wind, q: given(values.wind.q), cWindward: given(values.wind.cWindward), cLeeward: given(values.wind.cLeeward) } : values.wind;
+  return takeoffInputSchema.safeParse({ ...values, wind, spacing: spacingParse(values.spacing), topChordJoints: top, purlinJoints: purlins });
 }
 
 function useDebounced<T>(value: T, ms: number): T {
@@ -77,9 +80,29 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
   const count = Number(values.trussCount);
   const problems = candidate.success ? [] : [...new Set(candidate.error.issues.map((i) => i.message))];
 
+  const categoryOf = (id: string | undefined) => cases.find((c) => c.id === id)?.category;
+  const patternable = (id: string | undefined) => {
+    const category = categoryOf(id);
+    return category !== undefined && PATTERN_CATEGORIES.includes(category);
+  };
   const chooseCase = (i: number, value: string) => {
+    const category = value.startsWith('new:') ? (value.slice(4) as LoadCategory) : categoryOf(value);
     const id = value.startsWith('new:') ? actions.addCase(value.slice(4) as LoadCategory, `${CATEGORY_LABELS[value.slice(4) as LoadCategory]} (roof takeoff)`) : value;
     takeoffForm.setValue(`areaLoads.${i}.caseId`, id, { shouldDirty: true });
+    // Span patterns are for live, roof live and snow only: leave none ticked on another case.
+    if (!category || !PATTERN_CATEGORIES.includes(category)) takeoffForm.setValue(`areaLoads.${i}.patterns`, false, { shouldDirty: true });
+  };
+  const wind = values.wind ?? null;
+  const windCases = cases.filter((c) => c.category === 'wind');
+  const toggleWind = (on: boolean) =>
+    takeoffForm.setValue(
+      'wind',
+      on ? { caseId: windCases[0]?.id ?? '', q: Number.NaN, unit: 'kPa', windward: 'left', cWindward: Number.NaN, cLeeward: Number.NaN } : null,
+      { shouldDirty: true },
+    );
+  const chooseWindCase = (value: string) => {
+    const id = value === 'new:wind' ? actions.addCase('wind', 'Wind (roof takeoff)') : value;
+    takeoffForm.setValue('wind.caseId', id, { shouldDirty: true });
   };
 
   if (topChord.length < 2) {
@@ -104,6 +127,9 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
                 <th className={TH_RIGHT}>q</th>
                 <th className={TH}>Unit</th>
                 <th className={TH}>Acting on</th>
+                <th className={TH} title="ASCE/SEI 7-16 4.3.3 and 7.5: the purlin reaction from the pattern of loaded and unloaded spans that gives this truss the most">
+                  Unfavourable span patterns
+                </th>
                 <th className={TH}>
                   <span className="sr-only">Remove</span>
                 </th>
@@ -112,7 +138,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
             <tbody>
               {fields.length === 0 && (
                 <tr>
-                  <td colSpan={5} className="px-2 py-3 text-center text-sm text-ink-soft">
+                  <td colSpan={6} className="px-2 py-3 text-center text-sm text-ink-soft">
                     No area loads yet.
                   </td>
                 </tr>
@@ -156,6 +182,19 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
                       <option value="plan">the horizontal projection</option>
                     </select>
                   </td>
+                  <td className="px-2 py-1">
+                    <label className="flex items-center gap-2 text-xs text-ink-soft">
+                      <input
+                        type="checkbox"
+                        className="accent-accent"
+                        aria-label={`Area load ${i + 1}: check unfavourable span patterns`}
+                        disabled={!patternable(values.areaLoads?.[i]?.caseId)}
+                        title={patternable(values.areaLoads?.[i]?.caseId) ? undefined : 'For roof live, live and snow cases only'}
+                        {...takeoffForm.register(`areaLoads.${i}.patterns`)}
+                      />
+                      check
+                    </label>
+                  </td>
                   <td className="w-16 px-2 py-1 text-right">
                     <button type="button" className="text-xs text-danger hover:underline" onClick={() => remove(i)}>
                       Remove
@@ -168,6 +207,64 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
           <Button size="sm" className="mt-2" onClick={() => append({ caseId: '', q: Number.NaN, unit: 'kPa', basis: 'slope' })}>
             Add area load
           </Button>
+          <p className="mt-1 text-xs text-ink-faint">
+            Span patterns (roof live, live and snow): each purlin's reaction on this truss is taken from the pattern of loaded and empty purlin spans that
+            gives it the most (ASCE/SEI 7-16 4.3.3 partial loading, 7.5 partial snow loading); the preview names the pattern.
+          </p>
+        </div>
+
+        <div>
+          <h3 className="mb-1 text-sm font-semibold text-ink">Wind normal to the roof</h3>
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" className="accent-accent" checked={Boolean(wind)} onChange={(e) => toggleWind(e.target.checked)} />
+            Wind on the roof slopes
+          </label>
+          <p className="mb-2 text-xs text-ink-faint">
+            Velocity pressure q times each slope's pressure coefficient (positive: pressure towards the roof; negative: suction), on the sloped area and
+            normal to it; each purlin's load is resolved into x and y. The slope left of the ridge is the one rising to the right.
+          </p>
+          {wind && (
+            <div className="grid grid-cols-1 gap-3 sm:grid-cols-6">
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-2">
+                Wind load case
+                <select aria-label="Wind: load case" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} value={wind.caseId ?? ''} onChange={(e) => chooseWindCase(e.target.value)}>
+                  <option value="">Choose…</option>
+                  {windCases.map((c) => (
+                    <option key={c.id} value={c.id}>
+                      {c.id} — {c.name}
+                    </option>
+                  ))}
+                  <option value="new:wind">+ New wind case</option>
+                </select>
+              </label>
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+                q
+                <input type="number" step="any" aria-label="Wind: velocity pressure q" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.q', { valueAsNumber: true })} />
+              </label>
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+                Unit
+                <select aria-label="Wind: unit" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} {...takeoffForm.register('wind.unit')}>
+                  <option value="kPa">kPa</option>
+                  <option value="psf">psf</option>
+                </select>
+              </label>
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-2">
+                Wind blows onto
+                <select aria-label="Wind: windward slope" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} {...takeoffForm.register('wind.windward')}>
+                  <option value="left">the slope left of the ridge</option>
+                  <option value="right">the slope right of the ridge</option>
+                </select>
+              </label>
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-3">
+                Windward coefficient
+                <input type="number" step="any" aria-label="Wind: windward coefficient" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.cWindward', { valueAsNumber: true })} />
+              </label>
+              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-3">
+                Leeward coefficient
+                <input type="number" step="any" aria-label="Wind: leeward coefficient" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.cLeeward', { valueAsNumber: true })} />
+              </label>
+            </div>
+          )}
         </div>
 
         <div>
