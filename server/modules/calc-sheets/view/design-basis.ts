@@ -43,6 +43,14 @@ function methodLines(input: CalcSheetInput, analysis: TrussAnalysis): string[] {
         ? 'Roof loads from area loads through purlins: tributary widths between purlins; each purlin a continuous beam over the trusses, its reaction on this truss by the three-moment equation (by tributary length shown beside it for comparison).'
         : 'Roof loads from area loads through purlins: tributary widths between purlins; each purlin’s reaction on this truss by tributary length (half of each adjacent span), the three-moment equation shown beside it for comparison.',
     );
+    if (input.takeoffSteps.some((s) => s.kind === 'span-pattern')) {
+      lines.push(
+        'Partial loading of the continuous purlins (ASCE/SEI 7-16 4.3.3, 7.5): for the cases so marked, the pattern of loaded and empty spans that gives this truss its largest reaction, found over every pattern by superposition of single-span reactions; empty spans carry no load (at least the reaction with half the balanced snow load on them).',
+      );
+    }
+    if (input.takeoffSteps.some((s) => s.kind === 'wind-purlin')) {
+      lines.push('Wind normal to the roof: velocity pressure times each slope’s pressure coefficient on the sloped area, resolved into x and y at each purlin and carried to this truss like the other purlin loads.');
+    }
   }
   const methods = new Set(analysis.cases.map((c) => c.method));
   if (analysis.cases.some((c) => c.zeroForce.length)) lines.push('Zero-force members by the two joint rules, repeated until nothing changes.');
