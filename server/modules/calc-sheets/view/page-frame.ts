@@ -50,8 +50,11 @@ export const FOOT_SHARES = { left: 0.56, right: 0.44 } as const;
  * common practice, no source).
  */
 export const HEAD_HEIGHT_MM = 31 - 5 - 1.8 - 6;
-/** Footer: the 17 mm bottom margin less its 5 mm gap, 1.6 mm padding, and 6 mm at the edge. */
-export const FOOT_HEIGHT_MM = 17 - 5 - 1.6 - 6;
+/**
+ * Footer: the bottom margin (17 mm; 21 mm on an issued sheet, whose footer has the stamp line)
+ * less its 3 mm gap, 1.6 mm padding, and 6 mm at the edge.
+ */
+export const footHeightMm = (issued: boolean) => (issued ? 21 : 17) - 3 - 1.6 - 6;
 export const HEAD_SIZES = [7.4, 6.8, 6.2, 5.6];
 export const FOOT_SIZES = [6.8, 6.2, 5.6];
 export const FRAME_LINE_HEIGHT = 1.32;

@@ -2,7 +2,7 @@ import { isoMinute } from './format';
 import type { SheetSection } from './context';
 import { signatureFields } from './signatures';
 import { qrSvg } from '../verify-qr';
-import { FOOT_SHARES, frameFontPt, frameWidthMm, HEAD_SHARES, FOOT_SIZES, HEAD_SIZES, FOOT_HEIGHT_MM, HEAD_HEIGHT_MM, FRAME_LINE_HEIGHT, type FrameBox } from './page-frame';
+import { FOOT_SHARES, frameFontPt, frameWidthMm, HEAD_SHARES, FOOT_SIZES, HEAD_SIZES, footHeightMm, HEAD_HEIGHT_MM, FRAME_LINE_HEIGHT, type FrameBox } from './page-frame';
 import type { CalcSheetInput } from './types';
 
 /** The frame of every page: paper, document title, units, the title block and its signatures. */
@@ -79,6 +79,6 @@ function pageFrame(
   ];
   return {
     headPt: frameFontPt(head, width, HEAD_HEIGHT_MM, HEAD_SIZES, FRAME_LINE_HEIGHT),
-    footPt: frameFontPt(foot, width, FOOT_HEIGHT_MM, FOOT_SIZES, FRAME_LINE_HEIGHT),
+    footPt: frameFontPt(foot, width, footHeightMm(Boolean(issue)), FOOT_SIZES, FRAME_LINE_HEIGHT),
   };
 }
