@@ -13,6 +13,7 @@ import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { createPassport } from './modules/auth/passport';
 import { authRoutes } from './modules/auth/auth.routes';
 import { signInLimiterCreate } from './modules/auth/signin-limiter';
+import { addressLimiterCreate } from './modules/auth/request-limiter';
 import { usersRoutes } from './modules/users/users.routes';
 import { firmRoutes } from './modules/firm/firm.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
@@ -167,7 +168,16 @@ export function createApp(deps: AppDeps): CreatedApp {
       log,
     }),
   );
-  app.use('/api', recordsRoutes(registry, { keys: deps.signingKeys, sheets: issuedSheets, maxVerifyBytes: config.maxUploadBytes }));
+  const verifyLimiter = addressLimiterCreate(deps.sequelize, {
+    prefix: 'verify',
+    limit: config.verifyAddressLimit,
+    windowMs: config.verifyRateWindowMs,
+    what: 'verify requests',
+  });
+  app.use(
+    '/api',
+    recordsRoutes(registry, { keys: deps.signingKeys, sheets: issuedSheets, maxVerifyBytes: config.maxUploadBytes, publicLimit: verifyLimiter.middleware }),
+  );
   app.use('/api', notFoundHandler);
 
   if (deps.clientDir && fs.existsSync(path.join(deps.clientDir, 'index.html'))) {

@@ -27,6 +27,9 @@ const envSchema = z.object({
   /** Failed sign-ins per address in one window; high, so an office behind one NAT is not locked out by one person. */
   SIGNIN_ADDRESS_LIMIT: z.coerce.number().int().min(1).default(50),
   SIGNIN_RATE_WINDOW_MS: z.coerce.number().int().min(1000).default(15 * 60 * 1000),
+  /** Public verify requests (page and uploads) per network address per window. */
+  VERIFY_ADDRESS_LIMIT: z.coerce.number().int().min(1).default(30),
+  VERIFY_RATE_WINDOW_MS: z.coerce.number().int().min(1000).default(15 * 60 * 1000),
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
   CHROMIUM_PATH: z.string().default('/usr/bin/chromium'),
   MAX_UPLOAD_MB: z.coerce.number().positive().default(20),
@@ -67,6 +70,8 @@ export interface Config {
   signInAccountLimit: number;
   signInAddressLimit: number;
   signInRateWindowMs: number;
+  verifyAddressLimit: number;
+  verifyRateWindowMs: number;
   bcryptRounds: number;
   chromiumPath: string;
   maxUploadBytes: number;
@@ -107,6 +112,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     signInAccountLimit: e.SIGNIN_ACCOUNT_LIMIT,
     signInAddressLimit: e.SIGNIN_ADDRESS_LIMIT,
     signInRateWindowMs: e.SIGNIN_RATE_WINDOW_MS,
+    verifyAddressLimit: e.VERIFY_ADDRESS_LIMIT,
+    verifyRateWindowMs: e.VERIFY_RATE_WINDOW_MS,
     bcryptRounds: e.BCRYPT_ROUNDS,
     chromiumPath: e.CHROMIUM_PATH,
     maxUploadBytes: Math.round(e.MAX_UPLOAD_MB * 1024 * 1024),

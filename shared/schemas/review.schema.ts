@@ -21,6 +21,8 @@ import { z } from 'zod';
  * | PATCH  /api/sheet-comments/:id     | engineer, reviewer | SheetCommentResolveInput | SheetCommentView |
  * | GET    /api/archive                | any role | query: ArchiveQuery | ArchiveEntryView[] |
  * | POST   /api/archive/verify         | any role | multipart, one PDF in field "file" | SheetVerifyView |
+ * | GET    /api/public/verify/:id      | public (rate-limited per address) | — | PublicSheetView |
+ * | POST   /api/public/verify          | public (rate-limited per address) | multipart, one PDF in field "file" | PublicVerifyView |
  * | GET    /api/firm/signing-key       | admin | — | FirmSigningKeyView (the current key) |
  * | GET    /api/firm/signing-keys      | admin | — | SigningKeyView[] (current first, then newest first) |
  * | POST   /api/firm/signing-keys/rotate | admin | — | 201 SigningKeyView (the new current key) |
@@ -228,6 +230,43 @@ export interface SheetVerifyView {
   /** 'intact' when the archived file still hashes to the recorded SHA-256. */
   archivedFile: 'intact' | 'altered' | 'missing' | null;
   /** Plain sentence for the page. */
+  verdict: string;
+}
+
+/**
+ * What the public verify page shows of an issued sheet: only what the sheet itself prints (firm,
+ * job, truss, revision, issue date, the fingerprint of its footer), and whether it is current.
+ */
+export interface PublicSheetView {
+  sheetId: number;
+  firm: string;
+  jobNumber: string;
+  projectName: string;
+  trussName: string;
+  revision: string;
+  /** Date of issue, YYYY-MM-DD (UTC), as the sheet prints it. */
+  issuedOn: string;
+  status: 'current' | 'superseded';
+  /** The revision that superseded it, by its letter. */
+  supersededBy: string | null;
+  /** The fingerprint printed in every page's footer (12 hex digits) and what it is of. */
+  fingerprint: string;
+  fingerprintOf: string;
+}
+
+/**
+ * The public verify answer for a dropped PDF. 'match': its bytes are an issued sheet's; 'altered':
+ * its metadata claims an issued sheet but its bytes differ from the archived copy; 'unknown':
+ * no issued sheet has these bytes and the file claims none.
+ */
+export interface PublicVerifyView {
+  outcome: 'match' | 'altered' | 'unknown';
+  sha256: string;
+  size: number;
+  /** The matching sheet, or the one the file claims to be. */
+  sheet: PublicSheetView | null;
+  /** 'match' only: whether the firm's signature over the issue record still holds. */
+  recordIntact: boolean | null;
   verdict: string;
 }
 

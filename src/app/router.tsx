@@ -19,6 +19,8 @@ export function createAppRouter() {
         { path: '/invite/:token', element: <AcceptInvitationRoute /> },
         { path: '/forgot-password', element: <ForgotPasswordRoute /> },
         { path: '/reset-password/:token', element: <ResetPasswordRoute /> },
+        // The verify address printed on every issued sheet: open to anyone holding it.
+        { path: '/verify/:sheetId', lazy: async () => ({ Component: (await import('./routes/public-verify')).PublicVerifyRoute }) },
         {
           element: (
             <RequireSession>

@@ -57,6 +57,8 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'PATCH /api/sheet-comments/:id': ['engineer', 'reviewer'],
   'GET /api/archive': ALL,
   'POST /api/archive/verify': ALL,
+  'GET /api/public/verify/:id': 'public',
+  'POST /api/public/verify': 'public',
   'GET /api/firm/signing-key': ['admin'],
   'GET /api/firm/signing-keys': ['admin'],
   'POST /api/firm/signing-keys/rotate': ['admin'],

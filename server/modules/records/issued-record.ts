@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { sheetRevisionLabel, type SheetSignerView } from '@shared/schemas/review.schema';
 import { canonicalJson } from './canonical-json';
 import { keyIdOf } from './firm-key';
@@ -89,4 +90,31 @@ export function issuedRecordVerify(row: RevisionRow, key: PublicKeyCheck | null)
     return false;
   }
   return text === row.signedRecord && row.keyFingerprint === key.fingerprint && key.verify(text, row.signature);
+}
+
+/** How many hex digits of the issue fingerprint a sheet prints. */
+export const ISSUE_FINGERPRINT_DIGITS = 12;
+
+/**
+ * The short fingerprint printed on every page of an issued sheet: the first 12 hex digits of the
+ * SHA-256 of the issue record without its `pdf` part (sheet id, truss, run, revision, signers,
+ * issue time, key id), as canonical JSON. The PDF's own SHA-256 cannot be printed inside the PDF
+ * it hashes, so the printed fingerprint is of the record; the record the firm key signs then
+ * names the PDF's SHA-256. Rebuilt from the frozen columns, so a changed row no longer gives the
+ * fingerprint on the paper.
+ */
+export function issueFingerprint(row: RevisionRow, formatVersion: RecordFormat = RECORD_FORMAT_CURRENT): string {
+  const { pdf: _pdf, ...stamp } = issuedRecord(row, formatVersion);
+  void _pdf;
+  const text = canonicalJson(stamp as unknown as Parameters<typeof canonicalJson>[0]);
+  return createHash('sha256').update(text).digest('hex').slice(0, ISSUE_FINGERPRINT_DIGITS);
+}
+
+/** What the printed fingerprint is of, in words (printed beside it and on the verify page). */
+export const ISSUE_FINGERPRINT_OF =
+  'first 12 hex digits of the SHA-256 of the issue record (sheet, revision, run, signers, issue time, key id), not of the PDF file';
+
+/** The public verify address of an issued sheet: PUBLIC_URL/verify/<sheet id>. */
+export function verifyUrlOf(publicUrl: string, sheetId: number): string {
+  return `${publicUrl.replace(/\/+$/, '')}/verify/${sheetId}`;
 }

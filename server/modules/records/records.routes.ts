@@ -1,3 +1,4 @@
+import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { archiveQuerySchema, type FirmSigningKeyView } from '@shared/schemas/review.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
@@ -9,6 +10,7 @@ import * as archive from './archive.service';
 import { auditChainVerify } from './audit-chain';
 import type { SigningKeys } from './signing-keys';
 import { verifyPdf } from './verify.service';
+import { publicSheet, publicVerifyPdf } from './public-verify.service';
 
 export interface RecordsRouteDeps {
   /** The firm's Ed25519 keys: the current one and every retired public key. */
@@ -16,6 +18,8 @@ export interface RecordsRouteDeps {
   /** Where issued PDFs are kept. */
   sheets: FileStore;
   maxVerifyBytes: number;
+  /** Counts each public verify request per network address; refuses over the limit (429). */
+  publicLimit: RequestHandler;
 }
 
 /** What is issued and kept: the archived PDFs, the archive search, verification, the firm's keys, the audit chain. */
@@ -38,6 +42,16 @@ export function recordsRoutes(registry: RouteSpec[], deps: RecordsRouteDeps) {
       throw new AppError('file-missing', 'No file came with the upload. Drop a PDF and send it in the field named "file".', 400);
     }
     res.json(await verifyPdf(req.file.buffer, deps));
+  });
+  // The public verify page: no sign-in, limited per address, only what the sheet itself prints.
+  routes.add('get', '/public/verify/:id', 'public', deps.publicLimit, async (req, res) => {
+    res.json(await publicSheet(idParam(req.params.id, 'That issued sheet')));
+  });
+  routes.add('post', '/public/verify', 'public', deps.publicLimit, verifyUpload.single('file'), async (req, res) => {
+    if (!req.file) {
+      throw new AppError('file-missing', 'No file came with the upload. Choose the calc sheet PDF and send it in the field named "file".', 400);
+    }
+    res.json(await publicVerifyPdf(req.file.buffer, deps));
   });
   routes.add('get', '/firm/signing-key', ['admin'], async (_req, res) => {
     const key = await deps.keys.current();

@@ -15,7 +15,7 @@ export function calcSheetRenderer(deps: {
   now?: () => Date;
 }): SheetRenderer {
   return {
-    async renderPdf({ runId, revisionLabel, signatures }) {
+    async renderPdf({ runId, revisionLabel, signatures, issue }) {
       const base = await deps.loadRunSheet(runId);
       const input: CalcSheetInput = {
         ...base,
@@ -24,6 +24,7 @@ export function calcSheetRenderer(deps: {
         checkedBy: signatures ? { name: signatures.checkedBy.name, date: signatures.checkedBy.date.slice(0, 10) } : undefined,
         issuedBy: signatures ? { name: signatures.issuedBy.name, date: signatures.issuedBy.date.slice(0, 10) } : undefined,
         generatedAt: signatures?.issuedBy.date ?? (deps.now ?? (() => new Date()))(),
+        issue: issue ?? null,
       };
       // The signed record: printed ahead of every waiting preview (see sheet-printer.ts).
       return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize, { priority: 'issue', label: `issue-run-${runId}` });

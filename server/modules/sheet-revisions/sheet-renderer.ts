@@ -21,6 +21,20 @@ export interface SheetRenderInput {
   revisionLabel: string;
   /** Filled when issuing; null for an unsigned print. */
   signatures: { preparedBy: SheetSignature; checkedBy: SheetSignature; issuedBy: SheetSignature } | null;
+  /** Filled when issuing: what every page prints to identify the copy, and where to verify it. */
+  issue?: SheetIssueStamp | null;
+}
+
+/** The issued copy's own identity, printed on every page (see records/issued-record.ts). */
+export interface SheetIssueStamp {
+  /** The issued revision's id (the sheet revision row), as the verify address names it. */
+  sheetId: number;
+  /** Short fingerprint (issueFingerprint): hex digits. */
+  fingerprint: string;
+  /** What the fingerprint is of, in words. */
+  fingerprintOf: string;
+  /** PUBLIC_URL/verify/<sheetId>. */
+  verifyUrl: string;
 }
 
 export interface SheetRenderer {

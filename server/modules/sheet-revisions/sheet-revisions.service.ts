@@ -6,7 +6,7 @@ import type { Mailer } from '../../mail/mailer';
 import type { FileStore } from '../../storage/file-store';
 import { keyIdOf } from '../records/firm-key';
 import type { SigningKeys } from '../records/signing-keys';
-import { issuedRecordText, issuedSigners } from '../records/issued-record';
+import { ISSUE_FINGERPRINT_OF, issuedRecordText, issuedSigners, issueFingerprint, verifyUrlOf } from '../records/issued-record';
 import { recordsRepository as records, type RevisionRow, type TrussContext } from '../records/records.repository';
 import { statusConflict, TRANSITIONS } from './revision-status';
 import { reviewMailSend, type ReviewMailKind } from './sheet-revisions.mail';
@@ -181,6 +181,16 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
   const submittedAt = row.submittedAt ?? now;
   const checkedAt = row.checkedAt ?? now;
   const label = sheetRevisionLabel(row.number);
+  const key = await deps.keys.current();
+  // The row as it will be once issued, but for the PDF's own size and hash: its fingerprint is
+  // printed on every page, so it is computed from what is known before the print.
+  const stamped: RevisionRow = {
+    ...row,
+    issuedAt: now,
+    issuedById: actor.id,
+    issuedByName: actor.name,
+    keyFingerprint: key.fingerprint,
+  };
   const pdf = await deps.renderer.renderPdf({
     runId: row.runId,
     revisionLabel: label,
@@ -189,19 +199,20 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
       checkedBy: { name: row.checkedByName ?? '', role: 'Checked by', date: checkedAt.toISOString() },
       issuedBy: { name: actor.name, role: 'Issued by', date: now.toISOString() },
     },
+    issue: {
+      sheetId: row.id,
+      fingerprint: issueFingerprint(stamped),
+      fingerprintOf: ISSUE_FINGERPRINT_OF,
+      verifyUrl: verifyUrlOf(deps.publicUrl(), row.id),
+    },
   });
   const sha256 = crypto.createHash('sha256').update(pdf).digest('hex');
-  const key = await deps.keys.current();
   const storedName = `sheet-${row.id}-${label}-${sha256.slice(0, 16)}-${crypto.randomBytes(4).toString('hex')}.pdf`;
   const issued: RevisionRow = {
-    ...row,
-    issuedAt: now,
-    issuedById: actor.id,
-    issuedByName: actor.name,
+    ...stamped,
     pdfStoredName: storedName,
     pdfSize: pdf.length,
     sha256,
-    keyFingerprint: key.fingerprint,
   };
   const record = issuedRecordText(issued);
   const signature = key.sign(record);

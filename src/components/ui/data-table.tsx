@@ -62,7 +62,7 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
                     key={header.id}
                     scope="col"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={`px-3 py-2 align-middle text-[11px] leading-4 font-semibold tracking-wide whitespace-nowrap text-ink-soft uppercase ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
+                    className={`px-3 py-2 align-middle text-[11px] leading-4 font-semibold tracking-wide text-ink-soft uppercase ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button
@@ -71,7 +71,7 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
                         className={`inline-flex items-center gap-1 align-middle leading-4 tracking-wide uppercase hover:text-ink ${right ? 'flex-row-reverse' : ''}`}
                       >
                         {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden className={`w-2 text-ink-faint ${sorted ? '' : 'invisible'}`}>
+                        <span aria-hidden className={`inline-block w-3 text-center text-ink-faint ${sorted ? '' : 'invisible'}`}>
                           {sorted === 'desc' ? '↓' : '↑'}
                         </span>
                       </button>

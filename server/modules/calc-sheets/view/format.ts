@@ -4,6 +4,9 @@ import { stepToKatex, type SolverStep } from '@shared/solver';
 import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
 import { forceSenseOf, jointFbdSvg } from '../truss-svg';
 import type { StepView } from './types';
+import { breakableTex } from '@shared/text/breakable-tex';
+
+export { breakableTex };
 
 /** How the sheet writes numbers, units, member forces and equations. Pure. */
 
@@ -18,7 +21,7 @@ export function katexHtml(source: string, display = true): string {
  * the page. KaTeX breaks inline math only there.
  */
 function equationHtml(source: string): string {
-  return katex.renderToString(`\\displaystyle ${source}`, { displayMode: false, output: 'html', throwOnError: true, strict: 'ignore' });
+  return katex.renderToString(`\\displaystyle ${breakableTex(source)}`, { displayMode: false, output: 'html', throwOnError: true, strict: 'ignore' });
 }
 
 export interface Formatters {

@@ -41,6 +41,8 @@ export interface CalcSheetInput {
   runLabel?: string;
   /** When the sheet was generated. */
   generatedAt: Date | string;
+  /** Set on the issued print only: the copy's id, fingerprint and verify address (every page, last page). */
+  issue?: { sheetId: number; fingerprint: string; fingerprintOf: string; verifyUrl: string } | null;
 }
 
 /** A step of the sheet: a stable anchor id (the solver's step id), a title and typeset lines. */
@@ -118,7 +120,14 @@ export interface CalcSheetView {
     issuedBy: string;
     issuedDate: string;
     run: string;
+    /** The firm's address as entered, line by line (the page head prints each on its own line). */
+    firmAddressLines: string[];
+    /** Type size (pt) of the page head and of the footer, chosen so long names fit (view/page-frame.ts). */
+    headPt: number;
+    footPt: number;
   };
+  /** The issued copy's stamp: printed in every page's footer; the last page says how to verify it (QR code SVG). */
+  issue: { sheetId: number; revision: string; fingerprint: string; fingerprintOf: string; verifyUrl: string; qrSvg: string } | null;
   cover: {
     rows: SummaryRow[];
     summary: SummaryRow[];

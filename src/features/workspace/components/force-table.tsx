@@ -53,7 +53,7 @@ export function ForceTable({
       { id: 'maxCBy', accessorFn: (r) => r.envelope?.maxCompressionCombo ?? '—', header: 'from', cell: (c) => <span className="text-ink-soft">{c.getValue()}</span> },
       { accessorKey: 'force', header: `Governing (${unit})`, meta: { align: 'right' }, cell: (c) => <span className="font-medium">{forceDigits(c.getValue(), unitSystem)}</span> },
       { id: 'sense', header: 'T / C', accessorFn: (r) => forceSense(r.force), cell: (c) => <Sense kN={c.row.original.force} />, meta: { align: 'right' } },
-      { id: 'governing', accessorFn: (r) => r.envelope?.governing ?? '—', header: 'Governing combination' },
+      { id: 'governing', accessorFn: (r) => r.envelope?.governing ?? '—', header: 'Governed by' },
     ]);
   }, [envelope, unit, unitSystem, utilisationOf]);
 

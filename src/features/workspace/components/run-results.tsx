@@ -244,7 +244,8 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
             <Legend />
           </Panel>
 
-          <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+          {/* The envelope's tables (max, min and the source of each) take the full width; a case or a combination shares it with its steps. */}
+          <div className={`grid grid-cols-1 gap-4 ${source.kind === 'envelope' ? '' : 'xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]'}`}>
             <div className="flex flex-col gap-3">
               <h3 className="text-sm font-semibold text-ink">Member forces</h3>
               <ForceTable rows={rows} envelope={source.kind === 'envelope'} unitSystem={unitSystem} utilisationOf={utilisationOf} />
