@@ -51,6 +51,14 @@ function run(jobPath: string | undefined): unknown {
       j: cls.j,
       rank: cls.rank,
       message: cls.message,
+      // Stable: how near a mechanism (σmin, σmax of the joint-equilibrium matrix, 1/σmin, joints by tag).
+      conditioning: cls.conditioning
+        ? { measure: cls.conditioning.measure, sigmaMin: cls.conditioning.sigmaMin, sigmaMax: cls.conditioning.sigmaMax, ratio: cls.conditioning.ratio, amplification: cls.conditioning.amplification, nearMechanism: cls.conditioning.nearMechanism, joints: cls.conditioning.jointTags, message: cls.conditioning.message }
+        : null,
+      // Unstable: supports, members or both; an open panel's diagonal by joint tags when one helps.
+      cause: cls.cause
+        ? { kind: cls.cause.kind, reason: cls.cause.reason, ...(cls.cause.diagonal ? { diagonal: { from: cls.cause.diagonal.fromTag, to: cls.cause.diagonal.toTag, panel: cls.cause.diagonal.panel, makesStable: cls.cause.diagonal.makesStable } } : {}) }
+        : null,
     },
     joints: model.joints.map((j) => ({ tag: j.tag, x: j.x, y: j.y })),
     members: model.members.map((m) => {

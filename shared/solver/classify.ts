@@ -245,7 +245,6 @@ export function trussClassify(pm: PreparedModel): Classification {
     message = `m + r = ${m} + ${r} = ${m + r} > 2j = ${2 * j} and the equilibrium matrix has full rank: the truss is stable and statically indeterminate to degree ${degree}; member forces depend on member stiffness EA.`;
   }
   const conditioning = kind === 'unstable' ? null : conditioningOf(pm);
-  if (conditioning?.nearMechanism) message = `${message} ${conditioning.message}`;
   return {
     kind,
     m,

@@ -211,6 +211,12 @@ function lanczosLargest(M: Float64Array, size: number, w: number): number {
 
 const JOINT_LIST_LIMIT = 12;
 
+/** 1/σmin as the sheet writes it: whole kN from 100 up (3000), else three figures (22.7). */
+export function amplificationText(a: number | null): string {
+  if (a === null || !Number.isFinite(a)) return '—';
+  return a >= 100 ? String(Math.round(a)) : a.toPrecision(3);
+}
+
 /** The conditioning of a stable truss (see the top of this file); null for an empty model. */
 export function conditioningOf(pm: PreparedModel): Conditioning | null {
   const n = pm.jointIds.length;
@@ -269,7 +275,7 @@ export function conditioningOf(pm: PreparedModel): Conditioning | null {
   const joints = moving.map((m) => pm.jointIds[m.j]);
   const jointTags = moving.map((m) => pm.jointTags[m.j]);
   const shown = jointTags.slice(0, JOINT_LIST_LIMIT).join(', ') + (jointTags.length > JOINT_LIST_LIMIT ? ` and ${jointTags.length - JOINT_LIST_LIMIT} more` : '');
-  const amp = amplification.toPrecision(3);
+  const amp = amplificationText(amplification);
   const message = nearMechanism
     ? `Near a mechanism: the smallest singular value of the joint-equilibrium matrix is σmin = ${sigmaMin.toPrecision(3)} (σmin/σmax = ${(sigmaMin / sigmaMax).toPrecision(3)}), so 1 kN of load can raise up to ${amp} kN of member and reaction force. ` +
       `The joints that move most in that near-mechanism are ${shown}: the members there are almost in line, or a support line almost runs through the rest. Change the shape there (more depth or rise, a member across the panel, or a support turned), or the forces will be large and very sensitive to the drawn geometry.`
