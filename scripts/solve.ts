@@ -1,20 +1,9 @@
 /**
  * `npm run -s solve -- JOB.json`: solves one truss job and prints one JSON result on stdout.
  *
- * JOB.json (lengths in metres after unit conversion, forces in kN, fy positive up):
- *   drawing      DXF path relative to the job file, read through the drawing import; or
- *   joints       [[x, y], …] and members [[i, j], …] (0-based joint indices) inline
- *   layers       optional member layers of the drawing
- *   units        "m" | "mm" | "cm" | "in" | "ft" (drawing or inline coordinates; required for a
- *                drawing without $INSUNITS; inline default "m")
- *   tolerance    optional, m: joint merging in the import, and how far an "at" may be from a joint
- *   supports     [{ "at": [x, y], "type": "pin" | "roller", "angle": deg (roller line from +x, default 90) }]
- *   loads        [{ "at": [x, y], "fx": kN, "fy": kN, "case": "D" }]
- *   EA           optional kN for every member (needed when the truss is indeterminate)
- *   combinations optional [{ "name": "C1", "factors": { "D": 1.2, "S": 1.6 }, "clause": "…" }]
- *   design, deflection  optional member checks and unit-load deflections (see scripts/job-design.ts)
+ * JOB.json: the job file (README "Job files"; keys and checks in server/modules/job-files/job-file.ts).
  *
- * Output: classification, joints, members, cases and combinations (forces, reactions), "envelope"
+ * Output: classification (with conditioning and cause), joints, members, cases and combinations (forces, reactions), "envelope"
  * (per member maxTension, maxCompression, governing) and "reactionEnvelope" (per support: joint
  * tag, at [x, y], rxMax/rxMin/ryMax/ryMin in kN with the combination, or case, of each in
  * rxMaxCombo …, and "uplift" in words or null).
