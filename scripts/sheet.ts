@@ -13,6 +13,7 @@ import { SolverError, trussSolve } from '@shared/solver/index';
 import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
 import { createSheetPrinter, SheetPrintError } from '../server/modules/calc-sheets/sheet-printer';
+import { computeTakeoff } from '../server/modules/takeoff/takeoff-compute';
 import { JobError, jobLoad } from './job';
 
 const USAGE = 'Usage: npm run -s sheet -- JOB.json OUT.pdf';
@@ -25,7 +26,7 @@ async function main(args: string[]): Promise<void> {
   const [jobPath, outPath] = args;
   if (!jobPath || !outPath || args.length > 2) throw new JobError(USAGE);
   if (!/\.pdf$/i.test(outPath)) throw new JobError(`The output ${outPath} should end in .pdf. ${USAGE}`);
-  const { model } = jobLoad(jobPath);
+  const { model, saved, takeoff } = jobLoad(jobPath);
   const analysis = trussSolve(model);
   const paper = process.env.SHEET_PAPER === 'Letter' ? 'Letter' : 'A4';
   const view = buildCalcSheetView({
@@ -43,6 +44,7 @@ async function main(args: string[]): Promise<void> {
     revision: 'P1',
     model,
     analysis,
+    ...(takeoff ? { takeoffSteps: computeTakeoff(saved, takeoff).steps } : {}),
     preparedBy: { name: 'Panelpoint sheet command' },
     runLabel: path.basename(jobPath),
     generatedAt: new Date(),

@@ -1,20 +1,9 @@
 /**
  * `npm run -s solve -- JOB.json`: solves one truss job and prints one JSON result on stdout.
  *
- * JOB.json (lengths in metres after unit conversion, forces in kN, fy positive up):
- *   drawing      DXF path relative to the job file, read through the drawing import; or
- *   joints       [[x, y], …] and members [[i, j], …] (0-based joint indices) inline
- *   layers       optional member layers of the drawing
- *   units        "m" | "mm" | "cm" | "in" | "ft" (drawing or inline coordinates; required for a
- *                drawing without $INSUNITS; inline default "m")
- *   tolerance    optional, m: joint merging in the import, and how far an "at" may be from a joint
- *   supports     [{ "at": [x, y], "type": "pin" | "roller", "angle": deg (roller line from +x, default 90) }]
- *   loads        [{ "at": [x, y], "fx": kN, "fy": kN, "case": "D" }]
- *   EA           optional kN for every member (needed when the truss is indeterminate)
- *   combinations optional [{ "name": "C1", "factors": { "D": 1.2, "S": 1.6 }, "clause": "…" }]
- *   design, deflection  optional member checks and unit-load deflections (see scripts/job-design.ts)
+ * JOB.json: the job file (README "Job files"; keys and checks in server/modules/job-files/job-file.ts).
  *
- * Output: classification, joints, members, cases and combinations (forces, reactions), "envelope"
+ * Output: classification (with conditioning and cause), joints, members, cases and combinations (forces, reactions), "envelope"
  * (per member maxTension, maxCompression, governing) and "reactionEnvelope" (per support: joint
  * tag, at [x, y], rxMax/rxMin/ryMax/ryMin in kN with the combination, or case, of each in
  * rxMaxCombo …, and "uplift" in words or null).
@@ -51,6 +40,14 @@ function run(jobPath: string | undefined): unknown {
       j: cls.j,
       rank: cls.rank,
       message: cls.message,
+      // Stable: how near a mechanism (σmin, σmax of the joint-equilibrium matrix, 1/σmin, joints by tag).
+      conditioning: cls.conditioning
+        ? { measure: cls.conditioning.measure, sigmaMin: cls.conditioning.sigmaMin, sigmaMax: cls.conditioning.sigmaMax, ratio: cls.conditioning.ratio, amplification: cls.conditioning.amplification, nearMechanism: cls.conditioning.nearMechanism, joints: cls.conditioning.jointTags, message: cls.conditioning.message }
+        : null,
+      // Unstable: supports, members or both; an open panel's diagonal by joint tags when one helps.
+      cause: cls.cause
+        ? { kind: cls.cause.kind, reason: cls.cause.reason, ...(cls.cause.diagonal ? { diagonal: { from: cls.cause.diagonal.fromTag, to: cls.cause.diagonal.toTag, panel: cls.cause.diagonal.panel, makesStable: cls.cause.diagonal.makesStable } } : {}) }
+        : null,
     },
     joints: model.joints.map((j) => ({ tag: j.tag, x: j.x, y: j.y })),
     members: model.members.map((m) => {

@@ -20,6 +20,7 @@ import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { projectsRoutes } from './modules/projects/projects.routes';
 import { drawingsRoutes } from './modules/drawings/drawings.routes';
 import { modelsRoutes } from './modules/models/models.routes';
+import { jobFilesRoutes } from './modules/job-files/job-files.routes';
 import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
@@ -149,6 +150,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   const importPool = importPoolCreate({ size: config.importWorkers, memoryMb: config.importMemoryMb });
   app.use('/api', drawingsRoutes(registry, { store: uploads, pool: importPool, maxUploadBytes: config.maxUploadBytes }));
   app.use('/api', modelsRoutes(registry));
+  app.use('/api', jobFilesRoutes(registry));
   app.use('/api', takeoffRoutes(registry));
   const solvePool = solvePoolCreate();
   app.use('/api', runsRoutes(registry, { pool: solvePool, log }));

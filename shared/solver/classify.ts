@@ -1,4 +1,5 @@
 import type { PreparedModel } from './prepare';
+import { conditioningOf } from './conditioning';
 import { equilibriumRank } from './rank';
 import type { SparseRow } from './sparse';
 import type { Classification, DeterminacyKind } from './types';
@@ -104,6 +105,75 @@ function membersRigid(pm: PreparedModel): boolean {
   return equilibriumRank(braced, equilibriumRows(braced), false).rank === 2 * n;
 }
 
+/** The model with one more member from joint a to joint b (incidence rebuilt), for a rank trial. */
+function withMember(pm: PreparedModel, a: number, b: number): PreparedModel {
+  const dx = pm.x[b] - pm.x[a];
+  const dy = pm.y[b] - pm.y[a];
+  const length = Math.hypot(dx, dy);
+  const members = [...pm.members, { id: '', tag: '', a, b, length, cx: dx / length, cy: dy / length, EA: null, symbol: '' }];
+  const n = pm.jointIds.length;
+  const start = new Int32Array(n + 1);
+  for (const mb of members) {
+    start[mb.a + 1]++;
+    start[mb.b + 1]++;
+  }
+  for (let i = 0; i < n; i++) start[i + 1] += start[i];
+  const fill = Int32Array.from(start.subarray(0, n));
+  const incident = new Int32Array(2 * members.length);
+  members.forEach((mb, e) => {
+    incident[fill[mb.a]++] = e;
+    incident[fill[mb.b]++] = e;
+  });
+  return { ...pm, members, incidentStart: start, incident };
+}
+
+/** Most diagonals tried (each a rank computation, about linear in the truss size). */
+const DIAGONAL_TRIALS = 40;
+
+/**
+ * An open panel and the diagonal that closes it: among the four-sided panels (four members in a
+ * ring, neither diagonal drawn) with a joint that moves in the mechanism, the first whose
+ * diagonal raises the rank of the equilibrium matrix. Null when no such panel is found.
+ */
+function openPanelFind(pm: PreparedModel, rank: number, moving: Set<number>): { ring: number[]; from: number; to: number; stable: boolean } | null {
+  const n = pm.jointIds.length;
+  const nbr: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
+  for (const mb of pm.members) {
+    nbr[mb.a].add(mb.b);
+    nbr[mb.b].add(mb.a);
+  }
+  const tried = new Set<string>();
+  let trials = 0;
+  const order = [...moving].sort((p, q) => p - q);
+  for (const p of order) {
+    const ns = [...nbr[p]].sort((u, v) => u - v);
+    for (let i = 0; i < ns.length; i++) {
+      for (let k = i + 1; k < ns.length; k++) {
+        const q = ns[i];
+        const r = ns[k];
+        if (nbr[q].has(r)) continue; // a triangle, not an open panel
+        for (const s of [...nbr[q]].sort((u, v) => u - v)) {
+          if (s === p || !nbr[r].has(s) || nbr[p].has(s)) continue;
+          // Ring p–q–s–r, neither p–s nor q–r drawn. Try both diagonals, the one at p first.
+          for (const [a, b] of [[p, s], [q, r]] as const) {
+            const key = a < b ? `${a}-${b}` : `${b}-${a}`;
+            if (tried.has(key)) continue;
+            tried.add(key);
+            const dx = pm.x[b] - pm.x[a];
+            const dy = pm.y[b] - pm.y[a];
+            if (Math.hypot(dx, dy) <= 1e-9 * Math.max(pm.extent, 1)) continue;
+            if (++trials > DIAGONAL_TRIALS) return null;
+            const trial = withMember(pm, a, b);
+            const next = equilibriumRank(trial, equilibriumRows(trial), false).rank;
+            if (next > rank) return { ring: [p, q, s, r], from: a, to: b, stable: next === 2 * n };
+          }
+        }
+      }
+    }
+  }
+  return null;
+}
+
 /**
  * Stability and determinacy: the count m + r against 2j and the rank of the joint-equilibrium
  * matrix (structural peel plus sparse elimination of what is left, see rank.ts). A model is stable only with rank 2j; then
@@ -121,6 +191,7 @@ export function trussClassify(pm: PreparedModel): Classification {
   let kind: DeterminacyKind;
   let mechanismJoints: string[] = [];
   let message: string;
+  let cause: Classification['cause'] = null;
   if (rank < 2 * j) {
     kind = 'unstable';
     const order = equilibriumRank(pm, rows, true).mechanismJoints;
@@ -143,14 +214,26 @@ export function trussClassify(pm: PreparedModel): Classification {
       parts.push(`Joint${loose.length > 1 ? 's' : ''} ${tagList(loose.map((i) => pm.jointTags[i]))} ${loose.length > 1 ? 'have' : 'has'} fewer than two members and no support.`);
     }
     if (diag && membersRigid(pm)) {
+      cause = { kind: 'supports', reason: diag };
       // The members make one rigid body: only the supports let it move (a rigid plane body needs
       // three reaction lines, neither all parallel nor all through one point; any statics text, from memory).
       parts.push(
         `The members themselves form one rigid truss: the supports are the cause. Change a support (make a roller a pin, or turn a roller so that the reaction lines neither run parallel nor meet at one point); adding members will not help. Joints that move with the truss: ${tagList(tags)}. No member forces are given for an unstable truss.`,
       );
     } else {
+      const panel = openPanelFind(pm, rank, new Set(order));
+      cause = {
+        kind: diag ? 'supports-and-members' : 'members',
+        reason: diag ?? (degree < 0 ? `m + r < 2j: short of ${-degree}` : 'a mechanism within the members'),
+        ...(panel
+          ? { diagonal: { from: pm.jointIds[panel.from], to: pm.jointIds[panel.to], fromTag: pm.jointTags[panel.from], toTag: pm.jointTags[panel.to], panel: panel.ring.map((i) => pm.jointTags[i]), makesStable: panel.stable } }
+          : {}),
+      };
+      const panelText = panel
+        ? ` The open panel ${panel.ring.map((i) => pm.jointTags[i]).join('–')} has no diagonal: a member from ${pm.jointTags[panel.from]} to ${pm.jointTags[panel.to]} ${panel.stable ? 'makes the truss stable' : 'takes away one way it can move (more are needed)'}.`
+        : '';
       parts.push(
-        `Joints that can move without any member changing length: ${tagList(tags)}. ${diag ? 'Besides changing the supports, add' : 'Add'} a member (such as the missing diagonal of an open panel) or a support restraint there; no member forces are given for an unstable truss.`,
+        `Joints that can move without any member changing length: ${tagList(tags)}. ${diag ? 'Besides changing the supports, add' : 'Add'} a member (such as the missing diagonal of an open panel) or a support restraint there; no member forces are given for an unstable truss.${panelText}`,
       );
     }
     message = parts.join(' ');
@@ -161,6 +244,7 @@ export function trussClassify(pm: PreparedModel): Classification {
     kind = 'indeterminate';
     message = `m + r = ${m} + ${r} = ${m + r} > 2j = ${2 * j} and the equilibrium matrix has full rank: the truss is stable and statically indeterminate to degree ${degree}; member forces depend on member stiffness EA.`;
   }
+  const conditioning = kind === 'unstable' ? null : conditioningOf(pm);
   return {
     kind,
     m,
@@ -170,6 +254,8 @@ export function trussClassify(pm: PreparedModel): Classification {
     rank,
     mechanismJoints,
     message,
+    cause,
+    conditioning,
     step: { id: 'model/determinacy', caseId: '', title: 'Stability and determinacy', kind: 'determinacy', m, r, j, degree, rank, verdict: kind },
   };
 }

@@ -253,6 +253,42 @@ export interface Classification {
   /** What the finding means and, for an unstable model, what to do. */
   message: string;
   step: DeterminacyStep;
+  /**
+   * Stable models: how near the truss is to a mechanism (conditioning.ts). Absent in runs
+   * stored before it existed and null for an unstable model.
+   */
+  conditioning?: Conditioning | null;
+  /**
+   * Unstable models: what makes them so. 'supports' — the members form one rigid truss and the
+   * reaction lines are parallel or meet at one point (change a support); 'members' — a mechanism
+   * within the members (add a member, `diagonal` names one that helps when found);
+   * 'supports-and-members' — both. Null for a stable model; absent in older runs.
+   */
+  cause?: {
+    kind: 'supports' | 'members' | 'supports-and-members';
+    reason: string;
+    diagonal?: { from: string; to: string; fromTag: string; toTag: string; panel: string[]; makesStable: boolean };
+  } | null;
+}
+
+/** How near a stable truss is to a mechanism: singular values of the joint-equilibrium matrix. */
+export interface Conditioning {
+  /** What was measured, in words. */
+  measure: string;
+  /** Smallest and largest singular value of A (no unit); null when not computed. */
+  sigmaMin: number | null;
+  sigmaMax: number | null;
+  /** σmin/σmax, the reciprocal condition number of A. */
+  ratio: number | null;
+  /** 1/σmin: kN of member and reaction force (root-sum-square) one kN of load can raise at most. */
+  amplification: number | null;
+  /** True when the amplification is above the warning level. */
+  nearMechanism: boolean;
+  /** Joints that move most in the near-mechanism (largest first): ids and tags. */
+  joints: string[];
+  jointTags: string[];
+  /** The finding and, when near a mechanism, what to do. */
+  message: string;
 }
 
 /** A support's reaction, kN. */

@@ -64,6 +64,8 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'POST /api/firm/signing-keys/rotate': ['admin'],
   'GET /api/admin/audit-chain': ['admin'],
   'POST /api/trusses/:id/takeoff/preview': ['engineer'],
+  'GET /api/trusses/:id/job-file': ALL,
+  'POST /api/trusses/:id/job-file': ['engineer'],
   'POST /api/trusses/:id/runs': ['engineer'],
   'GET /api/trusses/:id/runs': ALL,
   'GET /api/runs/:id': ALL,

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildCalcSheetView } from './index';
-import { hangerModel, openPanelModel, sheetInput, triangleModel } from './view-fixtures';
+import { hangerModel, openPanelModel, sheetInput, toggleModel, triangleModel } from './view-fixtures';
+import { renderCalcSheetHtml } from '../calc-sheet-html';
 
 // Count rule of plane trusses: stable and determinate needs m + r = 2j (and a full-rank
 // equilibrium matrix); m + r − 2j > 0 is the degree of indeterminacy; m + r < 2j is a mechanism
@@ -38,5 +39,23 @@ describe('sheet view: stability and determinacy', () => {
   it('when the geometry is mirror-symmetric, then the section says so with the axis at half the span', () => {
     // The triangle's apex is at x = L/2 = 4 m.
     expect(buildCalcSheetView(sheetInput(triangleModel())).stability.symmetry).toContain('x = 4.000 m');
+  });
+
+  it('when a toggle is 1 mm from flat (1 kN gives P/(2 sin θ) ≈ 1 500 kN), then the section warns it is near a mechanism, names the middle joint, and the cover says so', () => {
+    const view = buildCalcSheetView(sheetInput(toggleModel()));
+    expect(view.stability.nearMechanism).toBe(true);
+    expect(view.stability.conditioning).toMatch(/^Near a mechanism: the smallest singular value of the joint-equilibrium matrix is σmin = /);
+    expect(view.stability.conditioning).toMatch(/near-mechanism are B:/);
+    const near = view.cover.summary.find((s) => s.label === 'Near a mechanism');
+    expect(near?.value).toMatch(/^1 kN can raise 3000 kN; joints B$/);
+    const html = renderCalcSheetHtml(view);
+    expect(html).toMatch(/id="conditioning"[^>]*>\s*<strong>Warning\.<\/strong> Near a mechanism/);
+  });
+
+  it('when the triangle is built, then the section gives its conditioning without a warning', () => {
+    const view = buildCalcSheetView(sheetInput(triangleModel()));
+    expect(view.stability.nearMechanism).toBe(false);
+    expect(view.stability.conditioning).toMatch(/^Well away from a mechanism/);
+    expect(view.cover.summary.some((s) => s.label === 'Near a mechanism')).toBe(false);
   });
 });

@@ -1,3 +1,4 @@
+import { amplificationText } from '@shared/solver/conditioning';
 import { stepView } from './format';
 import type { SheetSection } from './context';
 
@@ -10,7 +11,15 @@ export const stabilitySection: SheetSection<'stability'> = {
       cls.kind === 'determinate' ? 'Stable and statically determinate' : cls.kind === 'indeterminate' ? `Stable, statically indeterminate to degree ${cls.degree}` : 'Unstable';
     return {
       view: {
-        stability: { ...stepView(cls.step, fmt), verdict, message: cls.message, mechanism, symmetry: analysis.symmetry.note },
+        stability: {
+          ...stepView(cls.step, fmt),
+          verdict,
+          message: cls.message,
+          mechanism,
+          symmetry: analysis.symmetry.note,
+          conditioning: cls.conditioning?.message ?? '',
+          nearMechanism: cls.conditioning?.nearMechanism ?? false,
+        },
       },
       contents: [{ anchor: 'stability', title: unstable ? 'Stability and determinacy — finding' : 'Stability and determinacy' }],
       summary: unstable
@@ -18,7 +27,12 @@ export const stabilitySection: SheetSection<'stability'> = {
             { label: 'Finding', value: 'Unstable — no member forces are given' },
             { label: 'Joints of the mechanism', value: mechanism || '—' },
           ]
-        : [{ label: 'Stability', value: verdict }],
+        : [
+            { label: 'Stability', value: verdict },
+            ...(cls.conditioning?.nearMechanism
+              ? [{ label: 'Near a mechanism', value: `1 kN can raise ${amplificationText(cls.conditioning.amplification)} kN; joints ${cls.conditioning.jointTags.slice(0, 6).join(', ')}` }]
+              : []),
+          ],
     };
   },
 };

@@ -144,7 +144,16 @@ export interface CalcSheetView {
   combinations: { rows: TableRow[] };
   /** Per built-in set the combinations cite: why they are what they are (or that they were edited). */
   combinationReasons: { title: string; asFormed: boolean; lines: string[] }[];
-  stability: StepView & { verdict: string; message: string; mechanism: string; symmetry: string };
+  stability: StepView & {
+    verdict: string;
+    message: string;
+    mechanism: string;
+    symmetry: string;
+    /** How near a mechanism the stable truss is, in words ('' for an unstable one or an older run). */
+    conditioning: string;
+    /** True when flagged near a mechanism (the sheet shows it as a warning). */
+    nearMechanism: boolean;
+  };
   cases: CaseView[];
   comboTables: { title: string; head: string[]; rows: TableRow[] }[];
   comboResidualRows: TableRow[];

@@ -113,6 +113,19 @@ export function openPanelModel(): TrussModel {
   });
 }
 
+/**
+ * A toggle: two 3 m chords between two pins, the middle joint 1 mm above the line of the pins.
+ * 1 kN at the middle gives P/(2 sin θ) ≈ 1 500 kN of compression in each chord (statics).
+ */
+export function toggleModel(): TrussModel {
+  return modelFromSketch({
+    joints: [['A', 0, 0], ['B', 3, 0.001], ['C', 6, 0]],
+    members: [['A', 'B'], ['B', 'C']],
+    supports: [{ at: 'A', kind: 'pin' }, { at: 'C', kind: 'pin' }],
+    cases: [{ id: 'D', loads: [['B', 0, -1]] }],
+  });
+}
+
 /** A sheet input for a model, solved by the real solver; the rest invented for the tests. */
 export function sheetInput(model: TrussModel, overrides: Partial<CalcSheetInput> = {}): CalcSheetInput {
   return {

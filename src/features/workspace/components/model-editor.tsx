@@ -24,6 +24,7 @@ import {
 } from '../utils/model-draft';
 import { CombinationsSection } from './combinations-section';
 import { draftActions } from './draft-actions';
+import { JobFileActions } from './job-file-actions';
 import { JointPopover } from './joint-popover';
 import { LoadsSection } from './loads-section';
 import { MembersSection } from './members-section';
@@ -235,6 +236,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           {view.updatedBy && ` · saved by ${view.updatedBy}, ${formatDateTime(view.updatedAt)}`}
           {!mayEdit && ' · read only: engineers change supports and loads'}
         </p>
+        <JobFileActions trussId={trussId} mayEdit={mayEdit} hasEdits={hasEdits} onImported={(v) => loadView(v)} />
         {mayEdit && (
           <div className="flex items-center gap-2">
             {hasEdits && <span className="text-xs font-medium text-compression">Unsaved changes</span>}

@@ -159,7 +159,9 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
     for (const l of lc?.loads ?? []) arrows.push({ joint: l.joint, fx: l.fx, fy: l.fy, tone: 'load', label: forceText(Math.hypot(l.fx, l.fy), unitSystem) });
   }
 
-  const highlighted = new Set<string>(unstable ? cls.mechanismJoints : [...(hoverJoints ?? []), ...(activeStep ? stepJoints(activeStep) : [])]);
+  const highlighted = new Set<string>(
+    unstable ? cls.mechanismJoints : [...(hoverJoints ?? []), ...(activeStep ? stepJoints(activeStep) : []), ...(cls.conditioning?.nearMechanism && !hoverJoints && !activeStep ? cls.conditioning.joints : [])],
+  );
 
   const onJointClick = (joint: { id: string }) => {
     const step = steps.find((s) => s.kind === 'joint' && s.joint === joint.id) ?? steps.find((s) => stepJoints(s).includes(joint.id));
@@ -178,6 +180,15 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
         {unstable && cls.mechanismJoints.length > 0 && (
           <p className="mt-1 text-sm text-ink">
             Joints that can move: <strong>{cls.mechanismJoints.map((id) => tags.get(id) ?? id).join(', ')}</strong> (circled on the drawing). No forces are shown for an unstable truss.
+          </p>
+        )}
+        {cls.conditioning && (
+          <p
+            role={cls.conditioning.nearMechanism ? 'alert' : undefined}
+            data-testid="conditioning"
+            className={`mt-1 text-sm ${cls.conditioning.nearMechanism ? 'rounded-md border border-danger/30 bg-paper-raised px-3 py-2 font-medium text-danger' : 'text-ink-soft'}`}
+          >
+            {cls.conditioning.message}
           </p>
         )}
         {analysis.symmetry.detected && <p className="mt-1 text-sm text-ink-soft">{analysis.symmetry.note}</p>}
