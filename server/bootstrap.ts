@@ -2,7 +2,7 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import type { Sequelize } from 'sequelize';
-import type { Config } from './config';
+import { publicUrlRequired, type Config } from './config';
 import { createApp, type CreatedApp, type ReviewDeps } from './app';
 import { openDatabase } from './db/sequelize';
 import { migrate } from './db/migrate';
@@ -67,9 +67,8 @@ function sessionSecretFor(config: Config): string {
 /** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
 export async function startServices(config: Config, options: { clientDir?: string; log?: (m: string, e?: unknown) => void; review?: ReviewDeps; printer?: SheetPrinter } = {}): Promise<Services> {
   const say = options.log ?? ((m: string) => console.log(m));
-  if (config.env === 'production' && !config.publicUrl) {
-    say('Warning: PUBLIC_URL is not set, so links in e-mails (invitations, review notices) point at http://localhost. Set PUBLIC_URL to the address people use, e.g. https://panelpoint.example.com.');
-  }
+  // Before anything is opened or written: e-mailed links need the address people use.
+  publicUrlRequired(config);
   // tsx turns source maps on; production turns them off again (see SOURCE_MAPS in config.ts).
   process.setSourceMapsEnabled(config.sourceMaps);
   // First, before anything is written: an object store that is not there, or refuses the

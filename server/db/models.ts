@@ -15,6 +15,13 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** A review e-mail a person has turned off (migration 0015); no row: they get it. */
+export class EmailOptOut extends Model<InferAttributes<EmailOptOut>, InferCreationAttributes<EmailOptOut>> {
+  declare userId: number;
+  declare kind: string;
+  declare createdAt: CreationOptional<Date>;
+}
+
 /** One e-mailed password-reset link; only the token's SHA-256 is stored. */
 export class PasswordReset extends Model<InferAttributes<PasswordReset>, InferCreationAttributes<PasswordReset>> {
   declare id: CreationOptional<number>;
@@ -211,6 +218,14 @@ export function initModels(sequelize: Sequelize): void {
       ...timestamps,
     },
     { sequelize, tableName: 'users' },
+  );
+  EmailOptOut.init(
+    {
+      userId: { type: DataTypes.INTEGER, primaryKey: true, allowNull: false },
+      kind: { type: DataTypes.STRING(32), primaryKey: true, allowNull: false },
+      createdAt: DataTypes.DATE,
+    },
+    { sequelize, tableName: 'email_opt_outs', updatedAt: false },
   );
   PasswordReset.init(
     {

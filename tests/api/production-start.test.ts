@@ -1,8 +1,9 @@
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
-import { loadConfig } from '../../server/config';
+import { loadConfig, PUBLIC_URL_MISSING } from '../../server/config';
 import { startServices, type Services } from '../../server/bootstrap';
 import { User } from '../../server/db/models';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
@@ -18,7 +19,7 @@ afterEach(async () => {
 async function start(dataDir: string, env: Record<string, string>) {
   const lines: string[] = [];
   const config = {
-    ...loadConfig({ NODE_ENV: 'production', DATA_DIR: dataDir, UPLOADS_DIR: path.join(dataDir, 'uploads'), ...env }),
+    ...loadConfig({ NODE_ENV: 'production', DATA_DIR: dataDir, UPLOADS_DIR: path.join(dataDir, 'uploads'), PUBLIC_URL: 'http://panelpoint.office.lan', ...env }),
     bcryptRounds: 4,
   };
   const services = await startServices(config, { log: (m) => lines.push(m) });
@@ -29,13 +30,14 @@ async function start(dataDir: string, env: Record<string, string>) {
 const linkIn = (lines: string[]) => lines.join('\n').match(/https?:\/\/\S+\/invite\/([\w-]+)/)?.[1];
 
 describe('a production start', () => {
-  it('loads no demo accounts, prints a one-time link for the first admin and warns that PUBLIC_URL is unset', async () => {
+  it('loads no demo accounts and prints a one-time link for the first admin, on PUBLIC_URL', async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
     const { services, lines } = await start(dir, { FIRST_ADMIN_EMAIL: 'ops@firm.example' });
     expect(await User.findOne({ where: { email: 'admin@demo.panelpoint.test' } })).toBeNull();
-    expect(lines.some((l) => l.includes('PUBLIC_URL is not set'))).toBe(true);
     const token = linkIn(lines);
     expect(token).toBeTruthy();
+    expect(lines.join('\n')).toContain(`http://panelpoint.office.lan/invite/${token}`);
+    expect(lines.join('\n')).not.toContain('localhost');
 
     // The demo password signs nobody in.
     const tab = await openTab(services.app);
@@ -57,7 +59,6 @@ describe('a production start', () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
     const first = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
     const oldToken = linkIn(first.lines);
-    expect(first.lines.some((l) => l.includes('PUBLIC_URL is not set'))).toBe(false);
     await started.pop()!.shutdown();
 
     const second = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
@@ -79,4 +80,39 @@ describe('a production start', () => {
     expect(await User.findOne({ where: { email: 'admin@demo.panelpoint.test' } })).not.toBeNull();
     expect(linkIn(lines)).toBeUndefined();
   });
+
+  it('without PUBLIC_URL, stops before anything is written: loadConfig and startServices each with the one sentence', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
+    const env = { NODE_ENV: 'production', DATA_DIR: dir, UPLOADS_DIR: path.join(dir, 'uploads') };
+    expect(() => loadConfig(env)).toThrow(PUBLIC_URL_MISSING);
+    expect(() => loadConfig({ ...env, PUBLIC_URL: '  ' })).toThrow(/PUBLIC_URL/);
+    expect(() => loadConfig({ ...env, PUBLIC_URL: 'panelpoint.example.com' })).toThrow(/PUBLIC_URL must be an http:\/\/ or https:\/\/ address/);
+    // A config made otherwise (as a test or another entry point would) is refused at start too.
+    const config = { ...loadConfig({ ...env, NODE_ENV: 'test' }), env: 'production' as const, publicUrl: undefined };
+    await expect(startServices(config, { log: () => {} })).rejects.toThrow(PUBLIC_URL_MISSING);
+    expect(fs.readdirSync(dir)).toEqual([]);
+  });
+
+  it('without PUBLIC_URL, the real server process (tsx server/index.ts) exits 1 with the sentence naming PUBLIC_URL', async () => {
+    const root = path.resolve(import.meta.dirname, '../..');
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
+    const env: NodeJS.ProcessEnv = {};
+    for (const [k, v] of Object.entries(process.env)) if (!/^(PUBLIC_URL|DATA_DIR|UPLOADS_DIR|PORT|NODE_ENV|STORAGE_URL)$/.test(k)) env[k] = v;
+    Object.assign(env, { NODE_ENV: 'production', DATA_DIR: dir, UPLOADS_DIR: path.join(dir, 'uploads'), PORT: '0' });
+    const result = await new Promise<{ code: number | null; out: string }>((resolve, reject) => {
+      const child = spawn(path.join(root, 'node_modules', '.bin', 'tsx'), [path.join(root, 'server', 'index.ts')], { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] });
+      let out = '';
+      const timer = setTimeout(() => child.kill('SIGKILL'), 60_000);
+      child.stdout.on('data', (c: Buffer) => (out += c.toString()));
+      child.stderr.on('data', (c: Buffer) => (out += c.toString()));
+      child.on('error', reject);
+      child.on('exit', (code) => {
+        clearTimeout(timer);
+        resolve({ code, out });
+      });
+    });
+    expect(result.code).toBe(1);
+    expect(result.out.trim()).toBe(`Panelpoint could not start: ${PUBLIC_URL_MISSING}`);
+    expect(fs.readdirSync(dir)).toEqual([]);
+  }, 90_000);
 });

@@ -25,6 +25,8 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'POST /api/users/invitations': ['admin'],
   'PATCH /api/users/:id': ['admin'],
   'POST /api/users/:id/password-reset': ['admin'],
+  'GET /api/me/email-settings': ALL,
+  'PUT /api/me/email-settings': ALL,
   'GET /api/outbox': ['admin'],
   'GET /api/firm': ALL,
   'PUT /api/firm': ['admin'],

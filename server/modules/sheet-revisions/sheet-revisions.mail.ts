@@ -14,7 +14,36 @@ export interface ReviewMailInput {
   note: string;
   pageUrl: string;
   openComments?: number;
+  /** The open comment threads, in the sheet's order; the mail quotes the first MAIL_COMMENTS. */
+  comments?: MailComment[];
   sha256?: string;
+}
+
+/** A comment thread as a mail quotes it: where it is on the sheet, who wrote it, what it says. */
+export interface MailComment {
+  /** The step's printed number ("6.4"), or the section's ("6"); null where the sheet has none. */
+  number: string | null;
+  /** The step's or section's title, or the anchor when the sheet has no title for it. */
+  place: string;
+  author: string;
+  body: string;
+}
+
+/** How many comments a mail quotes in full; the rest are counted. */
+export const MAIL_COMMENTS = 5;
+/** A longer comment is cut at this many characters in the mail (the sheet page has it whole). */
+export const MAIL_COMMENT_CHARS = 600;
+
+function commentLines(comments: MailComment[]): string[] {
+  const lines = ['', comments.length === 1 ? 'The open comment:' : `The open comments (${comments.length}):`];
+  for (const c of comments.slice(0, MAIL_COMMENTS)) {
+    const where = c.number ? `Step ${c.number} ${c.place}` : c.place;
+    const text = c.body.length > MAIL_COMMENT_CHARS ? `${c.body.slice(0, MAIL_COMMENT_CHARS).trimEnd()}…` : c.body;
+    lines.push('', `- ${where} — ${c.author}:`, ...text.split(/\r?\n/).map((l) => `  ${l}`));
+  }
+  const rest = comments.length - MAIL_COMMENTS;
+  if (rest > 0) lines.push('', `…and ${rest} more open comment${rest === 1 ? '' : 's'} on the sheet page.`);
+  return lines;
 }
 
 const WHAT: Record<ReviewMailKind, string> = {
@@ -43,6 +72,7 @@ export function reviewMailMessage(m: ReviewMailInput): { subject: string; text: 
       lines.push(`${m.actorName} issued the calc sheet ${sheet}.`, `The signed PDF is in the archive. SHA-256: ${m.sha256 ?? ''}`);
       break;
   }
+  if (m.comments?.length && (m.kind === 'returned' || m.kind === 'submitted')) lines.push(...commentLines(m.comments));
   if (m.note) lines.push('', `Note: ${m.note}`);
   lines.push('', `Open the sheet: ${m.pageUrl}`);
   return { subject, text: lines.join('\n') };

@@ -1,6 +1,6 @@
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
-import { Drawing, SheetComment, SheetRevision, Truss, User } from '../../db/models';
+import { Drawing, EmailOptOut, SheetComment, SheetRevision, Truss, User } from '../../db/models';
 import { auditChainSeal } from '../records/audit-chain';
 import { revisionRow, type RevisionRow } from '../records/records.repository';
 
@@ -143,13 +143,21 @@ export const sheetRevisionsRepository = {
     return new Map(rows.map((u) => [u.id, u.name]));
   },
 
-  /** Active accounts (invitation accepted, not disabled) with a role, or with the given ids. */
-  async activeEmails(where: { role?: 'reviewer'; ids?: number[] }): Promise<string[]> {
+  /**
+   * Addresses of active accounts (invitation accepted, not disabled) with a role, or with the
+   * given ids; with `kind`, less those who turned
+   * that e-mail off on their account page (email_opt_outs, migration 0015).
+   */
+  async activeEmails(where: { role?: 'reviewer'; ids?: number[]; kind?: string }): Promise<string[]> {
     const w: WhereOptions = { disabled: false, passwordHash: { [Op.ne]: null } };
     if (where.role) Object.assign(w, { role: where.role });
     if (where.ids) Object.assign(w, { id: where.ids });
-    const rows = await User.findAll({ attributes: ['email'], where: w, order: [['id', 'ASC']], raw: true });
-    return rows.map((u) => u.email);
+    const rows = await User.findAll({ attributes: ['id', 'email'], where: w, order: [['id', 'ASC']], raw: true });
+    if (!where.kind || rows.length === 0) return rows.map((u) => u.email);
+    const off = new Set(
+      (await EmailOptOut.findAll({ attributes: ['userId'], where: { kind: where.kind, userId: rows.map((u) => u.id) }, raw: true })).map((r) => r.userId),
+    );
+    return rows.filter((u) => !off.has(u.id)).map((u) => u.email);
   },
 
   /** Everyone who prepared, checked or issued a revision, or uploaded a drawing, on the project. */

@@ -9,7 +9,8 @@ import type { SigningKeys } from '../records/signing-keys';
 import { ISSUE_FINGERPRINT_OF, issuedRecordText, issuedSigners, issueFingerprint, verifyUrlOf } from '../records/issued-record';
 import { recordsRepository as records, type RevisionRow, type TrussContext } from '../records/records.repository';
 import { statusConflict, TRANSITIONS } from './revision-status';
-import { reviewMailSend, type ReviewMailKind } from './sheet-revisions.mail';
+import { reviewMailSend, type MailComment, type ReviewMailKind } from './sheet-revisions.mail';
+import { placeOf, runSheetPlaces, type SheetPlace } from '../calc-sheets/step-numbers';
 import { sheetRevisionsRepository as repo } from './sheet-revisions.repository';
 import { commentThreads, pageUrl, peopleOf, person, summaryView } from './sheet-revisions.views';
 import type { RunSource, SheetRenderer } from './sheet-renderer';
@@ -31,6 +32,8 @@ export interface ReviewServiceDeps {
   sheets: FileStore;
   log: (msg: string, err?: unknown) => void;
   now?: () => Date;
+  /** The numbered steps and sections of a run's sheet, for the e-mails; default runSheetPlaces (calc-sheets/step-numbers.ts). */
+  sheetPlaces?: (runId: number) => Promise<Map<string, SheetPlace>>;
 }
 
 export async function revisionOr404(id: number): Promise<RevisionRow> {
@@ -236,16 +239,19 @@ async function issueRevision(row: RevisionRow, note: string, actor: Actor, now: 
   return { moved, sha256 };
 }
 
-/** Tells the next person. A mail failure is logged, never undoes the move. */
+/**
+ * Tells the next person, less those who turned this e-mail off on their account page. A mail
+ * failure is logged, never undoes the move.
+ */
 async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note: string, deps: ReviewServiceDeps, sha256?: string) {
   try {
     const context = await contextOr404(row.trussId);
     let to: string[];
-    let openComments: number | undefined;
-    if (kind === 'submitted') to = await repo.activeEmails({ role: 'reviewer' });
-    else if (kind === 'issued') to = await repo.activeEmails({ ids: await repo.projectPeople(context.projectId) });
-    else to = await repo.activeEmails({ ids: [row.preparedById] });
-    if (kind === 'returned') openComments = (await repo.openThreadCounts([row.id])).get(row.id) ?? 0;
+    if (kind === 'submitted') to = await repo.activeEmails({ role: 'reviewer', kind });
+    else if (kind === 'issued') to = await repo.activeEmails({ ids: await repo.projectPeople(context.projectId), kind });
+    else to = await repo.activeEmails({ ids: [row.preparedById], kind });
+    if (to.length === 0) return;
+    const comments = kind === 'returned' || kind === 'submitted' ? await openComments(row, deps) : undefined;
     await reviewMailSend(deps.mailer, {
       kind,
       to,
@@ -254,7 +260,8 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
       actorName: actor.name,
       note,
       pageUrl: pageUrl(deps, row.id),
-      openComments,
+      openComments: comments?.length,
+      comments,
       sha256,
     });
   } catch (err) {
@@ -262,3 +269,38 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
   }
 }
 
+/**
+ * The comment threads still open on a revision (its own and earlier revisions' of the truss),
+ * each with the step number the sheet prints, in the sheet's order. Without the sheet's
+ * numbers (a sheet that cannot be built) the threads are still quoted, by their anchors.
+ */
+async function openComments(row: RevisionRow, deps: ReviewServiceDeps): Promise<MailComment[]> {
+  const open = (await repo.commentsUpTo(row.trussId, row.number)).filter((c) => c.parentId === null && c.resolvedAt === null);
+  if (open.length === 0) return [];
+  let places = new Map<string, SheetPlace>();
+  try {
+    places = await (deps.sheetPlaces ?? runSheetPlaces)(row.runId);
+  } catch (err) {
+    deps.log(`Step numbers of sheet revision ${row.id} could not be worked out for its e-mail; its comments are quoted by anchor`, err);
+  }
+  const names = await repo.userNames(open.map((c) => c.authorId));
+  const quoted = open.map((c) => {
+    const place = placeOf(c.anchor, places);
+    return { number: place?.number ?? null, place: place?.title ?? c.anchor, author: names.get(c.authorId) ?? 'Someone', body: c.body };
+  });
+  return quoted.sort((a, b) => stepOrder(a.number, b.number));
+}
+
+/** "2" < "6.4" < "6.10" < "10.1"; unnumbered last (the sort is stable, so those keep their order). */
+function stepOrder(a: string | null, b: string | null): number {
+  if (a === b) return 0;
+  if (a === null) return 1;
+  if (b === null) return -1;
+  const pa = a.split('.').map(Number);
+  const pb = b.split('.').map(Number);
+  for (let i = 0; i < Math.max(pa.length, pb.length); i++) {
+    const d = (pa[i] ?? 0) - (pb[i] ?? 0);
+    if (d !== 0) return d;
+  }
+  return pa.length - pb.length;
+}

@@ -1,11 +1,12 @@
 import { inviteUserSchema, updateUserSchema } from '@shared/schemas/auth.schema';
-import { ApiRoutes, type RouteSpec } from '../../middleware/access';
+import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import type { User } from '../../db/models';
 import type { Mailer } from '../../mail/mailer';
 import { getFirm } from '../firm/firm.service';
 import { inviteUser, listUsers, updateUser } from './users.service';
 import { adminSendPasswordReset } from '../auth/passwords.service';
+import { getEmailSettings, updateEmailSettings } from './email-settings.service';
 
 export function usersRoutes(registry: RouteSpec[], deps: { mailer: Mailer; publicUrl: () => string }) {
   const routes = new ApiRoutes('/api', registry);
@@ -33,6 +34,13 @@ export function usersRoutes(registry: RouteSpec[], deps: { mailer: Mailer; publi
       firmName: firm.name,
     });
     res.status(202).json(sent);
+  });
+  // Which review e-mails the signed-in person gets (password and invitation e-mails always go).
+  routes.add('get', '/me/email-settings', ANY_ROLE, async (req, res) => {
+    res.json(await getEmailSettings((req.user as User).id));
+  });
+  routes.add('put', '/me/email-settings', ANY_ROLE, async (req, res) => {
+    res.json(await updateEmailSettings((req.user as User).id, req.body));
   });
   return routes.router;
 }

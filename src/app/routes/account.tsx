@@ -1,5 +1,6 @@
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { ChangePasswordForm } from '@/features/auth/components/change-password-form';
+import { EmailSettingsForm } from '@/features/users/components/email-settings-form';
 import { notify } from '@/lib/notices';
 import { ROLE_LABELS } from '@/lib/permissions';
 import { useCurrentUser } from '../current-user';
@@ -8,7 +9,7 @@ export function AccountRoute() {
   const user = useCurrentUser();
   return (
     <div>
-      <PageHeader title="Your account" description="Your details as the firm’s admin set them, and your password." />
+      <PageHeader title="Your account" description="Your details as the firm’s admin set them, your password and the e-mails you get." />
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <Panel title="Details">
           <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-6 gap-y-2 text-sm">
@@ -24,6 +25,9 @@ export function AccountRoute() {
         <Panel title="Change password">
           <p className="mb-4 text-sm text-ink-soft">Changing it signs you out on every other computer and browser.</p>
           <ChangePasswordForm onChanged={() => notify('success', 'Password changed. Every other session of yours has been signed out.')} />
+        </Panel>
+        <Panel title="E-mails">
+          <EmailSettingsForm />
         </Panel>
       </div>
     </div>
