@@ -1,6 +1,6 @@
 /**
  * `npm run -s audit:verify`: checks the sheet audit log's hash chain in the database of
- * DATA_DIR (default `data`), line by line from the first, without changing anything.
+ * DATA_DIR (default `data`), or of DATABASE_URL when that names a PostgreSQL server, line by line from the first, without changing anything.
  *
  * Prints "OK: …" and exits 0 when every line follows the one before it; prints the first
  * broken line and why and exits 1 when not; exits 2 with one line on stderr when there is no
@@ -14,16 +14,23 @@ import { auditChainVerify } from '../server/modules/records/audit-chain';
 
 async function main(): Promise<number> {
   const config = loadConfig(process.env);
-  if (!fs.existsSync(config.databaseStorage)) {
+  const where = config.databaseUrl ? 'the database of DATABASE_URL' : config.databaseStorage;
+  if (!config.databaseUrl && !fs.existsSync(config.databaseStorage)) {
     console.error(`No database at ${config.databaseStorage}; set DATA_DIR to the data folder of the Panelpoint install to check.`);
     return 2;
   }
-  const sequelize = await openDatabase(config.databaseStorage);
+  let sequelize;
+  try {
+    sequelize = await openDatabase(config.databaseUrl ?? config.databaseStorage);
+  } catch (err) {
+    console.error(err instanceof Error ? err.message : String(err));
+    return 2;
+  }
   try {
     initModels(sequelize);
-    const [tables] = await sequelize.query("SELECT name FROM sqlite_master WHERE type = 'table' AND name = 'sheet_revision_events'");
-    if ((tables as unknown[]).length === 0) {
-      console.error(`${config.databaseStorage} has no sheet audit log; start Panelpoint once so its migrations run, then check again.`);
+    // Sequelize's own check (SQLite's sqlite_master, PostgreSQL's information_schema).
+    if (!(await sequelize.getQueryInterface().tableExists('sheet_revision_events'))) {
+      console.error(`${where} has no sheet audit log; start Panelpoint once so its migrations run, then check again.`);
       return 2;
     }
     const result = await auditChainVerify();

@@ -76,7 +76,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
   const stores = await fileStoresOpen(config);
   let sequelize: Sequelize;
   try {
-    sequelize = await openDatabase(config.databaseStorage);
+    sequelize = await openDatabase(config.databaseUrl ?? config.databaseStorage);
   } catch (err) {
     stores.close();
     throw err;

@@ -4,9 +4,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { postgresStatements } from '../../server/db/migrations/0007-signing-keys-and-record-guards';
 
 /**
- * The PostgreSQL text of migration 0007's guards, run on a real PostgreSQL server through psql
- * (the project has no PostgreSQL driver installed, so this does not go through Sequelize).
- * Runs only when PANELPOINT_TEST_PGHOST names a server (a host or a socket folder; PGPORT and
+ * The PostgreSQL text of migration 0007's guards, run on a real PostgreSQL server through psql,
+ * statement by statement and apart from Sequelize (the whole API suite also runs on PostgreSQL
+ * through Sequelize, see vitest.config.ts). Runs only when PANELPOINT_TEST_PGHOST names a server
+ * (a host or a socket folder; PANELPOINT_TEST_PGPORT and PANELPOINT_TEST_PGUSER, else PGPORT and
  * PGUSER as psql reads them); each run works in a schema of its own and drops it afterwards.
  * The tables are the columns of migrations 0003 and 0004 that the triggers read.
  */
@@ -16,7 +17,13 @@ const schema = `pp_test_${crypto.randomBytes(4).toString('hex')}`;
 
 function psql(sql: string): { ok: boolean; out: string } {
   const r = spawnSync('psql', ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '-h', host!, '-d', process.env.PGDATABASE ?? 'postgres', '-c', sql], {
-    env: { ...process.env, PGOPTIONS: `-c search_path=${schema}` },
+    env: {
+      ...process.env,
+      ...(process.env.PANELPOINT_TEST_PGPORT ? { PGPORT: process.env.PANELPOINT_TEST_PGPORT } : {}),
+      ...(process.env.PANELPOINT_TEST_PGUSER ? { PGUSER: process.env.PANELPOINT_TEST_PGUSER } : {}),
+      ...(process.env.PANELPOINT_TEST_PGPASSWORD ? { PGPASSWORD: process.env.PANELPOINT_TEST_PGPASSWORD } : {}),
+      PGOPTIONS: `-c search_path=${schema}`,
+    },
     encoding: 'utf8',
   });
   return { ok: r.status === 0, out: `${r.stdout}${r.stderr}` };

@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent, SigningKey } from '../../server/db/models';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { databaseEnv, demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
 /**
@@ -150,9 +150,9 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
   });
 
   it('when the retired public key is deleted or changed with raw SQL, then the database refuses it', async () => {
-    expect(await rawRefusal(`DELETE FROM signing_keys WHERE keyId = '${firstKey.keyId}'`)).toMatch(/signing key is kept forever/);
-    expect(await rawRefusal(`UPDATE signing_keys SET publicKeyPem = 'x' WHERE keyId = '${firstKey.keyId}'`)).toMatch(/kept forever/);
-    expect(await rawRefusal(`UPDATE signing_keys SET retiredAt = NULL WHERE keyId = '${firstKey.keyId}'`)).toMatch(/kept forever/);
+    expect(await rawRefusal(`DELETE FROM signing_keys WHERE "keyId" = '${firstKey.keyId}'`)).toMatch(/signing key is kept forever/);
+    expect(await rawRefusal(`UPDATE signing_keys SET "publicKeyPem" = 'x' WHERE "keyId" = '${firstKey.keyId}'`)).toMatch(/kept forever/);
+    expect(await rawRefusal(`UPDATE signing_keys SET "retiredAt" = NULL WHERE "keyId" = '${firstKey.keyId}'`)).toMatch(/kept forever/);
     expect(await SigningKey.count()).toBe(2);
   });
 
@@ -160,7 +160,7 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     revT2 = (await issue(2, await solvedRun(2))).id;
     const laterDraft = (await post(tab.engineer, '/api/trusses/1/sheets', { runId: await solvedRun(1) }).expect(201)).body.id as number;
     const at = `'${new Date().toISOString()}'`;
-    const supersede = (by: number | string) => `UPDATE sheet_revisions SET status = 'superseded', supersededById = ${by}, supersededAt = ${at} WHERE id = ${revB.id}`;
+    const supersede = (by: number | string) => `UPDATE sheet_revisions SET status = 'superseded', "supersededById" = ${by}, "supersededAt" = ${at} WHERE id = ${revB.id}`;
     expect(await rawRefusal(supersede(revT2))).toMatch(/superseded only by a later issued revision of the same truss/); // other truss
     expect(await rawRefusal(supersede(laterDraft))).toMatch(/superseded only by a later issued revision/); // not issued
     expect(await rawRefusal(supersede(revA.id))).toMatch(/superseded only by a later issued revision/); // earlier revision
@@ -169,18 +169,18 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     // No ready-made issued row can be inserted either.
     expect(
       await rawRefusal(
-        `INSERT INTO sheet_revisions (trussId, runId, number, status, preparedById, createdAt, updatedAt) VALUES (1, ${runA}, 99, 'issued', 1, ${at}, ${at})`,
+        `INSERT INTO sheet_revisions ("trussId", "runId", number, status, "preparedById", "createdAt", "updatedAt") VALUES (1, ${runA}, 99, 'issued', 1, ${at}, ${at})`,
       ),
     ).toMatch(/inserted as a draft/);
   });
 
   it('when a comment or the run behind an issued sheet is changed with raw SQL, then the trigger refuses it; a draft’s run is not frozen', async () => {
     expect(await rawRefusal(`UPDATE sheet_comments SET body = 'rewritten' WHERE id = ${revA.commentId}`)).toMatch(/comments of an issued sheet revision/);
-    expect(await rawRefusal(`UPDATE sheet_comments SET resolvedAt = NULL WHERE id = ${revB.commentId}`)).toMatch(/comments of an issued/);
+    expect(await rawRefusal(`UPDATE sheet_comments SET "resolvedAt" = NULL WHERE id = ${revB.commentId}`)).toMatch(/comments of an issued/);
     expect(await rawRefusal(`DELETE FROM sheet_comments WHERE id = ${revB.commentId}`)).toMatch(/comments of an issued/);
     expect(
       await rawRefusal(
-        `INSERT INTO sheet_comments (revisionId, trussId, anchor, body, authorId, createdAt, updatedAt) VALUES (${revB.id}, 1, 'x', 'late', 1, '2026-01-01', '2026-01-01')`,
+        `INSERT INTO sheet_comments ("revisionId", "trussId", anchor, body, "authorId", "createdAt", "updatedAt") VALUES (${revB.id}, 1, 'x', 'late', 1, '2026-01-01', '2026-01-01')`,
       ),
     ).toMatch(/comments of an issued/);
     expect(await rawRefusal(`UPDATE analysis_runs SET summary = '{"forged":true}' WHERE id = ${runA}`)).toMatch(/analysis run behind an issued sheet/);
@@ -203,7 +203,7 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     expect(first.hash).toBe(sha(Buffer.from(text, 'utf8')));
     const second = (await SheetRevisionEvent.findOne({ where: { id: first.id + 1 } }))!;
     expect(second.prevHash).toBe(first.hash);
-    const cmd = await run(tsx, [path.join(root, 'scripts', 'audit-verify.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir } });
+    const cmd = await run(tsx, [path.join(root, 'scripts', 'audit-verify.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir, ...databaseEnv(services) } });
     expect(cmd.stdout).toMatch(/^OK: \d+ audit line\(s\)/);
   });
 
@@ -227,9 +227,9 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
 
   it('when an audit line is changed behind the triggers, then audit:verify (as a command) and the admin API name that line', async () => {
     const middle = (await SheetRevisionEvent.findAll({ order: [['id', 'ASC']] }))[3];
-    await services.sequelize.query('DROP TRIGGER sheet_revision_events_no_update');
+    await dropGuard(services.sequelize, 'sheet_revision_events_no_update');
     await services.sequelize.query(`UPDATE sheet_revision_events SET note = 'nothing to see' WHERE id = ${middle.id}`);
-    const cmd = await run(tsx, [path.join(root, 'scripts', 'audit-verify.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir } }).then(
+    const cmd = await run(tsx, [path.join(root, 'scripts', 'audit-verify.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir, ...databaseEnv(services) } }).then(
       () => ({ code: 0, stdout: '' }),
       (err: { code: number; stdout: string }) => ({ code: err.code, stdout: err.stdout }),
     );
@@ -251,7 +251,7 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     expect(fs.existsSync(keyFile())).toBe(false);
 
     // The real server process: exit 1 and the same sentence.
-    const child = await run(tsx, [path.join(root, 'server', 'index.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir, NODE_ENV: 'test', PORT: '3999' } }).then(
+    const child = await run(tsx, [path.join(root, 'server', 'index.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir, ...databaseEnv(services), NODE_ENV: 'test', PORT: '3999' } }).then(
       () => ({ code: 0, stderr: '' }),
       (err: { code: number; stderr: string }) => ({ code: err.code, stderr: err.stderr }),
     );

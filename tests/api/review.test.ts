@@ -10,7 +10,7 @@ import { DEMO_PASSWORD } from '../../server/seed/demo';
 import type { RunRef } from '../../server/modules/sheet-revisions/sheet-renderer';
 import { recordsRepository } from '../../server/modules/records/records.repository';
 import { sheetRevisionsRepository as reviewRepository } from '../../server/modules/sheet-revisions/sheet-revisions.repository';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
 import { tinyPdf, tinyPdfRenderer } from '../support/tiny-pdf';
 
 /**
@@ -286,12 +286,12 @@ describe('check, sign and archive', () => {
 
   it('when the issued row is changed or deleted with raw SQL, then the database trigger refuses it', async () => {
     const before = await SheetRevision.findByPk(b, { raw: true });
-    expect(await rawRefusal(`UPDATE sheet_revisions SET checkedByName = 'Someone Else' WHERE id = ${b}`)).toMatch(/issued sheet revision cannot be changed/);
+    expect(await rawRefusal(`UPDATE sheet_revisions SET "checkedByName" = 'Someone Else' WHERE id = ${b}`)).toMatch(/issued sheet revision cannot be changed/);
     expect(await rawRefusal(`UPDATE sheet_revisions SET sha256 = '${'0'.repeat(64)}' WHERE id = ${b}`)).toMatch(/cannot be changed/);
     expect(await rawRefusal(`UPDATE sheet_revisions SET status = 'checked' WHERE id = ${b}`)).toMatch(/cannot be changed/);
     expect(await rawRefusal(`DELETE FROM sheet_revisions WHERE id = ${b}`)).toMatch(/cannot be changed or deleted/);
-    expect(await rawRefusal(`UPDATE sheet_revision_events SET note = 'x' WHERE revisionId = ${b}`)).toMatch(/append-only/);
-    expect(await rawRefusal(`DELETE FROM sheet_revision_events WHERE revisionId = ${b}`)).toMatch(/append-only/);
+    expect(await rawRefusal(`UPDATE sheet_revision_events SET note = 'x' WHERE "revisionId" = ${b}`)).toMatch(/append-only/);
+    expect(await rawRefusal(`DELETE FROM sheet_revision_events WHERE "revisionId" = ${b}`)).toMatch(/append-only/);
     expect(await SheetRevision.findByPk(b, { raw: true })).toEqual(before);
   });
 
@@ -380,8 +380,8 @@ describe('check, sign and archive', () => {
 
   it('when a stored record is tampered (trigger dropped, signer renamed or SHA-256 replaced), then the signature check fails', async () => {
     // Someone with raw database access removes the guard first (the database is in memory).
-    await services.sequelize.query('DROP TRIGGER sheet_revisions_frozen_update');
-    await services.sequelize.query(`UPDATE sheet_revisions SET checkedByName = 'Someone Else' WHERE id = ${c}`);
+    await dropGuard(services.sequelize, 'sheet_revisions_frozen_update');
+    await services.sequelize.query(`UPDATE sheet_revisions SET "checkedByName" = 'Someone Else' WHERE id = ${c}`);
     const renamed = await verify(tab.drafter, pdfC);
     expect(renamed.body).toMatchObject({ signature: 'invalid', match: { sheetId: c } });
     expect(renamed.body.verdict).toMatch(/changed after issue/);

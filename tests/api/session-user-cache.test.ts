@@ -48,13 +48,13 @@ describe('the signed-in user cache', () => {
     const drafter = await signIn(services.app, demoEmail('drafter'));
     const id = await idOf(demoEmail('drafter'));
     await drafter.agent.get('/api/projects').expect(200); // now cached
-    await services.sequelize.query('UPDATE "users" SET "disabled" = 1 WHERE "id" = :id', { replacements: { id } });
+    await services.sequelize.query('UPDATE "users" SET "disabled" = :on WHERE "id" = :id', { replacements: { id, on: true } });
     try {
       const ms = await msUntilRefused(drafter.agent, SESSION_USER_TTL_MS + 1500);
       // Bound: the cache time, plus one poll step and a request on a loaded machine.
       expect(ms).toBeLessThanOrEqual(SESSION_USER_TTL_MS + 1000);
     } finally {
-      await services.sequelize.query('UPDATE "users" SET "disabled" = 0 WHERE "id" = :id', { replacements: { id } });
+      await services.sequelize.query('UPDATE "users" SET "disabled" = :on WHERE "id" = :id', { replacements: { id, on: false } });
     }
   });
 

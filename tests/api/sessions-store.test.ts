@@ -22,7 +22,7 @@ afterAll(async () => {
 });
 
 const rows = async () =>
-  services.sequelize.query<{ sid: string; expires: string; updatedAt: string }>('SELECT sid, expires, updatedAt FROM Sessions', { type: QueryTypes.SELECT });
+  services.sequelize.query<{ sid: string; expires: string; updatedAt: string }>('SELECT sid, expires, "updatedAt" FROM "Sessions"', { type: QueryTypes.SELECT });
 
 describe('sessions', () => {
   it('a visitor who is not signed in stores no session, however often the page is loaded', async () => {

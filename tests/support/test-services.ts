@@ -3,11 +3,13 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import type { Express } from 'express';
+import type { Sequelize } from 'sequelize';
 import { loadConfig, type Config } from '../../server/config';
 import { startServices, type Services } from '../../server/bootstrap';
 import type { ReviewDeps } from '../../server/app';
 import type { SheetPrinter } from '../../server/modules/calc-sheets/sheet-printer';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
+import { pgTestDatabaseCreate, pgTestsOn } from './pg';
 
 /** A temp data folder with a real SQLite file in it, for tests of concurrency and restarts. */
 export function tempDataDir(): { dataDir: string; databaseStorage: string } {
@@ -15,10 +17,17 @@ export function tempDataDir(): { dataDir: string; databaseStorage: string } {
   return { dataDir, databaseStorage: path.join(dataDir, 'panelpoint.sqlite') };
 }
 
+/** The PostgreSQL database of each test server's data folder, so a restart reopens it. */
+const pgDatabaseOf = new Map<string, string>();
+
 /**
  * A full server with the demo data and a real SMTP sink: on an in-memory SQLite database, or
  * with `realFile: true` on a SQLite file in a fresh temp folder (pass `dataDir` and
  * `databaseStorage` in overrides to reopen the same file, as after a restart).
+ *
+ * In the PostgreSQL run of the suite (tests/support/pg.ts) every fresh server gets a new
+ * database of its own and a temp data folder instead; passing the `dataDir` of an earlier
+ * server reopens that server's database, as a restart would.
  */
 export async function startTestServices(
   overrides: Partial<Config> = {},
@@ -33,7 +42,31 @@ export async function startTestServices(
     uploadsDir: fs.mkdtempSync(path.join(os.tmpdir(), 'panelpoint-uploads-')),
     ...overrides,
   };
+  if (pgTestsOn() && !overrides.databaseUrl) {
+    const reopen = overrides.dataDir ? pgDatabaseOf.get(overrides.dataDir) : undefined;
+    Object.assign(config, overrides.dataDir ? {} : tempDataDir(), overrides, { databaseUrl: reopen ?? (await pgTestDatabaseCreate()) });
+    pgDatabaseOf.set(config.dataDir, config.databaseUrl!);
+  }
   return startServices(config, { log: () => {}, review: options.review, printer: options.printer });
+}
+
+/** DATABASE_URL for a child process (a command or a real server) that must open the same database. */
+export function databaseEnv(services: Services): { DATABASE_URL?: string } {
+  return services.config.databaseUrl ? { DATABASE_URL: services.config.databaseUrl } : {};
+}
+
+/**
+ * Removes one of the issued-record guards, as someone with raw database access could, named by
+ * its SQLite trigger. PostgreSQL holds each table's rules in one PL/pgSQL trigger (migration
+ * 0007), which goes instead.
+ */
+export async function dropGuard(sequelize: Sequelize, sqliteTrigger: 'sheet_revision_events_no_update' | 'sheet_revisions_frozen_update'): Promise<void> {
+  if (sequelize.getDialect() !== 'postgres') {
+    await sequelize.query(`DROP TRIGGER ${sqliteTrigger}`);
+    return;
+  }
+  const pg = { sheet_revision_events_no_update: 'pp_sheet_revision_events_guard ON sheet_revision_events', sheet_revisions_frozen_update: 'pp_sheet_revisions_guard ON sheet_revisions' };
+  await sequelize.query(`DROP TRIGGER ${pg[sqliteTrigger]}`);
 }
 
 export const demoEmail = (role: 'drafter' | 'engineer' | 'reviewer' | 'admin') => `${role}@demo.panelpoint.test`;

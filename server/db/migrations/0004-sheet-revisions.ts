@@ -87,10 +87,9 @@ const TRIGGERS = [
 
 export async function up({ context: qi }: { context: QueryInterface }) {
   const dialect = qi.sequelize.getDialect();
-  if (dialect !== 'sqlite') {
-    // TODO: the same triggers in PL/pgSQL when the PostgreSQL path is wired up (openDatabase is
-    // SQLite-only today). Refusing is safer than running without the issued-sheet guarantees.
-    throw new Error(`Migration 0004-sheet-revisions has triggers for SQLite only; ${dialect} needs its own.`);
+  if (dialect !== 'sqlite' && dialect !== 'postgres') {
+    // Refusing is safer than running without the issued-sheet guarantees.
+    throw new Error(`Migration 0004-sheet-revisions has triggers for SQLite and PostgreSQL only; ${dialect} needs its own.`);
   }
   await qi.createTable('sheet_revisions', {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
@@ -152,11 +151,17 @@ export async function up({ context: qi }: { context: QueryInterface }) {
   await qi.addIndex('sheet_comments', ['trussId']);
   await qi.addIndex('sheet_comments', ['revisionId']);
 
-  for (const sql of TRIGGERS) await qi.sequelize.query(sql);
+  // PostgreSQL: these same rules (the audit line per status change, superseding, the frozen
+  // issued row, the append-only log) are PL/pgSQL functions made by migration 0007
+  // (pp_sheet_revisions_log, pp_sheet_revisions_guard, pp_sheet_revision_events_guard), which
+  // runs in the same migrate() as this one; PostgreSQL never ran this migration before 0007 had
+  // its text, so there is no install with these tables and no guards.
+  if (dialect === 'sqlite') for (const sql of TRIGGERS) await qi.sequelize.query(sql);
 }
 
 export async function down({ context: qi }: { context: QueryInterface }) {
-  for (const name of [
+  // PostgreSQL has no triggers of this migration (see up); dropping the tables is enough.
+  if (qi.sequelize.getDialect() === 'sqlite') for (const name of [
     'sheet_revision_events_no_delete',
     'sheet_revision_events_no_update',
     'sheet_revisions_frozen_delete',

@@ -37,8 +37,14 @@ async function setPassword(userId: number, passwordHash: string, transaction: Tr
   // The epoch already refuses the user's older sessions; their rows go too (the current tab is
   // signed in again into a fresh session by the caller). connect-session-sequelize keeps each
   // session as JSON text, with passport's { id, epoch } under passport.user.
-  await sequelize.query(`DELETE FROM "Sessions" WHERE json_extract("data", '$.passport.user.id') = :userId OR json_extract("data", '$.passport.user') = :userId`, {
-    replacements: { userId },
+  // JSON functions differ: SQLite's json_extract; PostgreSQL's #>> on the text cast to json
+  // (which yields text, so the id is compared as text there).
+  const sql =
+    sequelize.getDialect() === 'postgres'
+      ? `DELETE FROM "Sessions" WHERE ("data"::json #>> '{passport,user,id}') = :userText OR ("data"::json #>> '{passport,user}') = :userText`
+      : `DELETE FROM "Sessions" WHERE json_extract("data", '$.passport.user.id') = :userId OR json_extract("data", '$.passport.user') = :userId`;
+  await sequelize.query(sql, {
+    replacements: { userId, userText: String(userId) },
     transaction,
   });
 }

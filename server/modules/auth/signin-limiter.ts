@@ -1,5 +1,6 @@
 import net from 'node:net';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { dbWriteLock } from '../../db/sequelize';
 
 /**
  * Failed sign-ins counted per account and per network address in the `signin_limits` table
@@ -137,9 +138,10 @@ export function signInLimiterCreate(sequelize: Sequelize, limits: SignInLimits):
 
   async function write(row: Row, transaction: Transaction): Promise<void> {
     await sequelize.query(
-      `INSERT INTO signin_limits (key, failures, windowStartedAt, lockedUntil, locks, updatedAt) VALUES (?, ?, ?, ?, ?, ?)
-       ON CONFLICT(key) DO UPDATE SET failures = excluded.failures, windowStartedAt = excluded.windowStartedAt,
-         lockedUntil = excluded.lockedUntil, locks = excluded.locks, updatedAt = excluded.updatedAt`,
+      // Camel-case columns quoted: PostgreSQL folds unquoted names to lower case (SQLite takes both).
+      `INSERT INTO signin_limits (key, failures, "windowStartedAt", "lockedUntil", locks, "updatedAt") VALUES (?, ?, ?, ?, ?, ?)
+       ON CONFLICT(key) DO UPDATE SET failures = excluded.failures, "windowStartedAt" = excluded."windowStartedAt",
+         "lockedUntil" = excluded."lockedUntil", locks = excluded.locks, "updatedAt" = excluded."updatedAt"`,
       { replacements: [row.key, row.failures, row.windowStartedAt, row.lockedUntil, row.locks, row.updatedAt], transaction },
     );
   }
@@ -162,6 +164,7 @@ export function signInLimiterCreate(sequelize: Sequelize, limits: SignInLimits):
 
   async function settle(keys: { key: string; limit: number }[], outcome: 'failed' | 'succeeded' | 'release'): Promise<void> {
     await serial(() => sequelize.transaction(async (transaction) => {
+      await dbWriteLock(sequelize, transaction, 'signin_limits');
       const t = now();
       const rows = await read(keys.map((k) => k.key), transaction);
       for (const { key, limit } of keys) {
@@ -187,7 +190,7 @@ export function signInLimiterCreate(sequelize: Sequelize, limits: SignInLimits):
     const t = now();
     lastPrune = t;
     const removed = await serial(() =>
-      sequelize.query('DELETE FROM signin_limits WHERE updatedAt < ? AND (lockedUntil IS NULL OR lockedUntil <= ?)', {
+      sequelize.query('DELETE FROM signin_limits WHERE "updatedAt" < ? AND ("lockedUntil" IS NULL OR "lockedUntil" <= ?)', {
         replacements: [t - PRUNE_IDLE_MS, t],
         type: QueryTypes.BULKDELETE,
       }),
@@ -204,6 +207,8 @@ export function signInLimiterCreate(sequelize: Sequelize, limits: SignInLimits):
         { key: accountKey(email), limit: limits.accountLimit, kind: 'account' as const },
       ];
       const refusal = await serial(() => sequelize.transaction(async (transaction): Promise<Refusal | null> => {
+        // Read, decide and write as one step across processes (SQLite: the IMMEDIATE transaction).
+        await dbWriteLock(sequelize, transaction, 'signin_limits');
         const t = now();
         const rows = await read(keys.map((k) => k.key), transaction);
         const states = keys.map((k) => ({ ...k, row: current(k.key, rows.get(k.key), t) }));

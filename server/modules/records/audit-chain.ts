@@ -1,7 +1,8 @@
 import crypto from 'node:crypto';
-import { Op, type Transaction } from 'sequelize';
+import { Op, type Sequelize, type Transaction } from 'sequelize';
 import type { AuditChainView } from '@shared/schemas/review.schema';
 import { SheetRevisionEvent } from '../../db/models';
+import { dbWriteLock } from '../../db/sequelize';
 import { canonicalJson } from './canonical-json';
 
 /**
@@ -59,8 +60,9 @@ export async function auditChainSeal(transaction: Transaction): Promise<number> 
 }
 
 /** At the first start after the chain was added: seals the lines written before it, once. */
-export async function auditChainSealExisting(sequelize: { transaction<T>(fn: (t: Transaction) => Promise<T>): Promise<T> }): Promise<number> {
+export async function auditChainSealExisting(sequelize: Sequelize): Promise<number> {
   return sequelize.transaction(async (t) => {
+    await dbWriteLock(sequelize, t, 'audit-chain');
     if ((await SheetRevisionEvent.count({ where: { hash: { [Op.ne]: null } }, transaction: t })) > 0) return 0;
     return auditChainSeal(t);
   });

@@ -87,7 +87,7 @@ export async function failUnfinishedRuns(values: { error: string; finishedAt: Da
 
 /** The sheet revisions made from a run (another module's table, read by its columns), newest first. */
 export async function revisionsOfRun(runId: number): Promise<{ number: number; status: string }[]> {
-  const [rows] = await AnalysisRun.sequelize!.query('SELECT number, status FROM sheet_revisions WHERE runId = ? ORDER BY number DESC', { replacements: [runId] });
+  const [rows] = await AnalysisRun.sequelize!.query('SELECT number, status FROM sheet_revisions WHERE "runId" = ? ORDER BY number DESC', { replacements: [runId] });
   return rows as { number: number; status: string }[];
 }
 
@@ -98,7 +98,7 @@ export async function revisionsOfRun(runId: number): Promise<{ number: number; s
 export async function updateRunDesign(id: number, values: { model: string; analysis: string; summary: string; modelVersion: number }): Promise<boolean> {
   if (!Number.isSafeInteger(id)) return false;
   const [count] = await AnalysisRun.update(values, {
-    where: { [Op.and]: [{ id }, literal(`NOT EXISTS (SELECT 1 FROM sheet_revisions WHERE sheet_revisions.runId = ${id})`)] },
+    where: { [Op.and]: [{ id }, literal(`NOT EXISTS (SELECT 1 FROM sheet_revisions WHERE sheet_revisions."runId" = ${id})`)] },
   });
   return count === 1;
 }

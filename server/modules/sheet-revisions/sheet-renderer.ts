@@ -62,11 +62,12 @@ export function analysisRunsTable(sequelize: Sequelize): RunSource {
   return {
     async findRun(runId) {
       try {
-        const [rows] = await sequelize.query('SELECT id, trussId, status FROM analysis_runs WHERE id = ?', { replacements: [runId] });
+        const [rows] = await sequelize.query('SELECT id, "trussId", status FROM analysis_runs WHERE id = ?', { replacements: [runId] });
         const row = (rows as { id: number; trussId: number; status: RunStatus }[])[0];
         return row ? { id: Number(row.id), trussId: Number(row.trussId), status: row.status } : null;
       } catch (err) {
-        if (/no such table/i.test(String((err as Error).message))) {
+        // SQLite says "no such table", PostgreSQL 'relation "…" does not exist'.
+        if (/no such table|relation .* does not exist/i.test(String((err as Error).message))) {
           throw new AppError('runs-unavailable', 'Analysis runs are not available on this server yet, so no sheet revision can be made. Tell your admin.', 503);
         }
         throw err;

@@ -1,6 +1,7 @@
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
 import { Drawing, EmailOptOut, SheetComment, SheetRevision, Truss, User } from '../../db/models';
+import { dbWriteLock } from '../../db/sequelize';
 import { auditChainSeal } from '../records/audit-chain';
 import { revisionRow, type RevisionRow } from '../records/records.repository';
 
@@ -15,6 +16,9 @@ let sealQueue: Promise<unknown> = Promise.resolve();
 function withSealedLog<T>(write: (transaction: Transaction) => Promise<T>): Promise<T> {
   const run = sealQueue.then(() =>
     SheetRevision.sequelize!.transaction(async (transaction) => {
+      // PostgreSQL: the chain's lock is taken before the write, so the lines of two sealers
+      // are numbered and sealed one transaction after the other (SQLite: BEGIN IMMEDIATE).
+      await dbWriteLock(SheetRevision.sequelize!, transaction, 'audit-chain');
       const out = await write(transaction);
       await auditChainSeal(transaction);
       return out;
