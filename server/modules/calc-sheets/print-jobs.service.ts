@@ -1,4 +1,4 @@
-import { QueryTypes, type Sequelize } from 'sequelize';
+import { DataTypes, Model, Op, QueryTypes, type Sequelize } from 'sequelize';
 import { printJobFinished, type PrintJobState, type PrintJobView } from '@shared/schemas/print-job.schema';
 import { AppError, notFound } from '../../errors/app-error';
 import type { FileStore } from '../../storage/file-store';
@@ -39,6 +39,36 @@ interface JobRow {
   finishedAt: string | Date | null;
   createdAt: string | Date;
 }
+
+/** The print_jobs table (migration 0011), bound to the app's connection in `printJobsCreate`. */
+class PrintJobRecord extends Model {}
+
+function bindModel(sequelize: Sequelize): typeof PrintJobRecord {
+  const bound = class extends PrintJobRecord {};
+  bound.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      runId: { type: DataTypes.INTEGER, allowNull: false },
+      requestedById: { type: DataTypes.INTEGER, allowNull: false },
+      state: { type: DataTypes.STRING(16), allowNull: false },
+      stage: { type: DataTypes.STRING(80), allowNull: false },
+      percent: { type: DataTypes.INTEGER, allowNull: false },
+      pages: { type: DataTypes.INTEGER, allowNull: true },
+      htmlBytes: { type: DataTypes.INTEGER, allowNull: true },
+      pdfBytes: { type: DataTypes.INTEGER, allowNull: true },
+      fileKey: { type: DataTypes.STRING(120), allowNull: true },
+      fileName: { type: DataTypes.STRING(200), allowNull: true },
+      error: { type: DataTypes.TEXT, allowNull: true },
+      attempts: { type: DataTypes.INTEGER, allowNull: false },
+      startedAt: { type: DataTypes.DATE, allowNull: true },
+      finishedAt: { type: DataTypes.DATE, allowNull: true },
+    },
+    { sequelize, tableName: 'print_jobs', modelName: 'PrintJob' },
+  );
+  return bound;
+}
+
+const UNFINISHED = ['queued', 'building', 'printing'];
 
 const iso = (at: string | Date | null): string | null => (at === null ? null : new Date(at).toISOString());
 
@@ -101,25 +131,18 @@ const START_MS_PER_BYTE = 100_224 / (19.1 * 1024 * 1024);
 
 export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
   const { sequelize } = deps;
+  const Jobs = bindModel(sequelize);
   const now = deps.now ?? (() => new Date());
   let closed = false;
   let pumping: Promise<void> | null = null;
   let msPerByte = START_MS_PER_BYTE;
 
-  async function select(sql: string, replacements: unknown[]): Promise<JobRow[]> {
-    return sequelize.query<JobRow>(sql, { replacements, type: QueryTypes.SELECT });
-  }
-
   async function update(id: number, values: Partial<Omit<JobRow, 'id'>>): Promise<void> {
-    const keys = Object.keys(values) as (keyof typeof values)[];
-    const at = now().toISOString();
-    await sequelize.query(`UPDATE print_jobs SET ${keys.map((k) => `${k} = ?`).join(', ')}, updatedAt = ? WHERE id = ?`, {
-      replacements: [...keys.map((k) => (values[k] instanceof Date ? (values[k] as Date).toISOString() : values[k])), at, id],
-    });
+    await Jobs.update(values, { where: { id } });
   }
 
   async function rowOr404(jobId: number): Promise<JobRow> {
-    const [row] = await select('SELECT * FROM print_jobs WHERE id = ?', [jobId]);
+    const row = (await Jobs.findByPk(jobId, { raw: true })) as unknown as JobRow | null;
     if (!row) throw notFound('That print job');
     return row;
   }
@@ -150,14 +173,15 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
 
   /** Takes the oldest queued job, or null. */
   async function claim(): Promise<JobRow | null> {
-    const [next] = await select("SELECT id FROM print_jobs WHERE state = 'queued' ORDER BY id LIMIT 1", []);
-    if (!next) return null;
-    const at = now().toISOString();
-    const [row] = await select(
-      "UPDATE print_jobs SET state = 'building', stage = 'reading the run', percent = 5, attempts = attempts + 1, startedAt = ?, updatedAt = ? WHERE id = ? AND state = 'queued' RETURNING *",
-      [at, at, next.id],
-    );
-    return row ?? null;
+    for (;;) {
+      const next = (await Jobs.findOne({ where: { state: 'queued' }, order: [['id', 'ASC']], raw: true })) as unknown as JobRow | null;
+      if (!next) return null;
+      const [taken] = await Jobs.update(
+        { state: 'building', stage: 'reading the run', percent: 5, attempts: Number(next.attempts) + 1, startedAt: now() },
+        { where: { id: next.id, state: 'queued' } },
+      );
+      if (taken === 1) return { ...next, attempts: Number(next.attempts) + 1 };
+    }
   }
 
   async function runJob(job: JobRow): Promise<void> {
@@ -254,35 +278,25 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
   return {
     async request(runId, personId) {
       await runOr409(runId);
-      const [same] = await select(
-        "SELECT * FROM print_jobs WHERE runId = ? AND requestedById = ? AND state IN ('queued', 'building', 'printing') ORDER BY id DESC LIMIT 1",
-        [runId, personId],
-      );
+      const same = (await Jobs.findOne({ where: { runId, requestedById: personId, state: UNFINISHED }, order: [['id', 'DESC']], raw: true })) as unknown as JobRow | null;
       if (same) return viewOf(same);
-      const [{ n }] = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM print_jobs WHERE requestedById = ? AND state IN ('queued', 'building', 'printing')", {
-        replacements: [personId],
-        type: QueryTypes.SELECT,
-      });
-      if (Number(n) >= JOBS_PER_PERSON) {
+      const n = await Jobs.count({ where: { requestedById: personId, state: UNFINISHED } });
+      if (n >= JOBS_PER_PERSON) {
         throw new AppError(
           'print-queue-full',
           `You already have ${JOBS_PER_PERSON} calc sheet PDFs being made; wait until one of them is done, then ask again.`,
           429,
         );
       }
-      const at = now().toISOString();
-      const [row] = await select(
-        "INSERT INTO print_jobs (runId, requestedById, state, stage, percent, attempts, createdAt, updatedAt) VALUES (?, ?, 'queued', 'waiting for its turn', 0, 0, ?, ?) RETURNING *",
-        [runId, personId, at, at],
-      );
+      const created = await Jobs.create({ runId, requestedById: personId, state: 'queued', stage: 'waiting for its turn', percent: 0, attempts: 0 });
       void pump();
-      return viewOf(row);
+      return viewOf(created.get({ plain: true }) as JobRow);
     },
     async get(jobId, personId) {
       return viewOf(await ownRow(jobId, personId));
     },
     async listForRun(runId, personId) {
-      const rows = await select('SELECT * FROM print_jobs WHERE runId = ? AND requestedById = ? ORDER BY id DESC LIMIT 5', [runId, personId]);
+      const rows = (await Jobs.findAll({ where: { runId, requestedById: personId }, order: [['id', 'DESC']], limit: 5, raw: true })) as unknown as JobRow[];
       return rows.map(viewOf);
     },
     async pdf(jobId, personId) {
@@ -298,20 +312,19 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
       }
     },
     async resume() {
-      const at = now().toISOString();
-      const tired = await select(`SELECT id FROM print_jobs WHERE state IN ('building', 'printing') AND attempts >= ?`, [JOB_TRIES]);
+      const tired = (await Jobs.findAll({ where: { state: ['building', 'printing'], attempts: { [Op.gte]: JOB_TRIES } }, attributes: ['id'], raw: true })) as unknown as { id: number }[];
       for (const row of tired) {
         await fail(
           Number(row.id),
           `The server stopped ${JOB_TRIES} times while making this PDF, so it was not tried again; ask for it again, and if it keeps happening tell your admin.`,
         );
       }
-      const requeued = await select(
-        "UPDATE print_jobs SET state = 'queued', stage = 'waiting for its turn (queued again after a server restart)', percent = 0, updatedAt = ? WHERE state IN ('building', 'printing') RETURNING id",
-        [at],
+      const [requeued] = await Jobs.update(
+        { state: 'queued', stage: 'waiting for its turn (queued again after a server restart)', percent: 0 },
+        { where: { state: ['building', 'printing'] } },
       );
       void pump();
-      return { requeued: requeued.length, failed: tired.length };
+      return { requeued, failed: tired.length };
     },
     async idle() {
       while (pumping) await pumping;
