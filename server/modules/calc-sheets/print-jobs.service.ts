@@ -70,7 +70,7 @@ function bindModel(sequelize: Sequelize): typeof PrintJobRecord {
 
 const UNFINISHED = ['queued', 'building', 'printing'];
 
-const iso = (at: string | Date | null): string | null => (at === null ? null : new Date(at).toISOString());
+const iso = (at: string | Date | null | undefined): string | null => (at === null || at === undefined ? null : new Date(at).toISOString());
 
 function viewOf(row: JobRow): PrintJobView {
   return {
