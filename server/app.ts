@@ -26,8 +26,11 @@ import { runsRoutes } from './modules/runs/runs.routes';
 import { solvePoolCreate } from './modules/runs/solve-pool';
 import { importPoolCreate } from './modules/drawings/import-pool';
 import type { FileStores } from './storage/stores';
+import { localFileStore } from './storage/file-store';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
+import { sheetBuildPoolCreate } from './modules/calc-sheets/sheet-build-pool';
+import { JOB_TRIES, printJobsCreate } from './modules/calc-sheets/print-jobs.service';
 import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
 import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
 import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules/sheet-revisions/sheet-renderer';
@@ -156,14 +159,30 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
-  app.use('/api', calcSheetsRoutes(registry, { printer }));
+  // Calc sheet HTML is built in a worker thread (seconds for a large sheet), never on this one.
+  const sheetBuilder = sheetBuildPoolCreate();
+  // Draft PDFs as background print jobs, stored like issued sheets (a file store in the data folder).
+  const printJobs = printJobsCreate({
+    sequelize: deps.sequelize,
+    printer,
+    builder: sheetBuilder,
+    files: localFileStore(path.join(config.dataDir, 'print-jobs')),
+    log,
+  });
+  printJobs.resume().then(
+    ({ requeued, failed }) => {
+      if (requeued || failed) log(`Print jobs left unfinished by the last stop: ${requeued} queued again, ${failed} failed after ${JOB_TRIES} tries.`);
+    },
+    (err) => log('Print jobs could not be resumed', err),
+  );
+  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs }));
   const issuedSheets = deps.stores.sheets;
   app.use(
     '/api',
     sheetRevisionsRoutes(registry, {
       mailer: deps.mailer,
       publicUrl,
-      renderer: deps.review?.renderer ?? calcSheetRenderer({ printer, loadRunSheet }),
+      renderer: deps.review?.renderer ?? calcSheetRenderer({ printer, loadRunSheet, builder: sheetBuilder }),
       runs: deps.review?.runs ?? analysisRunsTable(deps.sequelize),
       keys: deps.signingKeys,
       sheets: issuedSheets,
@@ -194,9 +213,12 @@ export function createApp(deps: AppDeps): CreatedApp {
     routes: registry,
     async close() {
       (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
+      await printJobs.close();
       await solvePool.close();
       await importPool.close();
+      await sheetBuilder.close();
       if (!deps.printer) await printer.close();
+      await printJobs.idle();
     },
   };
 }

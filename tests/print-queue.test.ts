@@ -105,10 +105,10 @@ describe('print queue (real Chromium)', () => {
       track('p2', printer.print(big, 'A4', { label: 'p2', person: 'c' })),
       track('p3', printer.print(big, 'A4', { label: 'p3', person: 'd' })),
     ];
-    expect(printer.waiting()).toEqual({ issue: 0, preview: 3 });
+    expect(printer.waiting()).toEqual({ issue: 0, preview: 3, background: 0 });
     const issueAsked = performance.now() - t0;
     jobs.push(track('i1', printer.print(small, 'A4', { label: 'i1', priority: 'issue' })));
-    expect(printer.waiting()).toEqual({ issue: 1, preview: 3 });
+    expect(printer.waiting()).toEqual({ issue: 1, preview: 3, background: 0 });
     const pdfs = await Promise.all(jobs);
     expect(pdfs.every((p) => p.subarray(0, 5).toString() === '%PDF-')).toBe(true);
     const order = printer.startedLog().slice(-5).map((e) => e.label);
@@ -119,6 +119,33 @@ describe('print queue (real Chromium)', () => {
       `queue order ${order.join(' → ')}; issue asked at ${issueAsked.toFixed(0)} ms, done at ${done.i1.toFixed(0)} ms; ` +
         `previews done at ${['p0', 'p1', 'p2', 'p3'].map((l) => done[l].toFixed(0)).join(', ')} ms`,
     );
+  }, SLOW);
+
+  it('when a background print (a print job) is printing, then an issue and a preview asked for after it start beside it and finish first; background prints wait for each other', async () => {
+    const t0 = performance.now();
+    const done: Record<string, number> = {};
+    const phases: string[] = [];
+    const track = (label: string, p: Promise<Buffer>) => p.then((pdf) => ((done[label] = performance.now() - t0), pdf));
+    const huge = sheetHtml(40);
+    const jobs = [
+      track('b0', printer.print(huge, 'A4', { label: 'b0', priority: 'background', onPhase: (ph) => phases.push(ph) })),
+      track('b1', printer.print(small, 'A4', { label: 'b1', priority: 'background' })),
+    ];
+    // The second background print waits for the first; nothing else is waiting.
+    expect(printer.waiting()).toEqual({ issue: 0, preview: 0, background: 1 });
+    expect(await until(() => phases.includes('pdf'), 60_000)).toBe(true);
+    jobs.push(track('i1', printer.print(small, 'A4', { label: 'i1', priority: 'issue' })));
+    jobs.push(track('p1', printer.print(small, 'A4', { label: 'p1', person: 'e' })));
+    const pdfs = await Promise.all(jobs);
+    expect(pdfs.every((p) => p.subarray(0, 5).toString() === '%PDF-')).toBe(true);
+    expect(phases).toEqual(['loading', 'fonts', 'pdf']);
+    const order = printer.startedLog().slice(-4).map((e) => e.label);
+    // i1 started while b0 printed (not after it), and b1 only once b0 was done.
+    expect(order).toEqual(['b0', 'i1', 'p1', 'b1']);
+    expect(done.i1).toBeLessThan(done.b0);
+    expect(done.p1).toBeLessThan(done.b0);
+    expect(done.b1).toBeGreaterThan(done.b0);
+    console.log(`background lane: issue done at ${done.i1.toFixed(0)} ms and preview at ${done.p1.toFixed(0)} ms while the 82-joint background print took until ${done.b0.toFixed(0)} ms`);
   }, SLOW);
 
   it('when the requester of a waiting preview goes, then it leaves the queue and is never printed', async () => {

@@ -76,6 +76,10 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'POST /api/runs/:id/design': ['engineer'],
   'GET /api/runs/:id/sheet': ALL,
   'GET /api/runs/:id/sheet.pdf': ALL,
+  'POST /api/runs/:id/sheet-jobs': ALL,
+  'GET /api/runs/:id/sheet-jobs': ALL,
+  'GET /api/sheet-jobs/:id': ALL,
+  'GET /api/sheet-jobs/:id/pdf': ALL,
   'GET /api/sheets/:id/preview': ALL,
 };
 

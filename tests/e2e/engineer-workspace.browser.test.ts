@@ -106,6 +106,24 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     expect(await page.getByRole('link', { name: 'Reactions (CSV)' }).getAttribute('href')).toMatch(/^\/api\/runs\/\d+\/reactions\.csv$/);
   }, 60_000);
 
+  it('when the engineer asks for the calc sheet PDF, then a progress line follows the print job and a download link with the page count replaces it', async () => {
+    await page.getByRole('button', { name: 'Make the calc sheet PDF' }).click();
+    const progress = page.getByRole('status').filter({ hasText: /^Calc sheet PDF: / });
+    await progress.waitFor({ timeout: 15_000 });
+    expect(await page.getByRole('progressbar', { name: 'Calc sheet PDF progress' }).count()).toBe(1);
+    const link = page.getByRole('link', { name: /^Download the calc sheet PDF \(\d+ pages\)$/ });
+    await link.waitFor({ timeout: 120_000 });
+    expect(await progress.count()).toBe(0);
+    const href = (await link.getAttribute('href'))!;
+    expect(href).toMatch(/^\/api\/sheet-jobs\/\d+\/pdf$/);
+    const pdf = await page.request.get(`${running.baseUrl}${href}`);
+    expect(pdf.status()).toBe(200);
+    const body = await pdf.body();
+    expect(body.subarray(0, 5).toString()).toBe('%PDF-');
+    const pages = (body.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? []).length;
+    expect(await link.textContent()).toBe(`Download the calc sheet PDF (${pages} pages)`);
+  }, 150_000);
+
   it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is stale', async () => {
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     // The takeoff's purlin picker may still be open below with its own joint L: take the main drawing's, which comes first.

@@ -9,6 +9,7 @@ import * as runsRepo from '../runs/runs.repository';
 import { renderCalcSheetPdf, renderCalcSheetPreview } from './calc-sheets.service';
 import type { CalcSheetInput } from './calc-sheet-view';
 import type { PrintRequest, SheetPrinter } from './sheet-printer';
+import type { SheetBuildPool } from './sheet-build-pool';
 
 /** A run's calc-sheet input without what a revision adds (revision, signers, print time). */
 export type RunSheetInput = Omit<CalcSheetInput, 'revision' | 'preparedBy' | 'checkedBy' | 'issuedBy' | 'generatedAt'>;
@@ -51,13 +52,22 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
   };
 }
 
-function draftInput(base: RunSheetInput, now: Date): CalcSheetInput {
+export function draftInput(base: RunSheetInput, now: Date): CalcSheetInput {
   return { ...base, revision: 'draft', generatedAt: now };
 }
 
-/** The preview of a run's sheet, not yet a revision. */
-export async function runSheetHtml(runId: number, now = new Date()): Promise<string> {
-  return renderCalcSheetPreview(draftInput(await loadRunSheet(runId), now));
+/** The download name of a run's draft PDF. */
+export function draftFileName(jobNumber: string, runId: number): string {
+  return `${jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-');
+}
+
+/**
+ * The preview of a run's sheet, not yet a revision. With a build pool the HTML is built in its
+ * worker thread (a large sheet takes seconds), otherwise here.
+ */
+export async function runSheetHtml(runId: number, now = new Date(), builder?: SheetBuildPool): Promise<string> {
+  const input = draftInput(await loadRunSheet(runId), now);
+  return builder ? (await builder.build(input)).html : renderCalcSheetPreview(input);
 }
 
 /** The draft PDF of a run's sheet: a preview in the print queue (see sheet-printer.ts). */
@@ -66,8 +76,15 @@ export async function runSheetPdf(
   printer: SheetPrinter,
   request: PrintRequest = {},
   now = new Date(),
+  builder?: SheetBuildPool,
 ): Promise<{ bytes: Buffer; fileName: string }> {
   const base = await loadRunSheet(runId);
-  const bytes = await renderCalcSheetPdf(draftInput(base, now), printer, request);
-  return { bytes, fileName: `${base.project.jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-') };
+  let bytes: Buffer;
+  if (builder) {
+    const built = await builder.build(draftInput(base, now));
+    bytes = await printer.print(built.html, built.paper, request);
+  } else {
+    bytes = await renderCalcSheetPdf(draftInput(base, now), printer, request);
+  }
+  return { bytes, fileName: draftFileName(base.project.jobNumber, runId) };
 }

@@ -15,7 +15,10 @@ import puppeteer, { type Browser } from 'puppeteer-core';
  * - a print whose requester has gone (its `signal` aborts) is taken out of the queue, or, when it
  *   is already printing, its page is closed and nothing is returned;
  * - one person holds at most `previewsPerPerson` previews (waiting or printing); one more is
- *   refused at once with 'print-queue-full' (the API answers 429).
+ *   refused at once with 'print-queue-full' (the API answers 429);
+ * - a 'background' print (a large sheet made as a print job, print-jobs.service.ts) runs in a
+ *   lane of its own, one at a time, in its own page of the same browser: it never holds up an
+ *   issue or a preview, which may print beside it.
  *
  * Chromium runs in its own process group (puppeteer's launcher starts it detached); a failed or
  * timed-out print and `close()` kill the whole group, so no renderer or GPU helper is left behind.
@@ -49,8 +52,14 @@ export interface SheetPrinterOptions {
   tmpDir?: string;
 }
 
-/** 'issue' prints the signed record and goes ahead of every waiting 'preview'. */
-export type PrintPriority = 'issue' | 'preview';
+/**
+ * 'issue' prints the signed record and goes ahead of every waiting 'preview'; 'background' prints
+ * (print jobs) wait in their own lane and never hold up either.
+ */
+export type PrintPriority = 'issue' | 'preview' | 'background';
+
+/** Where a print is: HTML loading into the page, fonts loading, Chromium laying out and writing the PDF. */
+export type PrintPhase = 'loading' | 'fonts' | 'pdf';
 
 export interface PrintRequest {
   /** Default 'preview'. */
@@ -59,6 +68,8 @@ export interface PrintRequest {
   person?: string | number;
   /** Aborted when the requester has gone: the print leaves the queue, or stops if it has begun. */
   signal?: AbortSignal;
+  /** Told when the print enters each phase (print jobs record it as progress). */
+  onPhase?: (phase: PrintPhase) => void;
 }
 
 /** Where one print is, for tests and the bench: the order prints started in. */
@@ -79,7 +90,7 @@ export interface SheetPrinter {
    */
   printToFile(html: string, paper: PaperSize, outPath: string, request?: PrintRequest): Promise<void>;
   /** Prints waiting (not yet started), by priority. */
-  waiting(): { issue: number; preview: number };
+  waiting(): { issue: number; preview: number; background: number };
   /** The prints started so far, oldest first (the last 100). */
   startedLog(): PrintLogEntry[];
   /** The running browser's process id, or null (tests use it to simulate a crash). */
@@ -186,6 +197,7 @@ interface Job {
   person?: string;
   label: string;
   signal?: AbortSignal;
+  onPhase?: (phase: PrintPhase) => void;
   html: string;
   paper: PaperSize;
   resolve(pdf: Buffer): void;
@@ -211,8 +223,11 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
   const profiles = new Set<string>();
   let closed = false;
   const waitingJobs: Job[] = [];
+  // The main lane (issues, previews) and the background lane (print jobs), one print each.
   let running: Job | null = null;
   let runningDone: Promise<void> = Promise.resolve();
+  let runningBackground: Job | null = null;
+  let backgroundDone: Promise<void> = Promise.resolve();
   const log: PrintLogEntry[] = [];
   let counter = 0;
 
@@ -289,8 +304,10 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
       if (job.signal?.aborted) throw abortedError();
       const work = (async () => {
         const t0 = performance.now();
+        job.onPhase?.('loading');
         await page.setContent(forPrint(job.html), { waitUntil: 'load', timeout: budget });
         const t1 = performance.now();
+        job.onPhase?.('fonts');
         // Nothing is laid out yet (see PRINT_ONLY_STYLE), so no font has been asked for: load every
         // face now, then wait until all are ready, so the print never falls back to a system font.
         await page.evaluate(async () => {
@@ -298,6 +315,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
           await document.fonts.ready;
         });
         const t2 = performance.now();
+        job.onPhase?.('pdf');
         const pdf = await page.pdf({
           format: job.paper === 'Letter' ? 'letter' : 'a4',
           printBackground: true,
@@ -357,12 +375,32 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
   }
 
   function pump(): void {
-    if (running || waitingJobs.length === 0) return;
-    const job = waitingJobs.shift()!;
-    running = job;
+    if (!running) {
+      const at = waitingJobs.findIndex((j) => j.priority !== 'background');
+      if (at >= 0) {
+        const job = waitingJobs.splice(at, 1)[0];
+        running = job;
+        runningDone = start(job, () => {
+          running = null;
+        });
+      }
+    }
+    if (!runningBackground) {
+      const at = waitingJobs.findIndex((j) => j.priority === 'background');
+      if (at >= 0) {
+        const job = waitingJobs.splice(at, 1)[0];
+        runningBackground = job;
+        backgroundDone = start(job, () => {
+          runningBackground = null;
+        });
+      }
+    }
+  }
+
+  function start(job: Job, done: () => void): Promise<void> {
     log.push({ label: job.label, priority: job.priority, startedAt: performance.now() });
     if (log.length > 100) log.shift();
-    runningDone = (async () => {
+    return (async () => {
       try {
         job.resolve(await printWithRetry(job));
       } catch (err) {
@@ -373,7 +411,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
         job.reject(err);
       } finally {
         if (job.onAbort) job.signal?.removeEventListener('abort', job.onAbort);
-        running = null;
+        done();
         pump();
       }
     })();
@@ -394,7 +432,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
     }
     return new Promise<Buffer>((resolve, reject) => {
       counter += 1;
-      const job: Job = { priority, person, label: request.label ?? `${priority}-${counter}`, signal: request.signal, html, paper, resolve, reject };
+      const job: Job = { priority, person, label: request.label ?? `${priority}-${counter}`, signal: request.signal, onPhase: request.onPhase, html, paper, resolve, reject };
       if (job.signal) {
         job.onAbort = () => {
           const at = waitingJobs.indexOf(job);
@@ -402,7 +440,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
             waitingJobs.splice(at, 1);
             job.signal?.removeEventListener('abort', job.onAbort!);
             reject(abortedError());
-          } else if (running === job) {
+          } else if (running === job || runningBackground === job) {
             job.stop?.();
           }
         };
@@ -436,6 +474,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
       return {
         issue: waitingJobs.filter((j) => j.priority === 'issue').length,
         preview: waitingJobs.filter((j) => j.priority === 'preview').length,
+        background: waitingJobs.filter((j) => j.priority === 'background').length,
       };
     },
     startedLog() {
@@ -450,7 +489,7 @@ export function createSheetPrinter(options: SheetPrinterOptions = {}): SheetPrin
         if (job.onAbort) job.signal?.removeEventListener('abort', job.onAbort);
         job.reject(new SheetPrintError('printer-closed', 'The calc sheet printer was shut down; no PDF was printed.'));
       }
-      await runningDone.catch(() => {});
+      await Promise.all([runningDone.catch(() => {}), backgroundDone.catch(() => {})]);
       const b = browser ?? (launching ? await launching.catch(() => null) : null);
       browser = null;
       if (b) {

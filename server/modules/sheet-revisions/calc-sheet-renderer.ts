@@ -1,6 +1,7 @@
 import { buildCalcSheetView, type CalcSheetInput } from '../calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../calc-sheets/calc-sheet-html';
 import type { SheetPrinter } from '../calc-sheets/sheet-printer';
+import type { SheetBuildPool } from '../calc-sheets/sheet-build-pool';
 import type { RunSheetInput } from '../calc-sheets/run-sheet.service';
 import type { SheetRenderer } from './sheet-renderer';
 
@@ -12,6 +13,8 @@ import type { SheetRenderer } from './sheet-renderer';
 export function calcSheetRenderer(deps: {
   printer: SheetPrinter;
   loadRunSheet(runId: number): Promise<RunSheetInput>;
+  /** Builds the HTML in a worker thread; without it, here. */
+  builder?: SheetBuildPool;
   now?: () => Date;
 }): SheetRenderer {
   return {
@@ -27,7 +30,8 @@ export function calcSheetRenderer(deps: {
         issue: issue ?? null,
       };
       // The signed record: printed ahead of every waiting preview (see sheet-printer.ts).
-      return deps.printer.print(renderCalcSheetHtml(buildCalcSheetView(input)), base.firm.paperSize, { priority: 'issue', label: `issue-run-${runId}` });
+      const html = deps.builder ? (await deps.builder.build(input)).html : renderCalcSheetHtml(buildCalcSheetView(input));
+      return deps.printer.print(html, base.firm.paperSize, { priority: 'issue', label: `issue-run-${runId}` });
     },
   };
 }

@@ -10,9 +10,37 @@ export { breakableTex };
 
 /** How the sheet writes numbers, units, member forces and equations. Pure. */
 
+/**
+ * KaTeX output by source: a sheet repeats many equations word for word (the same member's
+ * substitution in several steps, headings of every case), and the typesetting is the view's
+ * largest cost. Output depends on the source and the display flag only. Bounded: emptied when full.
+ */
+const typeset = new Map<string, string>();
+const TYPESET_CACHE_MAX = 50_000;
+const typesetStats = { hits: 0, misses: 0 };
+
+function cachedRender(source: string, displayMode: boolean): string {
+  const key = `${displayMode ? 'd' : 'i'}${source}`;
+  const hit = typeset.get(key);
+  if (hit !== undefined) {
+    typesetStats.hits += 1;
+    return hit;
+  }
+  typesetStats.misses += 1;
+  const html = katex.renderToString(source, { displayMode, output: 'html', throwOnError: true, strict: 'ignore' });
+  if (typeset.size >= TYPESET_CACHE_MAX) typeset.clear();
+  typeset.set(key, html);
+  return html;
+}
+
+/** Hits and misses of the KaTeX output cache so far (bench:sheet prints them). */
+export function katexCacheStats(): { hits: number; misses: number; size: number } {
+  return { ...typesetStats, size: typeset.size };
+}
+
 /** Typesets KaTeX source to HTML (display mode). Throws on bad source so a sheet never prints raw TeX. */
 export function katexHtml(source: string, display = true): string {
-  return katex.renderToString(source, { displayMode: display, output: 'html', throwOnError: true, strict: 'ignore' });
+  return cachedRender(source, display);
 }
 
 /**
@@ -21,7 +49,7 @@ export function katexHtml(source: string, display = true): string {
  * the page. KaTeX breaks inline math only there.
  */
 function equationHtml(source: string): string {
-  return katex.renderToString(`\\displaystyle ${breakableTex(source)}`, { displayMode: false, output: 'html', throwOnError: true, strict: 'ignore' });
+  return cachedRender(`\\displaystyle ${breakableTex(source)}`, false);
 }
 
 export interface Formatters {

@@ -22,6 +22,7 @@ import { ForceTable } from './force-table';
 import { ReactionEnvelopeTable, upliftWords } from './reaction-envelope-table';
 import { utilisationText } from '../utils/utilisation-look';
 import { RunStatusBadge } from './run-status-badge';
+import { SheetPdfJob } from './sheet-pdf-job';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
 
@@ -77,9 +78,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
             <a className={LINK} href={`/api/runs/${r.id}/sheet`} target="_blank" rel="noreferrer">
               Preview the calc sheet ↗
             </a>
-            <a className={LINK} href={`/api/runs/${r.id}/sheet.pdf`} download>
-              Calc sheet (PDF)
-            </a>
+            <SheetPdfJob runId={r.id} />
           </div>
         )}
       </div>
