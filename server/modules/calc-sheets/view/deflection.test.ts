@@ -14,18 +14,23 @@ import { sheetInput, triangleModel } from './view-fixtures';
  *   (the rafters cancel; the stretched tie carries the roller end, and C with it, half its elongation).
  * Allowed: span 8000 mm / 240 = 33.33 mm.
  */
+/** The fixtures' triangle under D, one design group (A = 1000 mm², A992), deflection asked at C. */
+function triangleWithDeflection() {
+  const base = triangleModel(['D']);
+  const C = base.joints.find((j) => j.tag === 'C')!.id;
+  return {
+    ...base,
+    design: {
+      standard: 'aisc360-16-lrfd' as const,
+      groups: [{ name: 'All', members: 'all' as const, material: { kind: 'grade' as const, grade: 'A992' }, section: { shape: 'properties' as const, A: 1000, rx: 30, ry: 30 } }],
+      deflection: { joints: [C], combinations: ['D'], limit: 240 },
+    },
+  };
+}
+
 describe('sheet view: deflection page', () => {
   it('the unit-load table of C under D sums to the closed form −0.63 mm, against span/240', () => {
-    const base = triangleModel(['D']);
-    const C = base.joints.find((j) => j.tag === 'C')!.id;
-    const model = {
-      ...base,
-      design: {
-        standard: 'aisc360-16-lrfd' as const,
-        groups: [{ name: 'All', members: 'all' as const, material: { kind: 'grade' as const, grade: 'A992' }, section: { shape: 'properties' as const, A: 1000, rx: 30, ry: 30 } }],
-        deflection: { joints: [C], combinations: ['D'], limit: 240 },
-      },
-    };
+    const model = triangleWithDeflection();
     const analysis = trussSolve(model);
     const view = buildCalcSheetView(sheetInput(model, { analysis, design: runDesign(model, analysis) }));
     expect(view.deflection.present).toBe(true);
@@ -45,16 +50,7 @@ describe('sheet view: deflection page', () => {
   });
 
   it('a run stored before shapes existed says so instead of drawing nothing', () => {
-    const base = triangleModel(['D']);
-    const C = base.joints.find((j) => j.tag === 'C')!.id;
-    const model = {
-      ...base,
-      design: {
-        standard: 'aisc360-16-lrfd' as const,
-        groups: [{ name: 'All', members: 'all' as const, material: { kind: 'grade' as const, grade: 'A992' }, section: { shape: 'properties' as const, A: 1000, rx: 30, ry: 30 } }],
-        deflection: { joints: [C], combinations: ['D'], limit: 240 },
-      },
-    };
+    const model = triangleWithDeflection();
     const analysis = trussSolve(model);
     const { shapes: _dropped, ...old } = runDesign(model, analysis)!;
     const view = buildCalcSheetView(sheetInput(model, { analysis, design: old }));
