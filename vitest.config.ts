@@ -40,10 +40,6 @@ export default defineConfig({
               test: {
                 name: 'postgres',
                 include: ['tests/api/**/*.test.ts'],
-                // Not yet portable: the public-verify limiter and the print-job restart use raw SQL
-                // with unquoted camel-case columns, which PostgreSQL folds to lower case. They run
-                // on SQLite; porting them is open work (see the issue notes).
-                exclude: ['tests/api/public-verify.test.ts', 'tests/api/sheet-jobs.test.ts'],
                 env: { PANELPOINT_TEST_DATABASE: 'postgres' },
                 setupFiles: ['tests/support/pg-setup.ts'],
               },

@@ -209,7 +209,7 @@ describe('calc sheet print jobs (real Chromium, SQLite file)', () => {
     const at = new Date().toISOString();
     const insert = async (state: string, attempts: number) => {
       await sequelize.query(
-        `INSERT INTO print_jobs (runId, requestedById, state, stage, percent, attempts, startedAt, createdAt, updatedAt)
+        `INSERT INTO print_jobs ("runId", "requestedById", state, stage, percent, attempts, "startedAt", "createdAt", "updatedAt")
          VALUES (?, (SELECT id FROM users WHERE email = ?), ?, 'laying out and printing the pages', 60, ?, ?, ?, ?)`,
         { replacements: [runId, demoEmail('engineer'), state, attempts, at, at, at] },
       );

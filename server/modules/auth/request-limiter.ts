@@ -43,7 +43,7 @@ export function addressLimiterCreate(sequelize: Sequelize, options: AddressLimit
       sequelize.transaction(async (transaction) => {
         const t = now();
         const [row] = await sequelize.query<{ failures: number; windowStartedAt: number }>(
-          'SELECT failures, windowStartedAt FROM signin_limits WHERE key = ?',
+          'SELECT failures, "windowStartedAt" FROM signin_limits WHERE key = ?',
           { replacements: [key], type: QueryTypes.SELECT, transaction },
         );
         let count = row ? Number(row.failures) : 0;
@@ -56,8 +56,8 @@ export function addressLimiterCreate(sequelize: Sequelize, options: AddressLimit
           return { refused: true as const, retryAfterSeconds: Math.max(1, Math.ceil((start + options.windowMs - t) / 1000)) };
         }
         await sequelize.query(
-          `INSERT INTO signin_limits (key, failures, windowStartedAt, lockedUntil, locks, updatedAt) VALUES (?, ?, ?, NULL, 0, ?)
-           ON CONFLICT(key) DO UPDATE SET failures = excluded.failures, windowStartedAt = excluded.windowStartedAt, updatedAt = excluded.updatedAt`,
+          `INSERT INTO signin_limits (key, failures, "windowStartedAt", "lockedUntil", locks, "updatedAt") VALUES (?, ?, ?, NULL, 0, ?)
+           ON CONFLICT(key) DO UPDATE SET failures = excluded.failures, "windowStartedAt" = excluded."windowStartedAt", "updatedAt" = excluded."updatedAt"`,
           { replacements: [key, count + 1, start, t], transaction },
         );
         return { refused: false as const };
