@@ -1,8 +1,9 @@
-import { useRef, useState, type DragEvent } from 'react';
+import { useState } from 'react';
 import type { PublicSheetView, PublicVerifyView } from '@shared/schemas/review.schema';
 import { errorMessage } from '@/lib/api-client';
 import { usePublicSheet } from '../api/get-public-sheet';
 import { useVerifySheetPublic } from '../api/verify-sheet';
+import { PdfDropZone, VerifyProgress } from './pdf-drop-zone';
 
 /** The facts the sheet itself prints, as a short list to compare with the paper. */
 function SheetFacts({ sheet }: { sheet: PublicSheetView }) {
@@ -54,18 +55,10 @@ function Answer({ result }: { result: PublicVerifyView }) {
 export function PublicVerify({ sheetId }: { sheetId: number }) {
   const sheet = usePublicSheet(sheetId);
   const verify = useVerifySheetPublic();
-  const input = useRef<HTMLInputElement>(null);
-  const [over, setOver] = useState(false);
   const [fileName, setFileName] = useState<string>();
-  const send = (file: File | undefined) => {
-    if (!file) return;
+  const send = (file: File) => {
     setFileName(file.name);
     verify.mutate(file);
-  };
-  const onDrop = (e: DragEvent) => {
-    e.preventDefault();
-    setOver(false);
-    send(e.dataTransfer.files[0]);
   };
 
   return (
@@ -77,45 +70,12 @@ export function PublicVerify({ sheetId }: { sheetId: number }) {
         </p>
       )}
       {sheet.isSuccess && <SheetFacts sheet={sheet.data} />}
-      <div
-        onDragOver={(e) => {
-          e.preventDefault();
-          setOver(true);
-        }}
-        onDragLeave={() => setOver(false)}
-        onDrop={onDrop}
-        className={`flex flex-col items-center justify-center gap-2 rounded-lg border-2 border-dashed px-6 py-10 text-center transition-colors ${
-          over ? 'border-accent bg-accent-soft/50' : 'border-paper-line bg-paper-raised'
-        }`}
-      >
-        <p className="text-sm font-medium text-ink">Have the PDF? Drop it here to compare its bytes with the issued copy</p>
-        <p className="text-xs text-ink-soft">The file is hashed and compared, never kept.</p>
-        <button
-          type="button"
-          onClick={() => input.current?.click()}
-          className="mt-2 inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
-        >
-          Choose a file…
-        </button>
-        <input
-          ref={input}
-          type="file"
-          accept="application/pdf,.pdf"
-          className="sr-only"
-          aria-label="PDF to verify"
-          onChange={(e) => {
-            send(e.target.files?.[0]);
-            e.target.value = '';
-          }}
-        />
-      </div>
-      {verify.isPending && <p role="status" className="text-sm text-ink-soft">Checking {fileName}…</p>}
-      {verify.isError && (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
-          {fileName ? <span className="font-medium">{fileName}: </span> : null}
-          {errorMessage(verify.error)}
-        </p>
-      )}
+      <PdfDropZone
+        title="Have the PDF? Drop it here to compare its bytes with the issued copy"
+        hint="The file is hashed and compared, never kept."
+        onFile={send}
+      />
+      <VerifyProgress pending={verify.isPending} error={verify.isError ? verify.error : null} fileName={fileName} />
       {verify.isSuccess && <Answer result={verify.data} />}
     </div>
   );

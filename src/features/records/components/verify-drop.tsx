@@ -1,74 +1,27 @@
-import { useRef, useState, type DragEvent, type ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { SheetVerifyView } from '@shared/schemas/review.schema';
-import { errorMessage } from '@/lib/api-client';
 import { formatDate } from '@/lib/format';
 import { useVerifySheet } from '../api/verify-sheet';
+import { PdfDropZone, VerifyProgress } from './pdf-drop-zone';
 
 /** Drop (or choose) a PDF; the answer says whether it is one of the firm's issued sheets, as issued. */
 export function VerifyDrop() {
   const verify = useVerifySheet();
-  const input = useRef<HTMLInputElement>(null);
-  const [over, setOver] = useState(false);
   const [fileName, setFileName] = useState<string>();
-
-  const send = (file: File | undefined) => {
-    if (!file) return;
+  const send = (file: File) => {
     setFileName(file.name);
     verify.mutate(file);
-  };
-  const onDrop = (e: DragEvent) => {
-    e.preventDefault();
-    setOver(false);
-    send(e.dataTransfer.files[0]);
   };
 
   return (
     <div className="flex flex-col gap-5">
-      <div
-        onDragOver={(e) => {
-          e.preventDefault();
-          setOver(true);
-        }}
-        onDragLeave={() => setOver(false)}
-        onDrop={onDrop}
-        className={`flex flex-col items-center justify-center gap-2 rounded-lg border-2 border-dashed px-6 py-12 text-center transition-colors ${
-          over ? 'border-accent bg-accent-soft/50' : 'border-paper-line bg-paper-raised'
-        }`}
-      >
-        <p className="text-sm font-medium text-ink">Drop a calc sheet PDF here</p>
-        <p className="text-xs text-ink-soft">It is compared with the archive by its SHA-256 fingerprint and not kept.</p>
-        <button
-          type="button"
-          onClick={() => input.current?.click()}
-          className="mt-2 inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
-        >
-          Choose a file…
-        </button>
-        <input
-          ref={input}
-          type="file"
-          accept="application/pdf,.pdf"
-          className="sr-only"
-          aria-label="PDF to verify"
-          onChange={(e) => {
-            send(e.target.files?.[0]);
-            e.target.value = '';
-          }}
-        />
-      </div>
-
-      {verify.isPending && (
-        <p role="status" className="text-sm text-ink-soft">
-          Checking {fileName}…
-        </p>
-      )}
-      {verify.isError && (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
-          {fileName ? <span className="font-medium">{fileName}: </span> : null}
-          {errorMessage(verify.error)}
-        </p>
-      )}
+      <PdfDropZone
+        title="Drop a calc sheet PDF here"
+        hint="It is compared with the archive by its SHA-256 fingerprint and not kept."
+        onFile={send}
+      />
+      <VerifyProgress pending={verify.isPending} error={verify.isError ? verify.error : null} fileName={fileName} />
       {verify.isSuccess && <VerifyResult result={verify.data} fileName={fileName} />}
     </div>
   );
