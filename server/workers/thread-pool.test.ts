@@ -3,7 +3,7 @@ import { threadPoolCreate } from './thread-pool';
 
 // Real worker threads running a tiny worker module; no mocks.
 const entry = new URL('./thread-pool-test-worker.mjs', import.meta.url);
-type Job = { do: 'echo' | 'spin' | 'exit' | 'hog'; value?: number; bytes?: Uint8Array };
+type Job = { do: 'echo' | 'count' | 'spin' | 'exit' | 'hog'; value?: number; bytes?: Uint8Array };
 type Reply = { jobId: number; type: string; value?: number };
 
 function pool(extra: { size?: number; memoryMb?: number; maxWaiting?: number } = {}) {
@@ -18,6 +18,15 @@ describe('thread pool', () => {
     expect(outcomes.map((o) => (o.type === 'done' ? o.reply.value : null))).toEqual([1, 2, 3]);
     expect(started.sort()).toEqual([1, 2, 3]);
     expect(p.pending()).toBe(0);
+    await p.close();
+  });
+
+  it('passes progress messages to onProgress in order, and settles only on the reply after them', async () => {
+    const p = pool();
+    const steps: unknown[] = [];
+    const outcome = await p.run({ do: 'count', value: 3 }, { onProgress: (m) => steps.push(m.step) });
+    expect(steps).toEqual([1, 2, 3]);
+    expect(outcome).toMatchObject({ type: 'done', reply: { type: 'echo', value: 3 } });
     await p.close();
   });
 

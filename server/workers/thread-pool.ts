@@ -7,8 +7,9 @@ import { Worker, type Transferable } from 'node:worker_threads';
  *
  * The protocol with a worker module: the pool posts the job with a `jobId` added; the worker
  * posts `{ jobId, type: 'started' }` when it begins (the time limit runs from then, so a worker
- * still loading its code or dictionaries is not charged for it), then exactly one more message
- * carrying the same `jobId`: its reply.
+ * still loading its code or dictionaries is not charged for it), any number of
+ * `{ jobId, type: 'progress', … }` messages (passed to `onProgress`), then exactly one more
+ * message carrying the same `jobId`: its reply.
  */
 export type PoolOutcome<R> =
   | { type: 'done'; reply: R }
@@ -24,6 +25,8 @@ export interface RunOptions {
   timeLimitMs?: number;
   /** Called when a worker picks the job up. */
   onStart?: () => void;
+  /** Called with each `type: 'progress'` message the worker posts before its reply. */
+  onProgress?: (message: Record<string, unknown>) => void;
   /** Buffers moved to the worker rather than copied. */
   transfer?: Transferable[];
 }
@@ -108,6 +111,10 @@ export function threadPoolCreate<J extends object, R extends Reply>(options: Thr
             pump();
           }, limit);
         }
+        return;
+      }
+      if (reply.type === 'progress') {
+        task.options.onProgress?.(reply as unknown as Record<string, unknown>);
         return;
       }
       settle(slot, { type: 'done', reply });

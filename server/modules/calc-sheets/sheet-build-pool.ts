@@ -1,16 +1,17 @@
-import { Worker } from 'node:worker_threads';
+import { threadPoolCreate } from '../../workers/thread-pool';
 import type { CalcSheetInput } from './calc-sheet-view';
 import type { PaperSize } from './sheet-printer';
 
-/** A sheet to build, sent to the worker. */
+/** A sheet to build, sent to the worker (the pool adds the `jobId`). */
 export interface SheetBuildJob {
   jobId: number;
   input: CalcSheetInput;
 }
 
-/** Messages a worker sends back: 'view-built' once, then 'built' or 'failed'. */
+/** Messages a worker sends back: 'started', then 'progress' once the view is built, then 'built' or 'failed'. */
 export type SheetBuildReply =
-  | { jobId: number; type: 'view-built'; viewMs: number }
+  | { jobId: number; type: 'started' }
+  | { jobId: number; type: 'progress'; stage: 'view-built'; viewMs: number }
   | { jobId: number; type: 'built'; html: string; paper: PaperSize; viewMs: number; htmlMs: number }
   | { jobId: number; type: 'failed'; error: { code: string; message: string } };
 
@@ -48,89 +49,32 @@ export interface SheetBuildPool {
   close(): Promise<void>;
 }
 
-interface Task {
-  job: SheetBuildJob;
-  onViewBuilt?: () => void;
-  resolve(sheet: BuiltSheet): void;
-  reject(err: Error): void;
-}
-
-interface Slot {
-  worker: Worker;
-  task: Task | null;
-}
-
-const WORKER_ENTRY = new URL('./sheet-build-worker-entry.mjs', import.meta.url);
+type Done = Extract<SheetBuildReply, { type: 'built' | 'failed' }>;
 
 /**
- * A small pool of sheet-build worker threads (default one: the main thread keeps the other core).
- * Workers start on the first sheet and stay for the next (their compiled templates and inlined
- * fonts are kept); a worker that dies fails its sheet and is replaced on demand.
+ * Sheet-build worker threads on the shared thread pool (default one: the main thread keeps the
+ * other core). Workers start on the first sheet and stay for the next (their compiled templates
+ * and inlined fonts are kept); a worker that dies fails its sheet and is replaced on demand.
  */
 export function sheetBuildPoolCreate(options: { size?: number } = {}): SheetBuildPool {
-  const size = Math.max(1, options.size ?? 1);
-  const queue: Task[] = [];
-  const slots: Slot[] = [];
-  let nextId = 1;
-  let closed = false;
-
-  function startWorker(): Slot {
-    const worker = new Worker(WORKER_ENTRY);
-    worker.unref();
-    const slot: Slot = { worker, task: null };
-    worker.on('message', (reply: SheetBuildReply) => {
-      const task = slot.task;
-      if (!task || task.job.jobId !== reply.jobId) return;
-      if (reply.type === 'view-built') {
-        task.onViewBuilt?.();
-        return;
-      }
-      slot.task = null;
-      worker.unref();
-      if (reply.type === 'built') task.resolve({ html: reply.html, paper: reply.paper, viewMs: reply.viewMs, htmlMs: reply.htmlMs });
-      else task.reject(new SheetBuildError(reply.error.code, reply.error.message));
-      pump();
-    });
-    const lost = (why: string) => {
-      const index = slots.indexOf(slot);
-      if (index >= 0) slots.splice(index, 1);
-      const task = slot.task;
-      slot.task = null;
-      if (task) {
-        task.reject(closed ? new SheetBuildPoolClosedError() : new SheetBuildError('sheet-builder-stopped', `The calc sheet builder stopped before finishing (${why}).`));
-      }
-      if (!closed) pump();
-    };
-    worker.on('error', (err) => lost(err.message));
-    worker.on('exit', (code) => lost(`worker exit code ${code}`));
-    slots.push(slot);
-    return slot;
-  }
-
-  function pump(): void {
-    while (!closed && queue.length) {
-      const slot = slots.find((s) => s.task === null) ?? (slots.length < size ? startWorker() : null);
-      if (!slot) return;
-      const task = queue.shift()!;
-      slot.task = task;
-      slot.worker.ref();
-      slot.worker.postMessage(task.job);
-    }
-  }
+  const pool = threadPoolCreate<{ input: CalcSheetInput }, Done>({
+    entry: new URL('./sheet-build-worker-entry.mjs', import.meta.url),
+    size: options.size ?? 1,
+    closedError: () => new SheetBuildPoolClosedError(),
+  });
 
   return {
-    build(input, onViewBuilt) {
-      if (closed) return Promise.reject(new SheetBuildPoolClosedError());
-      return new Promise<BuiltSheet>((resolve, reject) => {
-        queue.push({ job: { jobId: nextId++, input }, onViewBuilt, resolve, reject });
-        pump();
-      });
+    async build(input, onViewBuilt) {
+      const outcome = await pool.run({ input }, { onProgress: () => onViewBuilt?.() });
+      if (outcome.type !== 'done') {
+        const why = outcome.type === 'stopped' ? outcome.why : outcome.type;
+        throw new SheetBuildError('sheet-builder-stopped', `The calc sheet builder stopped before finishing (${why}).`);
+      }
+      const reply = outcome.reply;
+      if (reply.type === 'failed') throw new SheetBuildError(reply.error.code, reply.error.message);
+      return { html: reply.html, paper: reply.paper, viewMs: reply.viewMs, htmlMs: reply.htmlMs };
     },
-    pending: () => queue.length + slots.filter((s) => s.task).length,
-    async close() {
-      closed = true;
-      for (const task of queue.splice(0)) task.reject(new SheetBuildPoolClosedError());
-      await Promise.all(slots.map((s) => s.worker.terminate()));
-    },
+    pending: () => pool.pending(),
+    close: () => pool.close(),
   };
 }

@@ -11,11 +11,12 @@ import type { SheetBuildJob, SheetBuildReply } from './sheet-build-pool';
 const port = parentPort;
 if (!port) throw new Error('sheet-build-worker.ts runs only as a worker thread (see sheet-build-pool.ts).');
 port.on('message', (job: SheetBuildJob) => {
+  port.postMessage({ jobId: job.jobId, type: 'started' } satisfies SheetBuildReply);
   try {
     const t0 = performance.now();
     const view = buildCalcSheetView(job.input);
     const viewMs = performance.now() - t0;
-    port.postMessage({ jobId: job.jobId, type: 'view-built', viewMs } satisfies SheetBuildReply);
+    port.postMessage({ jobId: job.jobId, type: 'progress', stage: 'view-built', viewMs } satisfies SheetBuildReply);
     const html = renderCalcSheetHtml(view);
     port.postMessage({ jobId: job.jobId, type: 'built', html, paper: view.paper, viewMs, htmlMs: performance.now() - t0 - viewMs } satisfies SheetBuildReply);
   } catch (err) {
