@@ -4,10 +4,11 @@ import path from 'node:path';
 import { DeleteObjectCommand, GetObjectCommand, ListObjectsV2Command, PutObjectCommand } from '@aws-sdk/client-s3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ORPHAN_GRACE_MS, sweepLeftovers, type Services } from '../../server/bootstrap';
-import { AnalysisRun, Drawing, SheetRevision } from '../../server/db/models';
+import { Drawing, SheetRevision } from '../../server/db/models';
 import { sweepOrphans } from '../../server/storage/file-hygiene';
 import { fakeS3Start, type FakeS3 } from '../support/s3-fake';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
 /**
@@ -47,23 +48,7 @@ async function bucketObject(key: string): Promise<Buffer> {
   return Buffer.from(await out.Body!.transformToByteArray());
 }
 
-async function solvedRun(trussId: number): Promise<number> {
-  const r = await AnalysisRun.create({
-    trussId,
-    modelVersion: 1,
-    status: 'solved',
-    progress: '{}',
-    model: '{}',
-    takeoff: null,
-    analysis: null,
-    summary: '{"note":"fixture run"}',
-    error: null,
-    ranById: null,
-    startedAt: new Date(),
-    finishedAt: new Date(),
-  });
-  return r.id;
-}
+const solvedRun = fixtureRun;
 
 /** Draft → in check → checked → issued, through the API. */
 async function issue(trussId: number): Promise<number> {

@@ -2,7 +2,6 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunView } from '@shared/schemas/run.schema';
 import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
@@ -10,6 +9,7 @@ import { buildCalcSheetView } from '../../server/modules/calc-sheets/calc-sheet-
 import { renderCalcSheetHtml } from '../../server/modules/calc-sheets/calc-sheet-html';
 import { createSheetPrinter, type SheetPrinter } from '../../server/modules/calc-sheets/sheet-printer';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { solvedDemoRun } from '../support/fixtures';
 
 /**
  * The draft PDF route and the print queue through a listening server, real sessions, a real
@@ -40,30 +40,7 @@ beforeAll(async () => {
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   engineer = await signIn(base, demoEmail('engineer'));
-  const current: TrussModelView = (await engineer.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  const saved = await engineer.agent
-    .put('/api/trusses/1/model')
-    .set('X-CSRF-Token', engineer.csrf)
-    .send({
-      version: current.version,
-      supports: [
-        { joint: at(0, 0), kind: 'pin' },
-        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-      ],
-      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
-      combinations: [],
-      members: [],
-    });
-  expect(saved.status).toBe(200);
-  const started = await engineer.agent.post('/api/trusses/1/runs').set('X-CSRF-Token', engineer.csrf).send({});
-  expect(started.status).toBe(202);
-  for (let i = 0; i < 400; i++) {
-    run = (await engineer.agent.get(`/api/runs/${started.body.id}`)).body;
-    if (run.status !== 'queued' && run.status !== 'running') break;
-    await new Promise((r) => setTimeout(r, 50));
-  }
-  expect(run.status).toBe('solved');
+  run = await solvedDemoRun(engineer);
   const model = modelFromSketch(parallelChordSketch('pratt', 16, 3, 3, 10));
   blockerHtml = renderCalcSheetHtml(
     buildCalcSheetView({

@@ -6,10 +6,9 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
-import type { RunView } from '@shared/schemas/run.schema';
 import { SheetRevision } from '../../server/db/models';
 import { demoEmail, openTab, signIn, startTestServices, type Tab } from '../support/test-services';
+import { solvedDemoRun as solvedDemoRunOf } from '../support/fixtures';
 
 /**
  * The issued copy verifies itself: a real sheet issued through the check flow and printed by the
@@ -46,32 +45,7 @@ const canonical = (v: unknown): string =>
           .join(',')}}`
       : JSON.stringify(v);
 
-async function solvedDemoRun(): Promise<RunView> {
-  const current: TrussModelView = (await engineer.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  await engineer.agent
-    .put('/api/trusses/1/model')
-    .set('X-CSRF-Token', engineer.csrf)
-    .send({
-      version: current.version,
-      supports: [
-        { joint: at(0, 0), kind: 'pin' },
-        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-      ],
-      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
-      combinations: [],
-      members: [],
-    })
-    .expect(200);
-  const started = await engineer.agent.post('/api/trusses/1/runs').set('X-CSRF-Token', engineer.csrf).send({}).expect(202);
-  let run: RunView = started.body;
-  for (let i = 0; i < 400 && (run.status === 'queued' || run.status === 'running'); i++) {
-    await new Promise((r) => setTimeout(r, 50));
-    run = (await engineer.agent.get(`/api/runs/${started.body.id}`)).body;
-  }
-  expect(run.status).toBe('solved');
-  return run;
-}
+const solvedDemoRun = () => solvedDemoRunOf(engineer);
 
 beforeAll(async () => {
   services = await startTestServices({ maxUploadBytes: MAX_BYTES, verifyAddressLimit: 1000 }, { realFile: true });

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent, SigningKey } from '../../server/db/models';
 import { databaseEnv, demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
+import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
 /**
@@ -57,23 +58,7 @@ async function signInAll() {
   for (const role of ['drafter', 'engineer', 'reviewer', 'admin'] as const) tab[role] = await signIn(services.app, demoEmail(role));
 }
 
-async function solvedRun(trussId: number): Promise<number> {
-  const r = await AnalysisRun.create({
-    trussId,
-    modelVersion: 1,
-    status: 'solved',
-    progress: '{}',
-    model: '{}',
-    takeoff: null,
-    analysis: null,
-    summary: '{"note":"fixture run"}',
-    error: null,
-    ranById: null,
-    startedAt: new Date(),
-    finishedAt: new Date(),
-  });
-  return r.id;
-}
+const solvedRun = fixtureRun;
 
 /** Draft → in check (with a resolved comment) → checked → issued; returns the revision id and its issue view. */
 async function issue(trussId: number, runId: number) {

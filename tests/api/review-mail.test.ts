@@ -1,10 +1,10 @@
 import bcrypt from 'bcryptjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { Services } from '../../server/bootstrap';
 import { EmailOptOut, OutboxMessage, User } from '../../server/db/models';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { solvedDemoRun } from '../support/fixtures';
 
 /**
  * The review e-mails on a real server: a real solved run of the demo truss, its real calc
@@ -45,27 +45,7 @@ beforeAll(async () => {
   engineer = await signIn(services.app, demoEmail('engineer'));
   reviewer = await signIn(services.app, demoEmail('reviewer'));
   reviewer2 = await signIn(services.app, 'second.reviewer@demo.panelpoint.test');
-  const current: TrussModelView = (await engineer.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  await put(engineer, '/api/trusses/1/model', {
-    version: current.version,
-    supports: [
-      { joint: at(0, 0), kind: 'pin' },
-      { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-    ],
-    loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
-    combinations: [],
-    members: [],
-  }).expect(200);
-  const started = await post(engineer, '/api/trusses/1/runs');
-  expect(started.status).toBe(202);
-  let run = started.body;
-  for (let i = 0; i < 400 && (run.status === 'queued' || run.status === 'running' || !run.status); i++) {
-    await new Promise((r) => setTimeout(r, 50));
-    run = (await engineer.agent.get(`/api/runs/${started.body.id}`)).body;
-  }
-  expect(run.status).toBe('solved');
-  runId = run.id;
+  runId = (await solvedDemoRun(engineer)).id;
   const html = (await reviewer.agent.get(`/api/runs/${runId}/sheet`).expect(200)).text;
   steps = [...html.matchAll(/<article class="step[^"]*" id="([^"]+)">\s*<h4><a class="anchor" href="#[^"]+"><span class="step-no">([\d.]+)<\/span>\s*([^<]*)<\/a>/g)].map((m) => ({
     id: m[1],

@@ -4,8 +4,8 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunView } from '@shared/schemas/run.schema';
+import { binaryBody, solvedDemoRun } from '../support/fixtures';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
@@ -33,41 +33,13 @@ const text = (pdf: Buffer) => {
     fs.rmSync(dir, { recursive: true, force: true });
   }
 };
-const binary = (res: import('supertest').Test) =>
-  res.buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on('data', (c: Buffer) => chunks.push(c));
-    r.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
+const binary = binaryBody;
 
 beforeAll(async () => {
   services = await startTestServices();
   engineer = await signIn(services.app, demoEmail('engineer'));
   reviewer = await signIn(services.app, demoEmail('reviewer'));
-  const current: TrussModelView = (await engineer.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  const saved = await engineer.agent
-    .put('/api/trusses/1/model')
-    .set('X-CSRF-Token', engineer.csrf)
-    .send({
-      version: current.version,
-      supports: [
-        { joint: at(0, 0), kind: 'pin' },
-        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-      ],
-      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
-      combinations: [],
-      members: [],
-    });
-  expect(saved.status).toBe(200);
-  const started = await engineer.agent.post('/api/trusses/1/runs').set('X-CSRF-Token', engineer.csrf).send({});
-  expect(started.status).toBe(202);
-  for (let i = 0; i < 400; i++) {
-    run = (await engineer.agent.get(`/api/runs/${started.body.id}`)).body;
-    if (run.status !== 'queued' && run.status !== 'running') break;
-    await new Promise((r) => setTimeout(r, 50));
-  }
-  expect(run.status).toBe('solved');
+  run = await solvedDemoRun(engineer);
 }, 60_000);
 
 afterAll(async () => {
