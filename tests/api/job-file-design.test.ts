@@ -221,6 +221,29 @@ describe('job file with the member design', () => {
     expect(cli.stderr).toMatch(message);
   });
 
+  it('when a job file with new sections is imported behind an issued sheet, then the issued run keeps its sections and checks, and re-checking that run is refused', async () => {
+    const run = await runToEnd(trussId);
+    const reviewer = await signIn(services.app, demoEmail('reviewer'));
+    const sheet = await post(engineer, `/api/trusses/${trussId}/sheets`, { runId: run.id });
+    expect(sheet.status).toBe(201);
+    await post(engineer, `/api/sheets/${sheet.body.id}/submit`).expect(200);
+    await post(reviewer, `/api/sheets/${sheet.body.id}/check`).expect(200);
+    expect((await post(engineer, `/api/sheets/${sheet.body.id}/issue`)).status).toBe(200);
+    const job = JSON.parse(await exportOf(trussId)) as Job;
+    const res = await post(engineer, `/api/trusses/${trussId}/job-file`, group(job, 1, { section: { A: 2000, rx: 35, ry: 45 } }));
+    expect(res.status).toBe(200);
+    expect((res.body as TrussModelView).model.design!.groups[1].section).toEqual({ shape: 'properties', A: 2000, rx: 35, ry: 45 });
+    const kept = (await engineer.agent.get(`/api/runs/${run.id}`).expect(200)).body as RunView;
+    expect(kept.model.design!.groups[1].section).toEqual({ shape: 'properties', A: 1500, rx: 30, ry: 40 });
+    expect(kept.analysis!.design!.members.map((m) => m.utilisation)).toEqual(run.analysis!.design!.members.map((m) => m.utilisation));
+    // The Design tab's rule for a run behind an issued sheet (runs.service.ts recheckDesign).
+    const refused = await post(engineer, `/api/runs/${run.id}/design`);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('sheet-issued');
+    // Back to the sections of the other tests.
+    expect((await post(engineer, `/api/trusses/${trussId}/job-file`, job)).status).toBe(200);
+  }, 120_000);
+
   it('when a file without "design" is imported, then the truss is left without one (the file is the whole model), and the design tab can set it again', async () => {
     const other = await newTruss('K4 — no design');
     const job = JSON.parse(await exportOf(trussId)) as Job;
