@@ -10,6 +10,7 @@
 import path from 'node:path';
 import { DxfImportError } from '@shared/dxf-import/index';
 import { SolverError, trussSolve } from '@shared/solver/index';
+import { runDesign } from '@shared/design/basis';
 import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
 import { createSheetPrinter, SheetPrintError } from '../server/modules/calc-sheets/sheet-printer';
@@ -28,6 +29,8 @@ async function main(args: string[]): Promise<void> {
   if (!/\.pdf$/i.test(outPath)) throw new JobError(`The output ${outPath} should end in .pdf. ${USAGE}`);
   const { model, saved, takeoff } = jobLoad(jobPath);
   const analysis = trussSolve(model);
+  // The job's "design" and "deflection" give the design pages the app's sheet has (same run code).
+  const design = runDesign(model, analysis);
   const paper = process.env.SHEET_PAPER === 'Letter' ? 'Letter' : 'A4';
   const view = buildCalcSheetView({
     firm: { name: 'Harrow & Vale Structural (demo)', address: '4 Tanner’s Yard, Northgate', paperSize: paper },
@@ -36,14 +39,15 @@ async function main(args: string[]): Promise<void> {
       jobNumber: 'HV-2417',
       client: 'Kestrel Logistics (demo)',
       site: 'Unit 7, Furlong Park (demo)',
-      designBasis: 'Demo project for the calc sheet command. Loads and combinations as given in the job file; member design is outside this sheet.',
+      designBasis: `Demo project for the calc sheet command. Loads and combinations as given in the job file; ${design ? 'member design and deflection as given in the job file' : 'member design is outside this sheet (the job file has no "design")'}.`,
       unitSystem: 'SI',
     },
     trussName: path.basename(jobPath, path.extname(jobPath)),
-    subject: `Truss ${path.basename(jobPath, path.extname(jobPath))} — member forces`,
+    subject: `Truss ${path.basename(jobPath, path.extname(jobPath))} — member forces${design ? ' and design' : ''}`,
     revision: 'P1',
     model,
     analysis,
+    design,
     ...(takeoff ? { takeoffSteps: computeTakeoff(saved, takeoff).steps } : {}),
     preparedBy: { name: 'Panelpoint sheet command' },
     runLabel: path.basename(jobPath),

@@ -6,7 +6,10 @@
  * Output: classification (with conditioning and cause), joints, members, cases and combinations (forces, reactions), "envelope"
  * (per member maxTension, maxCompression, governing) and "reactionEnvelope" (per support: joint
  * tag, at [x, y], rxMax/rxMin/ryMax/ryMin in kN with the combination, or case, of each in
- * rxMaxCombo …, and "uplift" in words or null).
+ * rxMaxCombo …, and "uplift" in words or null). A job with "design" adds "design" (per member:
+ * utilisation, governing combination, pass, checks with clause and ratio, steps) and, with
+ * "deflection", "deflection" (per joint and service combination, mm): both made by the app's own
+ * run code (shared/design/basis.ts runDesign) on the model the app's run solves.
  *
  * Exit 0 with the result for a solved or classified (also unstable) truss; exit 2 with one line
  * on stderr for bad input; exit 1 for an unexpected failure.
@@ -15,7 +18,7 @@ import type { TrussModel } from '@shared/model/truss';
 import { caseSteps, reactionEnvelopeOf, SolverError, trussSolve, type SupportReaction } from '@shared/solver/index';
 import { DxfImportError } from '@shared/dxf-import/index';
 import { JobError, jobLoad } from './job';
-import { jobDesignOutputs } from './job-design';
+import { runDesign, type RunDesign } from '@shared/design/basis';
 
 function reactionsOut(list: SupportReaction[], joints: Map<string, TrussModel['joints'][number]>) {
   return list.map((r) => {
@@ -24,9 +27,54 @@ function reactionsOut(list: SupportReaction[], joints: Map<string, TrussModel['j
   });
 }
 
+/** The "design" and "deflection" outputs of a run's design (lengths mm, forces kN). */
+function designOut(d: RunDesign | null): Record<string, unknown> {
+  if (!d) return {};
+  // An unstable truss has no forces to check: the classification says why, the design says it was not checked.
+  if (d.error) return { design: [], designError: d.error };
+  return {
+    design: d.members.map((r) => ({
+      member: r.tag,
+      group: r.group,
+      utilisation: r.utilisation,
+      governing: r.governing,
+      pass: r.pass,
+      reversal: r.reversal,
+      ...(r.refused ? { refused: r.refused } : {}),
+      checks: r.checks.map((c) => ({
+        clause: c.clause,
+        sense: c.sense,
+        combination: c.combination,
+        ratio: c.ratio,
+        ...(c.capacity !== undefined ? { capacity: c.capacity } : {}),
+        ...(c.slenderness ? { slenderness: c.slenderness.value, limit: c.slenderness.limit } : {}),
+      })),
+      steps: { tension: r.tension?.steps ?? [], compression: r.compression?.steps ?? [] },
+      notes: r.notes,
+    })),
+    ...(d.deflection.length
+      ? {
+          deflection: d.deflection.map((r) => ({
+            at: r.at,
+            joint: r.tag,
+            combination: r.combination,
+            dx: r.dx,
+            dy: r.dy,
+            span: r.span,
+            limit: r.limit,
+            allowed: r.allowed,
+            ratio: r.ratio,
+            pass: r.pass,
+            table: r.tableY.map((t) => ({ member: t.tag, n: t.n, N: t.N, L: t.L, A: t.A, E: t.E, nNL_AE: t.term })),
+          })),
+        }
+      : {}),
+  };
+}
+
 function run(jobPath: string | undefined): unknown {
   if (!jobPath) throw new JobError('Usage: npm run -s solve -- JOB.json');
-  const { job, model } = jobLoad(jobPath);
+  const { model } = jobLoad(jobPath);
   const analysis = trussSolve(model);
   const jointById = new Map(model.joints.map((j) => [j.id, j]));
   const cls = analysis.classification;
@@ -79,7 +127,7 @@ function run(jobPath: string | undefined): unknown {
       const { joint: _id, at: tag, ...extremes } = r;
       return { joint: tag, at: [j.x, j.y], ...extremes };
     }),
-    ...jobDesignOutputs(job, model, analysis),
+    ...designOut(runDesign(model, analysis)),
   };
 }
 

@@ -304,4 +304,21 @@ describe('sheet command', () => {
     // Inline job joints are tagged A, B, … in order: bottom joints A–G, top H–N; case D is P = 10 kN.
     expect(pdfText(out)).toMatch(new RegExp(`A\\s+Pin\\s+0\\.00\\s+${numberFormat(R, 2)}`));
   }, SLOW);
+
+  it('when the job has "design" and "deflection", then the sheet has the design pages and the deflection page the app prints; a bad section writes no PDF', async () => {
+    const out = path.join(dir, 'design.pdf');
+    const r = await sheet(path.join(root, 'tests/fixtures/jobs/design-king-post.json'), out);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const text = pdfText(out);
+    expect(text).toMatch(/Member design: group 1/);
+    expect(text).toMatch(/Deflection \(unit-load method\)/);
+    // King post, span 8 m, 100 kN at the apex, A = 1000 mm², E = 200 000 MPa: unit-load method by
+    // hand, Σ nNL/(AE) = 2 × 1.736111 + 2 × 0.888889 mm = 5.25 mm down at the apex.
+    expect(text).toMatch(/5\.25\d* mm/);
+    expect(text).not.toMatch(/member design is outside this sheet/);
+    const bad = path.join(dir, 'bad-design.pdf');
+    expectOneLineExit2(await sheet(path.join(root, 'tests/fixtures/jobs/design-bad-section.json'), bad), /the area A must be greater than 0/);
+    expect(fs.existsSync(bad)).toBe(false);
+  }, SLOW);
 });

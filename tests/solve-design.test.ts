@@ -38,8 +38,9 @@ describe('npm run solve with "design" and "deflection"', () => {
   });
 
   it.each([
-    ['design-bad-section.json', /A of the section of group 1 must be a positive number/],
-    ['design-missing-section.json', /Members CB, AD, DB, CD have no section and material/],
+    // The Design tab's own sentences (shared/model/design-input.ts, shared/design/basis.ts).
+    ['design-bad-section.json', /The section of design group “group 1” \(design\.groups\.0\): the area A must be greater than 0\./],
+    ['design-missing-section.json', /Members CB, AD, DB, CD are in no design group; add a group that takes them/],
   ])('when %s is bad, then exit 2 with one sentence', async (name, message) => {
     const r = await solve(name);
     expect(r.code).toBe(2);

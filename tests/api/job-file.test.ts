@@ -124,6 +124,8 @@ describe('job file export and import', () => {
     ['an unknown set id', (j: Record<string, unknown>) => ({ ...j, combinationSet: 'asce7-22' }), /"combinationSet" is "asce7-22", which is not a combination set; use one of asce7-16-strength/],
     ['a combination naming a missing case', (j: Record<string, unknown>) => ({ ...j, combinations: [{ name: 'X', factors: { S: 1.6 } }] }), /Combination "X" has a factor on load case "S", which the job does not have/],
     ['an EA entry that is no member', (j: Record<string, unknown>) => ({ ...j, EA: [{ from: [0, 0], to: [8, 0], EA: 1e5 }] }), /no member joins those joints/],
+    ['a wind coefficient without a velocity pressure', (j: Record<string, unknown>) => ({ ...j, takeoff: { ...roof(j), areaLoads: [], wind: { caseId: 'W', windward: 'left', cWindward: -0.9, cLeeward: -0.5 } } }), /A wind pressure coefficient is given without a velocity pressure q/],
+    ['a partial-loading request for a dead case', (j: Record<string, unknown>) => ({ ...j, takeoff: { ...roof(j), areaLoads: [{ caseId: 'D', q: 1, basis: 'plan', patterns: true }] } }), /Load case "D" is a dead case, and span patterns are checked only for roof live, live and snow load/],
   ])('when the imported file has %s, then it is refused with one sentence (422) and nothing is written', async (_what, change, message) => {
     const before = await model();
     const job = JSON.parse((await engineer.agent.get(`/api/trusses/${trussId}/job-file`).expect(200)).text) as Record<string, unknown>;
@@ -144,3 +146,9 @@ describe('job file export and import', () => {
     expect(combos.some((c) => c.factors.D === 0.9 && c.factors.W === 1)).toBe(true);
   });
 });
+
+/** A roof loading over the top chord L–T–R of the exported job (joints by their job ids). */
+function roof(j: Record<string, unknown>) {
+  const id = (x: number, y: number) => (j.joints as { id: string; at: [number, number] }[]).find((p) => p.at[0] === x && p.at[1] === y)!.id;
+  return { topChordJoints: [id(0, 0), id(4, 3), id(8, 0)], spacing: 5, trussCount: 3, trussIndex: 1, method: 'exact' };
+}

@@ -7,7 +7,9 @@
  * files" has an example of each):
  *   drawing        DXF path relative to the job file (command line only); or inline
  *   joints         [[x, y] | { "at": [x, y], "tag"?: "L0", "id"?: "j1" }, …] and
- *   members        [[i, j] | { "joints": [i, j], "tag"?: "L0L1", "id"?: "m1" }, …] (0-based joint indices)
+ *   members        [[i, j] | { "joints": [i, j], "tag"?: "L0L1", "id"?: "m1", "group"?: "top-chord" |
+ *                  "bottom-chord" | "web" | "other", "material"?: "…", "section"?: "…" }, …]
+ *                  (0-based joint indices; material and section here are the Members table's labels)
  *   layers         optional member layers of the drawing
  *   units          "m" | "mm" | "cm" | "in" | "ft" (coordinates; inline default "m")
  *   tolerance      optional, m: joint merging in the import, and how far an "at" or an EA end
@@ -23,23 +25,24 @@
  *   takeoff        optional: the app's roof loading (shared/schemas/run.schema.ts takeoffInputSchema)
  *                  with joints named by their job ids (a joint's id is its "id", else its tag);
  *                  it replaces the joint loads of the cases it writes
- *   design, deflection  optional member checks (command line only, scripts/job-design.ts)
+ *   design, deflection  optional: the Design tab's member design and deflection request, members
+ *                  and joints by end points (job-design.ts)
  *
  * Every bad value is one JobError sentence: exit 2 on the command line, 422 in the API.
  */
 import { z } from 'zod';
 import type { Combination, LoadCase, TrussModel } from '@shared/model/truss';
-import { loadCategorySchema } from '@shared/model/truss';
+import { loadCategorySchema, memberGroupSchema } from '@shared/model/truss';
 import { COMBINATION_SETS, CombinationError, combinationsBuild, type CombinationSetId } from '@shared/combinations';
 import { dxfImport, dxfParseBytes, tagOfIndex } from '@shared/dxf-import/index';
 import { takeoffInputSchema, type TakeoffInput } from '@shared/schemas/run.schema';
+import { withDesignStiffness } from '@shared/design/basis';
 import { AppError } from '../../errors/app-error';
 import { assertTakeoffCases, computeTakeoff, takeoffApply } from '../takeoff/takeoff-compute';
+import { JobError } from './job-error';
+import { jobDeflectionSchema, jobDesignInput, jobDesignOf, jobDesignSchema } from './job-design';
 
-/** Bad input in a job file: the message names the field or the item and what to do. */
-export class JobError extends Error {
-  readonly code = 'bad-job';
-}
+export { JobError } from './job-error';
 
 const point = z.tuple([z.number().finite(), z.number().finite()]);
 const name = z.string().min(1).max(40);
@@ -53,7 +56,16 @@ export const jobSchema = z
       .array(
         z.union([
           z.tuple([z.number().int().nonnegative(), z.number().int().nonnegative()]),
-          z.object({ joints: z.tuple([z.number().int().nonnegative(), z.number().int().nonnegative()]), tag: name.optional(), id: name.optional() }).strict(),
+          z
+            .object({
+              joints: z.tuple([z.number().int().nonnegative(), z.number().int().nonnegative()]),
+              tag: name.optional(),
+              id: name.optional(),
+              group: memberGroupSchema.optional(),
+              material: z.string().max(120).optional(),
+              section: z.string().max(120).optional(),
+            })
+            .strict(),
         ]),
       )
       .optional(),
@@ -91,9 +103,9 @@ export const jobSchema = z
       .default([]),
     /** The app's roof loading, checked by its own schema in jobModel. */
     takeoff: z.unknown().optional(),
-    /** Parsed and run by scripts/job-design.ts after the analysis. */
-    design: z.unknown().optional(),
-    deflection: z.unknown().optional(),
+    /** The member design and deflection request (job-design.ts), checked as the Design tab checks them. */
+    design: jobDesignSchema.optional(),
+    deflection: jobDeflectionSchema.optional(),
   })
   .strict();
 export type Job = z.infer<typeof jobSchema>;
@@ -166,7 +178,8 @@ function geometryOf(job: Job, readDrawing: ((relativePath: string) => Uint8Array
       if (i >= joints.length) throw new JobError(`Member ${k} refers to joint index ${i}, but there are only ${joints.length} joints (indices start at 0).`);
     }
     const tag = (!Array.isArray(m) && m.tag) || `${joints[a].tag}${joints[b].tag}`;
-    return { from: joints[a].id, to: joints[b].id, tag, id: (!Array.isArray(m) && m.id) || undefined };
+    const labels = Array.isArray(m) ? {} : { ...(m.group ? { group: m.group } : {}), ...(m.material ? { material: m.material } : {}), ...(m.section ? { section: m.section } : {}) };
+    return { from: joints[a].id, to: joints[b].id, tag, id: (!Array.isArray(m) && m.id) || undefined, labels };
   });
   let members: TrussModel['members'];
   if (explicit) {
@@ -175,19 +188,19 @@ function geometryOf(job: Job, readDrawing: ((relativePath: string) => Uint8Array
       const id = m.id ?? m.tag;
       if (ids.has(id)) throw new JobError(`Two members have the id "${id}" (the second is member ${k}); give each member its own id or tag.`);
       ids.add(id);
-      return { id, tag: m.tag, from: m.from, to: m.to };
+      return { id, tag: m.tag, from: m.from, to: m.to, ...m.labels };
     });
   } else members = uniqueTags(list);
   return { joints, members, tolerance: job.tolerance ?? JOB_DEFAULT_TOLERANCE };
 }
 
-function uniqueTags(list: { from: string; to: string; tag: string }[]): TrussModel['members'] {
+function uniqueTags(list: { from: string; to: string; tag: string; labels?: Pick<TrussModel['members'][number], 'group' | 'material' | 'section'> }[]): TrussModel['members'] {
   const seen = new Map<string, number>();
   return list.map((m) => {
     const n = (seen.get(m.tag) ?? 0) + 1;
     seen.set(m.tag, n);
     const tag = n === 1 ? m.tag : `${m.tag}-${n}`;
-    return { id: tag, tag, from: m.from, to: m.to };
+    return { id: tag, tag, from: m.from, to: m.to, ...m.labels };
   });
 }
 
@@ -336,12 +349,18 @@ export function jobModel(job: Job, readDrawing: ((relativePath: string) => Uint8
   });
   const loadCases = casesOf(job, joints, tolerance, f);
   const model: TrussModel = { joints, members, supports, loadCases, combinations: combinationsOf(job, loadCases) };
+  const design = jobDesignInput(job.design, job.deflection, model, (p, what) => jointAt(joints, p, tolerance, what));
+  if (design) model.design = design;
   return { model, takeoff: takeoffOf(job, model), tolerance };
 }
 
-/** The model a run solves: the job's model with the roof loading's joint loads put in. */
+/**
+ * The model a run solves, as the app's run snapshot makes it (runs.service.ts snapshotOf): the
+ * roof loading's joint loads put in, and members without a stiffness of their own given the
+ * E·A of their design section (withDesignStiffness).
+ */
 export function jobModelSolved(jm: JobModel): TrussModel {
-  return jm.takeoff ? takeoffApply(jm.model, computeTakeoff(jm.model, jm.takeoff)) : jm.model;
+  return withDesignStiffness(jm.takeoff ? takeoffApply(jm.model, computeTakeoff(jm.model, jm.takeoff)) : jm.model);
 }
 
 /** Effective axial stiffness of a member, kN (EA, else E·A), or null. */
@@ -350,10 +369,11 @@ export function memberEA(m: TrussModel['members'][number]): number | null {
 }
 
 /**
- * The job file of a saved model (the app's export). `stiffness` is the model the run would
- * solve (with design sections' stiffness), so the command line gives the run's forces.
+ * The job file of a saved model (the app's export): everything the model and its roof loading
+ * hold. "EA" is each member's own stiffness; a member without one takes its design section's,
+ * on the command line as in the app (jobModelSolved), so both solve the same model.
  */
-export function jobFileOf(model: TrussModel, takeoff: TakeoffInput | null, stiffness: TrussModel = model): Record<string, unknown> {
+export function jobFileOf(model: TrussModel, takeoff: TakeoffInput | null): Record<string, unknown> {
   const index = new Map(model.joints.map((j, i) => [j.id, i]));
   const at = new Map(model.joints.map((j) => [j.id, [j.x, j.y] as [number, number]]));
   // A tolerance below half the closest joint spacing, so no "at" can find the wrong joint.
@@ -365,8 +385,7 @@ export function jobFileOf(model: TrussModel, takeoff: TakeoffInput | null, stiff
     }
   }
   const tolerance = Math.min(JOB_DEFAULT_TOLERANCE, Number.isFinite(closest) ? closest / 4 : JOB_DEFAULT_TOLERANCE);
-  const eaOf = new Map(stiffness.members.map((m) => [m.id, memberEA(m)]));
-  const eas = model.members.map((m) => eaOf.get(m.id) ?? null);
+  const eas = model.members.map((m) => memberEA(m));
   const allSame = eas.length > 0 && eas.every((v) => v !== null && v === eas[0]);
   const EA = allSame
     ? eas[0]
@@ -375,12 +394,20 @@ export function jobFileOf(model: TrussModel, takeoff: TakeoffInput | null, stiff
     units: 'm',
     tolerance,
     joints: model.joints.map((j) => ({ id: j.id, tag: j.tag, at: [j.x, j.y] })),
-    members: model.members.map((m) => ({ id: m.id, tag: m.tag, joints: [index.get(m.from), index.get(m.to)] })),
+    members: model.members.map((m) => ({
+      id: m.id,
+      tag: m.tag,
+      joints: [index.get(m.from), index.get(m.to)],
+      ...(m.group ? { group: m.group } : {}),
+      ...(m.material ? { material: m.material } : {}),
+      ...(m.section ? { section: m.section } : {}),
+    })),
     supports: model.supports.map((s) => (s.kind === 'pin' ? { at: at.get(s.joint), type: 'pin' } : { at: at.get(s.joint), type: 'roller', angle: s.angleDeg })),
     cases: model.loadCases.map((c) => ({ id: c.id, name: c.name, category: c.category })),
     loads: model.loadCases.flatMap((c) => c.loads.map((l) => ({ at: at.get(l.joint), fx: l.fx, fy: l.fy, case: c.id, ...(l.note ? { note: l.note } : {}) }))),
     ...(Array.isArray(EA) ? (EA.length ? { EA } : {}) : { EA }),
     combinations: model.combinations.map((c) => ({ name: c.name, factors: c.factors, ...(c.clause ? { clause: c.clause } : {}) })),
     ...(takeoff ? { takeoff } : {}),
+    ...jobDesignOf(model),
   };
 }

@@ -1,14 +1,13 @@
 import type { TrussModel } from '@shared/model/truss';
 import { trussModelSchema } from '@shared/model/truss';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
-import { withDesignStiffness } from '@shared/design/basis';
 import { DxfImportError } from '@shared/dxf-import/index';
 import { SolverError } from '@shared/solver/errors';
 import { modelPrepare } from '@shared/solver/prepare';
 import { AppError, conflict } from '../../errors/app-error';
 import { TrussModelRecord } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
-import { assertDesign, getModel } from '../models/models.service';
+import { getModel, modelWithDesign } from '../models/models.service';
 import { takeoffParseStored } from '../takeoff/takeoff-compute';
 import { JobError, jobFileOf, jobModel, jobParse, memberEA } from './job-file';
 
@@ -37,7 +36,7 @@ export async function exportJobFile(trussId: number): Promise<{ json: string; fi
   const record = await recordOf(trussId);
   const model = JSON.parse(record.model) as TrussModel;
   const takeoff = takeoffParseStored(record.takeoff);
-  const job = jobFileOf(model, takeoff, withDesignStiffness(model));
+  const job = jobFileOf(model, takeoff);
   return { json: `${JSON.stringify(job, null, 1)}\n`, fileName: fileNameOf(truss.name, trussId) };
 }
 
@@ -80,19 +79,18 @@ const STIFFNESS_MATCH = 1e-12;
 
 /**
  * Imports a job file as the next version of a truss's model: supports, load cases and loads,
- * combinations (hand-written and from "combinationSet"), member stiffness and the roof loading
- * replace the saved ones; joints and members stay the truss's own (the job's must be at the same
- * places), and the member design is kept. One sentence (422) for the first problem; nothing is
- * written then.
+ * combinations (hand-written and from "combinationSet"), member stiffness and labels (group,
+ * material, section), the roof loading and the member design with its deflection request replace
+ * the saved ones — a file without "design" leaves the truss without one, as a file without loads
+ * leaves it without loads. Joints and members stay the truss's own (the job's must be at the same
+ * places). The design goes through the Design tab's own check (modelWithDesign), in the same
+ * transaction as the rest: one sentence (422) for the first problem, and nothing is written then.
  */
 export async function importJobFile(trussId: number, raw: unknown, userId: number): Promise<TrussModelView> {
   await getTruss(trussId);
   const sequelize = TrussModelRecord.sequelize!;
   try {
     const job = jobParse(raw, WHERE);
-    if (job.design !== undefined || job.deflection !== undefined) {
-      throw new JobError('"design" and "deflection" of a job file are read by the command line only; set the member design on the Design tab and remove those keys to import.');
-    }
     const jm = jobModel(job, null);
     await sequelize.transaction(async (transaction) => {
       const record = await TrussModelRecord.findByPk(trussId, { transaction });
@@ -100,26 +98,33 @@ export async function importJobFile(trussId: number, raw: unknown, userId: numbe
       const saved = JSON.parse(record.model) as TrussModel;
       const { joint, member } = geometryMatch(saved, jm.model, jm.tolerance);
       const jobMember = new Map(jm.model.members.map((m) => [member.get(m.id)!, m]));
-      const effective = new Map(withDesignStiffness(saved).members.map((m) => [m.id, memberEA(m)]));
       const members = saved.members.map((m) => {
-        const given = jobMember.get(m.id)!.EA ?? null;
-        const now = effective.get(m.id) ?? null;
-        if (given !== null && now !== null && Math.abs(given - now) <= STIFFNESS_MATCH * Math.abs(now)) return m;
-        const { E: _e, A: _a, EA: _ea, ...rest } = m;
-        void _e;
-        void _a;
-        void _ea;
-        return given === null ? rest : { ...rest, EA: given };
+        const from = jobMember.get(m.id)!;
+        const { E: _e, A: _a, EA: _ea, group: _g, material: _m, section: _s, ...bare } = m;
+        void [_e, _a, _ea, _g, _m, _s];
+        const labels = { ...(from.group ? { group: from.group } : {}), ...(from.material ? { material: from.material } : {}), ...(from.section ? { section: from.section } : {}) };
+        // The member's own stiffness: kept as E and A when the job's EA is their product, else the job's EA.
+        const given = from.EA ?? null;
+        const now = memberEA(m);
+        const own = given !== null && now !== null && Math.abs(given - now) <= STIFFNESS_MATCH * Math.abs(now) ? { ...(m.E !== undefined ? { E: m.E } : {}), ...(m.A !== undefined ? { A: m.A } : {}), ...(m.EA !== undefined ? { EA: m.EA } : {}) } : given === null ? {} : { EA: given };
+        return { ...bare, ...labels, ...own };
       });
       const j = (id: string) => joint.get(id)!;
-      const next: TrussModel = {
+      const plain: TrussModel = {
         joints: saved.joints,
         members,
         supports: jm.model.supports.map((s) => ({ ...s, joint: j(s.joint) })),
         loadCases: jm.model.loadCases.map((c) => ({ ...c, loads: c.loads.map((l) => ({ ...l, joint: j(l.joint) })) })),
         combinations: jm.model.combinations,
-        ...(saved.design ? { design: saved.design } : {}),
       };
+      const d = jm.model.design;
+      const design = d
+        ? {
+            ...d,
+            groups: d.groups.map((g) => ({ ...g, members: typeof g.members === 'string' ? g.members : g.members.map((id) => member.get(id)!) })),
+            ...(d.deflection ? { deflection: { ...d.deflection, joints: d.deflection.joints.map(j) } } : {}),
+          }
+        : null;
       const takeoff = jm.takeoff
         ? {
             ...jm.takeoff,
@@ -128,10 +133,11 @@ export async function importJobFile(trussId: number, raw: unknown, userId: numbe
           }
         : null;
       // The app's own checks of a model: its schema (bounds) and the solver's (supports, loads, ids).
-      const checked = trussModelSchema.safeParse(next);
+      const checked = trussModelSchema.safeParse(plain);
       if (!checked.success) throw new JobError(`In ${WHERE}: ${checked.error.issues[0].message.replace(/\.$/, '')}.`);
-      modelPrepare(next);
-      if (next.design) assertDesign(next, next.design);
+      modelPrepare(plain);
+      // The Design tab's own rule (PUT /api/trusses/:id/design): an AppError 422 that writes nothing.
+      const next = modelWithDesign(plain, design);
       const [updated] = await TrussModelRecord.update(
         { model: JSON.stringify(next), takeoff: takeoff ? JSON.stringify(takeoff) : null, version: record.version + 1, updatedById: userId },
         { where: { trussId, version: record.version }, transaction },

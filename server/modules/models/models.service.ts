@@ -170,6 +170,17 @@ export function assertDesign(model: TrussModel, design: NonNullable<DesignSaveIn
 }
 
 /**
+ * The model with its member design replaced (null removes it), checked by assertDesign: the one
+ * rule of the Design tab's save and of a job file's import.
+ */
+export function modelWithDesign(model: TrussModel, design: DesignSaveInput['design']): TrussModel {
+  if (design) assertDesign(model, design);
+  const { design: _old, ...rest } = model;
+  void _old;
+  return design ? { ...rest, design } : rest;
+}
+
+/**
  * Saves the member design (design basis, groups with material and section, deflection request)
  * as a new model version, with the same edit-conflict rule as the model save.
  */
@@ -185,11 +196,7 @@ export async function saveDesign(trussId: number, input: DesignSaveInput, userId
         `Someone else saved this model while you were editing (yours was version ${input.version}, it is now ${record.version}). Reload to see their changes, then make yours again.`,
       );
     }
-    const model = JSON.parse(record.model) as TrussModel;
-    if (input.design) assertDesign(model, input.design);
-    const { design: _old, ...rest } = model;
-    void _old;
-    const next: TrussModel = input.design ? { ...rest, design: input.design } : rest;
+    const next = modelWithDesign(JSON.parse(record.model) as TrussModel, input.design);
     const [updated] = await TrussModelRecord.update(
       { model: JSON.stringify(next), version: record.version + 1, updatedById: userId },
       { where: { trussId, version: input.version }, transaction },
