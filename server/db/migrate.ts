@@ -9,6 +9,7 @@ import * as m0006 from './migrations/0006-signin-limits';
 import * as m0007 from './migrations/0007-signing-keys-and-record-guards';
 import * as m0008 from './migrations/0008-import-limits';
 import * as m0011 from './migrations/0011-print-jobs';
+import * as m0014 from './migrations/0014-run-numbers';
 import * as m0015 from './migrations/0015-email-settings';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
@@ -22,6 +23,7 @@ const MIGRATIONS = [
   { name: '0007-signing-keys-and-record-guards', ...m0007 },
   { name: '0008-import-limits', ...m0008 },
   { name: '0011-print-jobs', ...m0011 },
+  { name: '0014-run-numbers', ...m0014 },
   { name: '0015-email-settings', ...m0015 },
 ];
 

@@ -53,7 +53,7 @@ describe('calc sheet of an analysis run', () => {
     expect(res.headers['content-type']).toMatch(/text\/html/);
     expect(res.text).toMatch(/reviewed by a licensed/i);
     expect(res.text).toContain('HV-2417');
-    expect(res.text).toContain(`Run ${run.id}`);
+    expect(res.text).toContain(`Run ${run.number}`);
   });
 
   it('when the PDF is downloaded, then its text carries the hand-computed reactions and chord forces', async () => {

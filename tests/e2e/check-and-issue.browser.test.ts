@@ -115,8 +115,8 @@ async function runAnalysis(page: Page): Promise<number> {
     page.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/trusses\/\d+\/runs$/.test(r.url())),
     page.getByRole('button', { name: 'Run analysis' }).click(),
   ]);
-  const { id } = (await response.json()) as { id: number };
-  const row = page.locator('tr', { has: page.getByRole('button', { name: `Run ${id}`, exact: true }) });
+  const { id, number } = (await response.json()) as { id: number; number: number };
+  const row = page.locator('tr', { has: page.getByRole('button', { name: `Run ${number}`, exact: true }) });
   await row.getByText('Solved', { exact: true }).waitFor({ timeout: 30_000 });
   await page.getByText('Stable and statically determinate.').waitFor({ timeout: 15_000 });
   return id;

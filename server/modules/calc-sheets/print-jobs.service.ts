@@ -239,7 +239,7 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
         pages,
         pdfBytes: pdf.length,
         fileKey,
-        fileName: draftFileName(base.project.jobNumber, Number(job.runId)),
+        fileName: await draftFileName(base.project.jobNumber, Number(job.runId)),
         finishedAt: now(),
       });
     } catch (err) {

@@ -48,7 +48,7 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
       return { analysis: analysis as TrussAnalysis, design: design ?? null };
     })(),
     takeoffSteps: takeoff?.result?.steps,
-    runLabel: `Run ${run.id}${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
+    runLabel: `Run ${run.number}${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
   };
 }
 
@@ -56,9 +56,10 @@ export function draftInput(base: RunSheetInput, now: Date): CalcSheetInput {
   return { ...base, revision: 'draft', generatedAt: now };
 }
 
-/** The download name of a run's draft PDF. */
-export function draftFileName(jobNumber: string, runId: number): string {
-  return `${jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-');
+/** The download name of a run's draft PDF, with the run's number within its truss. */
+export async function draftFileName(jobNumber: string, runId: number): Promise<string> {
+  const runNumber = (await runsRepo.findRun(runId))?.number ?? runId;
+  return `${jobNumber}-run-${runNumber}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-');
 }
 
 /**
@@ -86,5 +87,5 @@ export async function runSheetPdf(
   } else {
     bytes = await renderCalcSheetPdf(draftInput(base, now), printer, request);
   }
-  return { bytes, fileName: draftFileName(base.project.jobNumber, runId) };
+  return { bytes, fileName: await draftFileName(base.project.jobNumber, runId) };
 }

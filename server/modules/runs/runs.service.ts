@@ -25,6 +25,7 @@ function summaryView(row: RunRow, currentVersion: number | null): RunSummaryView
   return {
     id: row.id,
     trussId: row.trussId,
+    number: row.number,
     modelVersion: row.modelVersion,
     stale: currentVersion !== null && currentVersion > row.modelVersion,
     status: row.status,
@@ -249,14 +250,14 @@ async function solvedRunOr409(runId: number, table: string): Promise<RunRow & { 
 export async function getForcesCsv(runId: number): Promise<{ csv: string; fileName: string }> {
   const row = await solvedRunOr409(runId, 'member force table');
   const csv = forcesCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
-  return { csv, fileName: `truss-${row.trussId}-run-${row.id}-member-forces.csv` };
+  return { csv, fileName: `truss-${row.trussId}-run-${row.number}-member-forces.csv` };
 }
 
 /** The support reactions of a solved run (cases, combinations, envelope) as CSV, with a file name. */
 export async function getReactionsCsv(runId: number): Promise<{ csv: string; fileName: string }> {
   const row = await solvedRunOr409(runId, 'reaction table');
   const csv = reactionsCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
-  return { csv, fileName: `truss-${row.trussId}-run-${row.id}-reactions.csv` };
+  return { csv, fileName: `truss-${row.trussId}-run-${row.number}-reactions.csv` };
 }
 
 /**

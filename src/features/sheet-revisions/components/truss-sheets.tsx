@@ -88,7 +88,7 @@ function NewRevision({ trussId }: { trussId: number }) {
     <div className="flex flex-col items-end gap-1">
       <div className="flex items-center gap-3">
         <span className="text-xs text-ink-soft">
-          Run {run.id}, {formatDateTime(run.finishedAt ?? run.createdAt)}
+          Run {run.number}, {formatDateTime(run.finishedAt ?? run.createdAt)}
           {run.stale && <span className="text-danger"> · the model changed since</span>}
         </span>
         <Button

@@ -49,7 +49,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
   const r = run.data;
 
   return (
-    <section aria-label={`Run ${r.id}`} className="flex flex-col gap-4">
+    <section aria-label={`Run ${r.number}`} className="flex flex-col gap-4">
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h2 className="text-lg font-semibold text-ink">

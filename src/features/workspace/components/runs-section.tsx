@@ -97,7 +97,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                     <tr key={r.id} className={`border-b border-paper-line/70 ${active ? 'bg-accent-soft/50' : 'hover:bg-paper'}`}>
                       <td className="px-2 py-1.5">
                         <button type="button" className="figures font-medium text-accent hover:underline" aria-current={active || undefined} onClick={() => select(r.id)}>
-                          Run {r.id}
+                          Run {r.number}
                         </button>
                       </td>
                       <td className="px-2 py-1.5">
