@@ -27,12 +27,19 @@ const MIGRATIONS = [
   { name: '0015-email-settings', ...m0015 },
 ];
 
-export async function migrate(sequelize: Sequelize): Promise<void> {
+/** The migrations' names, in the order they run. */
+export const MIGRATION_NAMES: readonly string[] = MIGRATIONS.map((m) => m.name);
+
+/**
+ * Runs the migrations not yet run. `to` stops after the named one (tests build a database as an
+ * older release left it, then run the rest).
+ */
+export async function migrate(sequelize: Sequelize, options: { to?: string } = {}): Promise<void> {
   const umzug = new Umzug({
     migrations: MIGRATIONS.map(({ name, up, down }) => ({ name, up, down })),
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize }),
     logger: undefined,
   });
-  await umzug.up();
+  await umzug.up(options.to ? { to: options.to } : {});
 }

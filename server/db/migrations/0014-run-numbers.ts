@@ -29,19 +29,22 @@ export async function up({ context: qi }: { context: QueryInterface }) {
   }
   await qi.addColumn('analysis_runs', 'number', { type: DataTypes.INTEGER, allowNull: true });
 
-  const rows = (await qi.select(null, 'analysis_runs', { attributes: ['id', 'trussId'], order: [['id', 'ASC']] } as Parameters<QueryInterface['select']>[2])) as unknown as { id: number; trussId: number }[];
-  if (rows.length) {
-    if (dialect === 'sqlite') await qi.sequelize.query('DROP TRIGGER IF EXISTS analysis_runs_frozen_update');
-    else await qi.sequelize.query('ALTER TABLE analysis_runs DISABLE TRIGGER pp_analysis_runs_guard');
-    const next = new Map<number, number>();
-    for (const r of rows) {
-      const n = (next.get(r.trussId) ?? 0) + 1;
-      next.set(r.trussId, n);
-      await qi.bulkUpdate('analysis_runs', { number: n }, { id: r.id });
-    }
-    if (dialect === 'sqlite') await qi.sequelize.query(SQLITE_RUN_UPDATE_GUARD);
-    else await qi.sequelize.query('ALTER TABLE analysis_runs ENABLE TRIGGER pp_analysis_runs_guard');
-  }
+  // One transaction (DDL is transactional on both SQLite and PostgreSQL): if the backfill fails,
+  // the guard is not left set aside. One UPDATE numbers every row: its count of the rows of its
+  // truss with an id up to its own (the (trussId, id) index of 0003 serves the count).
+  await qi.sequelize.transaction(async (transaction) => {
+    const [found] = (await qi.sequelize.query('SELECT COUNT(*) AS n FROM analysis_runs', { transaction })) as [{ n: number | string }[], unknown];
+    if (Number(found[0]?.n ?? 0) === 0) return;
+    if (dialect === 'sqlite') await qi.sequelize.query('DROP TRIGGER IF EXISTS analysis_runs_frozen_update', { transaction });
+    else await qi.sequelize.query('ALTER TABLE analysis_runs DISABLE TRIGGER pp_analysis_runs_guard', { transaction });
+    await qi.sequelize.query(
+      `UPDATE analysis_runs SET number = (
+         SELECT COUNT(*) FROM analysis_runs r WHERE r."trussId" = analysis_runs."trussId" AND r.id <= analysis_runs.id)`,
+      { transaction },
+    );
+    if (dialect === 'sqlite') await qi.sequelize.query(SQLITE_RUN_UPDATE_GUARD, { transaction });
+    else await qi.sequelize.query('ALTER TABLE analysis_runs ENABLE TRIGGER pp_analysis_runs_guard', { transaction });
+  });
   await qi.addIndex('analysis_runs', ['trussId', 'number'], { unique: true, name: 'analysis_runs_truss_number' });
 }
 
