@@ -66,7 +66,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await expect.poll(() => use.isEnabled(), { timeout: 10_000 }).toBe(true);
     await use.click();
     await page.getByText('Model saved.').waitFor({ timeout: 15_000 });
-    expect(await page.getByText('Version 2').isVisible()).toBe(true);
+    expect(await page.getByText('Model save 2').isVisible()).toBe(true);
     expect(preview?.input.trussIndex).toBe(1);
   }, 90_000);
 
@@ -131,7 +131,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByRole('radio', { name: 'None' }).click();
     await page.getByRole('button', { name: 'Done' }).click();
     await page.getByRole('button', { name: 'Save model' }).click();
-    await page.getByText('Version 3').waitFor({ timeout: 15_000 });
+    await page.getByText('Model save 3').waitFor({ timeout: 15_000 });
 
     await page.getByRole('tab', { name: 'Runs & results' }).click();
     await page.getByRole('button', { name: 'Run analysis' }).click();

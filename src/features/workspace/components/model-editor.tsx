@@ -232,7 +232,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
     <form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Model and loads">
       <div className="sticky top-0 z-20 -mx-1 flex flex-wrap items-center justify-between gap-3 border-b border-paper-line bg-paper/95 px-1 py-2 backdrop-blur">
         <p className="text-xs text-ink-soft">
-          <span className="figures">Version {baseVersion}</span>
+          <span className="figures">Model save {baseVersion}</span>
           {view.updatedBy && ` · saved by ${view.updatedBy}, ${formatDateTime(view.updatedAt)}`}
           {!mayEdit && ' · read only: engineers change supports and loads'}
         </p>
@@ -255,13 +255,13 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           <p className="font-semibold text-ink">Not saved: someone else saved this model while you were editing.</p>
           <p className="mt-1 text-ink-soft">
             {conflict.theirs
-              ? `${conflict.theirs.updatedBy || 'Someone'} saved version ${conflict.theirs.version} at ${formatDateTime(conflict.theirs.updatedAt)}.`
+              ? `${conflict.theirs.updatedBy || 'Someone'} saved model save ${conflict.theirs.version} at ${formatDateTime(conflict.theirs.updatedAt)}.`
               : conflict.message}{' '}
-            Your edits are still here, unsaved. Load their version to see their changes (yours are dropped), or save yours over theirs.
+            Your edits are still here, unsaved. Load their save to see their changes (yours are dropped), or save yours over theirs.
           </p>
           <div className="mt-2 flex gap-2">
             <Button size="sm" onClick={() => conflict.theirs && loadView(conflict.theirs)} disabled={!conflict.theirs}>
-              Load their version
+              Load their save
             </Button>
             <Button
               size="sm"
