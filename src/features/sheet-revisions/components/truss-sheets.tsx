@@ -97,7 +97,7 @@ function NewRevision({ trussId }: { trussId: number }) {
           busy={create.isPending}
           onClick={() => create.mutate({ trussId, input: { runId: run.id } }, { onSuccess: (sheet) => navigate(`/sheets/${sheet.id}`) })}
         >
-          New revision from run {run.id}
+          New revision from Run {run.number}
         </Button>
       </div>
       {create.isError && <FormError message={errorMessage(create.error)} />}
