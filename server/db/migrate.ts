@@ -9,6 +9,7 @@ import * as m0006 from './migrations/0006-signin-limits';
 import * as m0007 from './migrations/0007-signing-keys-and-record-guards';
 import * as m0008 from './migrations/0008-import-limits';
 import * as m0011 from './migrations/0011-print-jobs';
+import * as m0014 from './migrations/0014-run-numbers';
 import * as m0015 from './migrations/0015-email-settings';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
@@ -22,15 +23,23 @@ const MIGRATIONS = [
   { name: '0007-signing-keys-and-record-guards', ...m0007 },
   { name: '0008-import-limits', ...m0008 },
   { name: '0011-print-jobs', ...m0011 },
+  { name: '0014-run-numbers', ...m0014 },
   { name: '0015-email-settings', ...m0015 },
 ];
 
-export async function migrate(sequelize: Sequelize): Promise<void> {
+/** The migrations' names, in the order they run. */
+export const MIGRATION_NAMES: readonly string[] = MIGRATIONS.map((m) => m.name);
+
+/**
+ * Runs the migrations not yet run. `to` stops after the named one (tests build a database as an
+ * older release left it, then run the rest).
+ */
+export async function migrate(sequelize: Sequelize, options: { to?: string } = {}): Promise<void> {
   const umzug = new Umzug({
     migrations: MIGRATIONS.map(({ name, up, down }) => ({ name, up, down })),
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize }),
     logger: undefined,
   });
-  await umzug.up();
+  await umzug.up(options.to ? { to: options.to } : {});
 }

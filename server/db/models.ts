@@ -412,6 +412,8 @@ function initSheetModels(sequelize: Sequelize): void {
 export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreationAttributes<AnalysisRun>> {
   declare id: CreationOptional<number>;
   declare trussId: number;
+  /** 1, 2, … within the truss (0014). */
+  declare number: number;
   declare modelVersion: number;
   declare status: 'queued' | 'running' | 'solved' | 'unstable' | 'failed';
   /** JSON texts: RunProgress, TrussModel, { input, result } of the takeoff, TrussAnalysis, summary, error. */
@@ -433,6 +435,7 @@ function initRunModels(sequelize: Sequelize): void {
     {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       trussId: { type: DataTypes.INTEGER, allowNull: false },
+      number: { type: DataTypes.INTEGER, allowNull: false },
       modelVersion: { type: DataTypes.INTEGER, allowNull: false },
       status: { type: DataTypes.STRING(16), allowNull: false },
       progress: { type: DataTypes.TEXT, allowNull: false },

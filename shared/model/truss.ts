@@ -77,6 +77,12 @@ export const loadCaseSchema = z.object({
   name: z.string().min(1).max(120),
   category: loadCategorySchema,
   loads: z.array(jointLoadSchema),
+  /**
+   * 'roof-loading': the case's loads were written by the roof takeoff ("Use these loads") and are
+   * read-only until detached (shared/model/roof-loads.ts). Absent: loads entered by hand (every
+   * model saved before this field existed).
+   */
+  source: z.literal('roof-loading', { error: "A load case's source is 'roof-loading' or left out." }).optional(),
 });
 export type LoadCase = z.infer<typeof loadCaseSchema>;
 

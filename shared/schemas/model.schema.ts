@@ -28,3 +28,10 @@ export const designSaveSchema = z.object({
   design: designInputSchema.nullable(),
 });
 export type DesignSaveInput = z.infer<typeof designSaveSchema>;
+
+/** Body of POST /api/trusses/:id/model/detach-loads: the model save edited and the case whose roof-takeoff loads become hand loads. */
+export const detachLoadsSchema = z.object({
+  version: z.number({ error: 'Send the model save you edited as a number.' }).int().positive(),
+  caseId: z.string({ error: 'Name the load case to detach.' }).min(1, { error: 'Name the load case to detach.' }).max(40),
+});
+export type DetachLoadsInput = z.infer<typeof detachLoadsSchema>;

@@ -167,8 +167,11 @@ export interface RunProgress {
 
 /** A run in a list: no results, enough to show status and staleness. */
 export interface RunSummaryView {
+  /** The row id, for addresses (/api/runs/:id); not shown to people. */
   id: number;
   trussId: number;
+  /** 1, 2, … within the truss: what people see and cite ("Run 2 of T7"). */
+  number: number;
   /** Model version the snapshot was taken from. */
   modelVersion: number;
   /** True when the model has been saved since this run (its results no longer match the model). */

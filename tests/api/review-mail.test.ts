@@ -112,6 +112,10 @@ describe('review e-mails people act on', () => {
     expect(new URL(link).host).toBe(new URL(PUBLIC_URL).host);
     expect(link).toBe(`${PUBLIC_URL}/sheets/${sheetId}`);
     expect(mails[0].text).not.toContain('localhost');
+    // The run is cited by its number within the truss and the model save it solved, as the app and the sheet cite it.
+    const truss = (await engineer.agent.get('/api/trusses/1').expect(200)).body as { name: string };
+    const run = (await engineer.agent.get(`/api/runs/${runId}`).expect(200)).body as { number: number; modelVersion: number };
+    expect(mails[0].text).toContain(`The sheet is made from Run ${run.number} of ${truss.name} (model save ${run.modelVersion}).`);
   });
 
   it('when seven comments are open and the sheet is returned, then the mail quotes the first five in sheet order with their step numbers and counts the other two', async () => {

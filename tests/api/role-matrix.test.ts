@@ -46,6 +46,7 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/drawings/:id/file': ALL,
   'GET /api/trusses/:id/model': ALL,
   'PUT /api/trusses/:id/model': ['engineer'],
+  'POST /api/trusses/:id/model/detach-loads': ['engineer'],
   'PUT /api/trusses/:id/design': ['engineer'],
   'GET /api/trusses/:id/sheets': ALL,
   'POST /api/trusses/:id/sheets': ['engineer'],

@@ -53,8 +53,20 @@ describe('calc sheet of an analysis run', () => {
     expect(res.headers['content-type']).toMatch(/text\/html/);
     expect(res.text).toMatch(/reviewed by a licensed/i);
     expect(res.text).toContain('HV-2417');
-    expect(res.text).toContain(`Run ${run.id}`);
+    // Cited as the app and the e-mails cite it: the number within the truss, the truss, the model save.
+    const truss = (await reviewer.agent.get('/api/trusses/1').expect(200)).body as { name: string };
+    expect(res.text).toContain(`Run ${run.number} of ${truss.name} (model save ${run.modelVersion})`);
+    expect(res.text).not.toContain(`run Run ${run.number}`);
   });
+
+  it('when the draft PDF is downloaded, then its file name carries the job, the truss and the run number within the truss', async () => {
+    const truss = (await reviewer.agent.get('/api/trusses/1').expect(200)).body as { name: string; projectId: number };
+    const project = (await reviewer.agent.get(`/api/projects/${truss.projectId}`).expect(200)).body as { jobNumber: string };
+    const res = await binary(reviewer.agent.get(`/api/runs/${run.id}/sheet.pdf`));
+    expect(res.status).toBe(200);
+    const part = (t: string) => t.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '');
+    expect(res.headers['content-disposition']).toContain(`${part(project.jobNumber)}-${part(truss.name)}-run-${run.number}-calc-sheet-draft.pdf`);
+  }, 60_000);
 
   it('when the PDF is downloaded, then its text carries the hand-computed reactions and chord forces', async () => {
     const res = await binary(reviewer.agent.get(`/api/runs/${run.id}/sheet.pdf`));

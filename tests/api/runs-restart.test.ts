@@ -20,6 +20,7 @@ describe('runs interrupted by a server stop', () => {
     const first = await startServices(config(), { log: () => {} });
     const stuck = await AnalysisRun.create({
       trussId: 1,
+      number: (await AnalysisRun.count({ where: { trussId: 1 } })) + 1,
       modelVersion: 1,
       status: 'running',
       progress: JSON.stringify({ phase: 'solving', fraction: 0.1 }),

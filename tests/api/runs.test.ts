@@ -159,7 +159,7 @@ describe('analysis runs', () => {
   it('when the member forces are downloaded, then the CSV has every case, combination and envelope row, quoted where needed', async () => {
     const res = await reviewer.agent.get(`/api/runs/${solved.id}/forces.csv`).expect(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
-    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?truss-\d+-run-\d+-member-forces\.csv"?$/);
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?T7-runs-test-truss-run-\d+-member-forces\.csv"?$/);
     const lines = res.text.split('\r\n');
     expect(lines.at(-1)).toBe('');
     expect(lines[0]).toBe(FORCES_CSV_COLUMNS.join(','));
@@ -205,7 +205,7 @@ describe('analysis runs', () => {
     expect(run.status).toBe('solved');
     const res = await reviewer.agent.get(`/api/runs/${run.id}/reactions.csv`).expect(200);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
-    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?truss-\d+-run-\d+-reactions\.csv"?$/);
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?T7-runs-test-truss-run-\d+-reactions\.csv"?$/);
     const lines = res.text.split('\r\n');
     expect(lines[0]).toBe(REACTIONS_CSV_COLUMNS.join(','));
     const [L, R] = [tagOf[J.L], tagOf[J.R]];
@@ -256,7 +256,7 @@ describe('analysis runs', () => {
     expect(csv.body.error.message).toMatch(/unstable/);
     const reactions = await engineer.agent.get(`/api/runs/${run.id}/reactions.csv`);
     expect(reactions.status).toBe(409);
-    expect(reactions.body.error).toMatchObject({ code: 'run-not-solved', message: `Run ${run.id} has no reaction table: the truss is unstable, so it has no reactions. Open the run to see its status.` });
+    expect(reactions.body.error).toMatchObject({ code: 'run-not-solved', message: `Run ${run.number} of T7 — runs test truss has no reaction table: the truss is unstable, so it has no reactions. Open the run to see its status.` });
   });
 
   it('when the truss is indeterminate and a member has no EA, then the run fails with the solver message', async () => {
@@ -343,31 +343,122 @@ describe('roof takeoff', () => {
     expect(res.body.result.cases[0].q).toBeCloseTo((20 * 4.4482216152605) / (0.3048 * 0.3048) / 1000, 12);
   });
 
-  it('when the takeoff is saved and the truss is run, then the server recomputes the takeoff loads and ignores the saved case loads', async () => {
-    const saved = await saveModel({
-      // Stale numbers a client might have left in the case: the run must replace them.
-      loadCases: [deadCase(), snowCase([{ joint: J.M, fx: 0, fy: -999 }])],
-      takeoff: takeoff({ method: 'exact' }),
-    });
+  /** The takeoff's loads for the snow case as the preview gives them ("Use these loads" sends exactly these). */
+  async function takeoffSnowLoads(t: TakeoffInput = takeoff({ method: 'exact' })) {
+    const res = await preview(t);
+    expect(res.status).toBe(200);
+    return res.body.result.caseLoads.S as LoadCase['loads'];
+  }
+  const markedSnow = (loads: LoadCase['loads']): LoadCase => ({ ...snowCase(loads), source: 'roof-loading' });
+  const modelRow = async () => {
+    const row = (await TrussModelRecord.findByPk(trussId))!;
+    return { version: row.version, model: row.model, takeoff: row.takeoff };
+  };
+
+  it('when the takeoff is saved but its case holds loads entered by hand, then the run solves exactly the loads the table shows', async () => {
+    // Issue 15: a run used to overwrite such a case with the takeoff's loads (−99 kN shown, −10.27 kN used).
+    const saved = await saveModel({ loadCases: [deadCase(), snowCase([{ joint: J.M, fx: 0, fy: -99 }])], takeoff: takeoff({ method: 'exact' }) });
     expect(saved.status).toBe(200);
-    expect(saved.body.takeoff).toMatchObject({ trussIndex: 1, method: 'exact' });
+    const run = await runToEnd();
+    expect(run.status).toBe('solved');
+    expect(run.usedTakeoff).toBe(false);
+    expect(run.model.loadCases.find((c) => c.id === 'S')!.loads).toEqual([{ joint: J.M, fx: 0, fy: -99 }]);
+    // 99 kN down at M: as the 10 kN dead case above, scaled (method of joints at M: F_MT = P).
+    expect(run.analysis!.cases.find((c) => c.caseId === 'S')!.forces[MB.MT.id]).toBeCloseTo(99, 9);
+  });
+
+  it('when "Use these loads" saves the takeoff\'s loads marked as from the roof takeoff, then the run solves them and prints the takeoff', async () => {
+    const loads = await takeoffSnowLoads();
+    const saved = await saveModel({ loadCases: [deadCase(), markedSnow(loads)], takeoff: takeoff({ method: 'exact' }) });
+    expect(saved.status).toBe(200);
+    expect(saved.body.model.loadCases.find((c: LoadCase) => c.id === 'S').source).toBe('roof-loading');
     const run = await runToEnd();
     expect(run.status).toBe('solved');
     expect(run.usedTakeoff).toBe(true);
-    expect(run.takeoff!.input.trussCount).toBe(6);
     const snow = run.model.loadCases.find((c) => c.id === 'S')!;
+    expect(snow.loads).toEqual(loads);
     expect(snow.loads.map((l) => l.joint).sort()).toEqual([J.L, J.T, J.R].sort());
-    expect(snow.loads.some((l) => l.fy === -999)).toBe(false);
     // Apex load P = (43/38) × 4 kN/m × 4.5 m (Hicks, Table 2.1, as above). Eave loads go straight
     // into the supports, so by the method of sections about T: F_LM = (P/2)·4/3 = 2P/3 (T).
     const P = (43 / 38) * 4 * 4.5;
-    const caseS = run.analysis!.cases.find((c) => c.caseId === 'S')!;
-    expect(caseS.forces[MB.LM.id]).toBeCloseTo((2 * P) / 3, 9);
-    // The dead case is untouched by the takeoff.
+    expect(run.analysis!.cases.find((c) => c.caseId === 'S')!.forces[MB.LM.id]).toBeCloseTo((2 * P) / 3, 9);
     expect(run.analysis!.cases.find((c) => c.caseId === 'D')!.forces[MB.MT.id]).toBeCloseTo(10, 9);
-    // The working model keeps what the engineer saved.
-    expect((await currentModel()).model.loadCases.find((c) => c.id === 'S')!.loads[0].fy).toBe(-999);
   });
+
+  it('when a save changes, unmarks or invents a roof-takeoff load, then 422 with one sentence and nothing is written', async () => {
+    const loads = await takeoffSnowLoads();
+    const edited = loads.map((l) => (l.joint === J.T ? { ...l, fy: -99 } : l));
+    const cases: [string, Record<string, unknown>, string][] = [
+      ['an edited load', { loadCases: [deadCase(), markedSnow(edited)] }, 'roof-loads-edited'],
+      ['an added load', { loadCases: [deadCase(), markedSnow([...loads, { joint: J.M, fx: 0, fy: -1 }])] }, 'roof-loads-edited'],
+      ['the mark dropped without detaching', { loadCases: [deadCase(), snowCase(edited)] }, 'roof-loads-detach-first'],
+      ['a marked case the takeoff does not write', { loadCases: [{ ...deadCase(), source: 'roof-loading' }, markedSnow(loads)] }, 'roof-loads-without-takeoff'],
+    ];
+    for (const [what, body, code] of cases) {
+      const before = await modelRow();
+      const res = await saveModel(body);
+      expect(res.status, what).toBe(422);
+      expect(res.body.error.code, what).toBe(code);
+      expect(res.body.error.message, what).toMatch(/[Ll]oad case "(S|D)"/);
+      expect(res.body.error.message.split(/\.\s/), what).toHaveLength(1);
+      expect(await modelRow(), what).toEqual(before);
+    }
+  });
+
+  it('when the engineer detaches the roof-takeoff case, then its loads stay, are no longer marked, and can be edited by hand', async () => {
+    const before = await currentModel();
+    const loads = before.model.loadCases.find((c) => c.id === 'S')!.loads;
+    const res = await post(engineer, `/api/trusses/${trussId}/model/detach-loads`, { version: before.version, caseId: 'S' });
+    expect(res.status).toBe(200);
+    expect(res.body.version).toBe(before.version + 1);
+    const snow = (res.body as TrussModelView).model.loadCases.find((c) => c.id === 'S')!;
+    expect(snow.source).toBeUndefined();
+    expect(snow.loads).toEqual(loads);
+    const edited = await saveModel({ loadCases: [deadCase(), snowCase([{ joint: J.T, fx: 0, fy: -99 }])] });
+    expect(edited.status).toBe(200);
+    const run = await runToEnd();
+    expect(run.model.loadCases.find((c) => c.id === 'S')!.loads).toEqual([{ joint: J.T, fx: 0, fy: -99 }]);
+  });
+
+  it('when a detach names a case that is not from the takeoff, a missing case, an old model save or a drafter, then it is refused with one sentence and nothing is written', async () => {
+    const { version } = await currentModel();
+    const cases: [Tab, object, number, string][] = [
+      [engineer, { version, caseId: 'S' }, 422, 'not-from-roof-loading'],
+      [engineer, { version, caseId: 'nowhere' }, 422, 'unknown-load-case'],
+      [engineer, { version: version - 1, caseId: 'S' }, 409, 'edit-conflict'],
+      [engineer, { version: 'x', caseId: 'S' }, 400, 'validation-failed'],
+      [drafter, { version, caseId: 'S' }, 403, 'forbidden'],
+    ];
+    for (const [tab, body, status, code] of cases) {
+      const before = await modelRow();
+      const res = await post(tab, `/api/trusses/${trussId}/model/detach-loads`, body);
+      expect(res.status, JSON.stringify(body)).toBe(status);
+      expect(res.body.error.code, JSON.stringify(body)).toBe(code);
+      expect(await modelRow()).toEqual(before);
+    }
+  });
+
+  it('when the current model save is the one an issued sheet revision was made from, then detaching is refused 409 with one sentence and nothing is written', async () => {
+    const loads = await takeoffSnowLoads();
+    expect((await saveModel({ loadCases: [deadCase(), markedSnow(loads)], takeoff: takeoff({ method: 'exact' }) })).status).toBe(200);
+    const run = await runToEnd();
+    expect(run.status).toBe('solved');
+    const sheet = (await post(engineer, `/api/trusses/${trussId}/sheets`, { runId: run.id })).body as { id: number; number: number };
+    await post(engineer, `/api/sheets/${sheet.id}/submit`).expect(200);
+    await post(reviewer, `/api/sheets/${sheet.id}/check`).expect(200);
+    expect((await post(engineer, `/api/sheets/${sheet.id}/issue`)).status).toBe(200);
+    const before = await modelRow();
+    const res = await post(engineer, `/api/trusses/${trussId}/model/detach-loads`, { version: before.version, caseId: 'S' });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('model-issued');
+    expect(res.body.error.message).toMatch(new RegExp(`^Model save ${before.version} is the one issued sheet revision [A-Z]+ was made from`));
+    expect(res.body.error.message.split(/\.\s/)).toHaveLength(1);
+    expect(await modelRow()).toEqual(before);
+    // Removing the takeoff is allowed and leaves its cases as hand loads (the later tests start from these).
+    const removed = await saveModel({ loadCases: [deadCase(), snowCase(loads)], takeoff: null });
+    expect(removed.status).toBe(200);
+    expect(removed.body.model.loadCases.find((c: LoadCase) => c.id === 'S').source).toBeUndefined();
+  }, 90_000);
 
   const refusals: [string, Partial<TakeoffInput> | ((t: TakeoffInput) => unknown), string, RegExp][] = [
     ['a negative truss spacing', { spacing: -4.5 }, 'validation-failed', /spacing: The truss spacing must be greater than 0 m/],

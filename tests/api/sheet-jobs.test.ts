@@ -37,6 +37,7 @@ async function runOf(panels: number, cases: string[]): Promise<number> {
   const model = modelFromSketch(sketch);
   const row = await AnalysisRun.create({
     trussId: 1,
+    number: (await AnalysisRun.count({ where: { trussId: 1 } })) + 1,
     modelVersion: 1,
     status: 'solved',
     progress: JSON.stringify({ phase: 'done', fraction: 1 }),
@@ -179,7 +180,7 @@ describe('calc sheet print jobs (real Chromium, SQLite file)', () => {
     const missing = await engineer.agent.post('/api/runs/999999/sheet-jobs').set('X-CSRF-Token', engineer.csrf).expect(404);
     expect(missing.body.error.message).toMatch(/not found/);
     const queued = await AnalysisRun.create({
-      trussId: 1, modelVersion: 1, status: 'queued', progress: '{}', model: '{}', takeoff: null, analysis: null, summary: null, error: null, ranById: null, startedAt: null, finishedAt: null,
+      trussId: 1, number: (await AnalysisRun.count({ where: { trussId: 1 } })) + 1, modelVersion: 1, status: 'queued', progress: '{}', model: '{}', takeoff: null, analysis: null, summary: null, error: null, ranById: null, startedAt: null, finishedAt: null,
     });
     const notYet = await engineer.agent.post(`/api/runs/${queued.id}/sheet-jobs`).set('X-CSRF-Token', engineer.csrf).expect(409);
     expect(notYet.body.error.message).toMatch(/still waiting to be solved/);

@@ -112,7 +112,10 @@ describe('roof takeoff: wind normal to the slopes', () => {
   });
 
   it('when wind and pattern-loaded snow are saved and the truss is run, then the run uses both, and the wind case has sideways loads', async () => {
-    const saved = await save(takeoff({ areaLoads: [{ caseId: 'S', q: 1, unit: 'kPa', basis: 'plan', patterns: true }], trussIndex: 0 }));
+    const input = takeoff({ areaLoads: [{ caseId: 'S', q: 1, unit: 'kPa', basis: 'plan', patterns: true }], trussIndex: 0 });
+    // As "Use these loads" does: the preview's loads go into their cases, marked as from the roof takeoff (a run solves the saved loads).
+    const computed = (await preview(input)).body.result.caseLoads as Record<string, LoadCase['loads']>;
+    const saved = await save(input, cases.map((c) => (computed[c.id] ? { ...c, loads: computed[c.id]!, source: 'roof-loading' as const } : c)));
     expect(saved.status).toBe(200);
     const started = await post(`/api/trusses/${trussId}/runs`, {});
     expect(started.status).toBe(202);

@@ -108,24 +108,24 @@ async function saveModel(page: Page): Promise<void> {
   await page.getByText('Unsaved changes').waitFor({ state: 'detached', timeout: 15_000 });
 }
 
-/** Runs the saved model and waits until this run is solved; returns the run's id. */
+/** Runs the saved model and waits until this run is solved; returns the run's number within the truss. */
 async function runAnalysis(page: Page): Promise<number> {
   await page.getByRole('tab', { name: 'Runs & results' }).click();
   const [response] = await Promise.all([
     page.waitForResponse((r) => r.request().method() === 'POST' && /\/api\/trusses\/\d+\/runs$/.test(r.url())),
     page.getByRole('button', { name: 'Run analysis' }).click(),
   ]);
-  const { id } = (await response.json()) as { id: number };
-  const row = page.locator('tr', { has: page.getByRole('button', { name: `Run ${id}`, exact: true }) });
+  const { number } = (await response.json()) as { id: number; number: number };
+  const row = page.locator('tr', { has: page.getByRole('button', { name: `Run ${number}`, exact: true }) });
   await row.getByText('Solved', { exact: true }).waitFor({ timeout: 30_000 });
   await page.getByText('Stable and statically determinate.').waitFor({ timeout: 15_000 });
-  return id;
+  return number;
 }
 
 /** Starts the next revision from the newest solved run on the truss's Calc sheets tab; returns the sheet's address. */
-async function newRevision(page: Page, runId: number): Promise<string> {
+async function newRevision(page: Page, runNumber: number): Promise<string> {
   await page.goto(`${trussUrl}?tab=sheets`);
-  const start = page.getByRole('button', { name: `New revision from run ${runId}` });
+  const start = page.getByRole('button', { name: `New revision from Run ${runNumber}` });
   await start.waitFor({ timeout: 15_000 });
   await start.click();
   await page.waitForURL(/\/sheets\/\d+$/);

@@ -64,9 +64,27 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByRole('table', { name: 'Takeoff of load case D1' }).waitFor({ timeout: 15_000 });
     const use = page.getByRole('button', { name: 'Use these loads' });
     await expect.poll(() => use.isEnabled(), { timeout: 10_000 }).toBe(true);
+    // "Use these loads" first says what it will change and saves nothing until confirmed.
     await use.click();
+    const confirm = page.getByRole('alertdialog', { name: "Use the roof takeoff's loads" });
+    await confirm.waitFor({ timeout: 10_000 });
+    await confirm.getByRole('button', { name: 'Cancel' }).click();
+    expect(await confirm.count()).toBe(0);
+    expect(await page.getByText('Model save 1').isVisible()).toBe(true);
+
+    await use.click();
+    await confirm.waitFor({ timeout: 10_000 });
+    // The new case D1 had no loads: the takeoff's are added; count and total Fy as the preview computed them.
+    const d1 = preview!.result.caseLoads.D1!;
+    const row = confirm.getByRole('row', { name: /^D1 / });
+    expect(await row.locator('td').nth(1).textContent()).toBe('loads added');
+    expect(await row.locator('td').nth(2).textContent()).toBe('0');
+    expect(Number(await row.locator('td').nth(4).textContent())).toBe(d1.length);
+    expect(Number(await row.locator('td').nth(5).textContent())).toBeCloseTo(d1.reduce((s, l) => s + l.fy, 0), 2);
+    expect(await page.getByText('Model save 1').isVisible()).toBe(true);
+    await confirm.getByRole('button', { name: 'Save these loads' }).click();
     await page.getByText('Model saved.').waitFor({ timeout: 15_000 });
-    expect(await page.getByText('Version 2').isVisible()).toBe(true);
+    expect(await page.getByText('Model save 2').isVisible()).toBe(true);
     expect(preview?.input.trussIndex).toBe(1);
   }, 90_000);
 
@@ -131,7 +149,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByRole('radio', { name: 'None' }).click();
     await page.getByRole('button', { name: 'Done' }).click();
     await page.getByRole('button', { name: 'Save model' }).click();
-    await page.getByText('Version 3').waitFor({ timeout: 15_000 });
+    await page.getByText('Model save 3').waitFor({ timeout: 15_000 });
 
     await page.getByRole('tab', { name: 'Runs & results' }).click();
     await page.getByRole('button', { name: 'Run analysis' }).click();
@@ -139,5 +157,28 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     expect(await page.getByText(/Joints that can move:/).isVisible()).toBe(true);
     expect(await page.getByText('Member forces', { exact: true }).count()).toBe(0);
     expect(await page.getByText('stale: the model changed after this run', { exact: true }).count()).toBe(1);
+  }, 60_000);
+  it('when the engineer detaches the takeoff loads, then a confirmation says the takeoff will no longer update them, and after it they are edited by hand', async () => {
+    await page.getByRole('tab', { name: 'Model & loads' }).click();
+    await page.getByRole('tab', { name: 'Load cases & loads' }).click();
+    const count = preview!.result.caseLoads.D1!.length;
+    // Read-only: the takeoff's rows have no inputs, and say where they come from.
+    expect(await page.getByRole('row', { name: /from the roof takeoff$/ }).count()).toBe(count);
+    expect(await page.getByLabel('Load 1: Fy, kN').count()).toBe(0);
+
+    await page.getByRole('button', { name: 'Detach and edit by hand' }).click();
+    const dialog = page.getByRole('alertdialog', { name: 'Detach the loads of case D1' });
+    await dialog.waitFor({ timeout: 10_000 });
+    expect(await dialog.textContent()).toContain('The roof takeoff will no longer update the loads of case D1');
+    await dialog.getByRole('button', { name: 'Detach' }).click();
+    await page.getByText('Loads detached: edit them by hand now.').waitFor({ timeout: 15_000 });
+    await page.getByText('Model save 4').waitFor({ timeout: 15_000 });
+    expect(await page.getByRole('row', { name: /from the roof takeoff$/ }).count()).toBe(0);
+
+    const fy = page.getByLabel('Load 1: Fy, kN');
+    await fy.fill('-99');
+    await page.getByRole('button', { name: 'Save model' }).click();
+    await page.getByText('Model save 5').waitFor({ timeout: 15_000 });
+    expect(await page.getByLabel('Load 1: Fy, kN').inputValue()).toBe('-99');
   }, 60_000);
 });

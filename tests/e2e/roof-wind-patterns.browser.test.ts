@@ -81,6 +81,11 @@ describe('the engineer checks snow span patterns and wind on the slopes of the d
     const use = page.getByRole('button', { name: 'Use these loads' });
     await expect.poll(() => use.isEnabled(), { timeout: 10_000 }).toBe(true);
     await use.click();
+    // Nothing is saved until the change is confirmed (two cases: the snow and the wind one).
+    const confirm = page.getByRole('alertdialog', { name: "Use the roof takeoff's loads" });
+    await confirm.waitFor({ timeout: 10_000 });
+    expect(await confirm.getByRole('row').count()).toBe(1 + Object.keys(last!.result.caseLoads).length);
+    await confirm.getByRole('button', { name: 'Save these loads' }).click();
     await page.getByText('Model saved.').waitFor({ timeout: 15_000 });
     expect(last?.input.wind?.cLeeward).toBe(-0.6);
     expect(last?.input.areaLoads[0]?.patterns).toBe(true);
@@ -88,10 +93,11 @@ describe('the engineer checks snow span patterns and wind on the slopes of the d
     const saved = await page.evaluate(async () => {
       const trussId = location.pathname.match(/trusses\/(\d+)/)?.[1];
       const res = await fetch(`/api/trusses/${trussId}/model`);
-      return (await res.json()) as { model: { loadCases: { id: string; category: string; loads: { fx: number }[] }[] }; takeoff: unknown };
+      return (await res.json()) as { model: { loadCases: { id: string; category: string; source?: string; loads: { fx: number }[] }[] }; takeoff: unknown };
     });
     const windCase = saved.model.loadCases.find((c) => c.category === 'wind');
     expect(windCase?.loads.some((l) => Math.abs(l.fx) > 0.1)).toBe(true);
+    expect(windCase?.source).toBe('roof-loading');
   }, 120_000);
 
   it('when the wind coefficient is left without q, then the preview says so in one sentence and nothing can be used', async () => {

@@ -5,6 +5,7 @@ import type { FileStore } from '../../storage/file-store';
 import { SheetBuildError, SheetBuildPoolClosedError, type SheetBuildPool } from './sheet-build-pool';
 import { SheetPrintError, type SheetPrinter } from './sheet-printer';
 import { draftInput, draftFileName, loadRunSheet } from './run-sheet.service';
+import { runName } from '@shared/text/citations';
 
 /**
  * Calc sheet PDFs made in the background. A request stores a job (migration 0011) and is
@@ -156,14 +157,15 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
   }
 
   async function runOr409(runId: number): Promise<void> {
-    const [run] = await sequelize.query<{ id: number; status: string }>('SELECT id, status FROM analysis_runs WHERE id = ?', {
+    const [run] = await sequelize.query<{ id: number; status: string; number: number; trussName: string }>(
+      'SELECT r.id, r.status, r.number, t.name AS "trussName" FROM analysis_runs r JOIN trusses t ON t.id = r."trussId" WHERE r.id = ?', {
       replacements: [runId],
       type: QueryTypes.SELECT,
     });
     if (!run) throw notFound('That analysis run');
     if (run.status !== 'solved' && run.status !== 'unstable') {
       const why: Record<string, string> = { queued: 'it is still waiting to be solved', running: 'it is still being solved', failed: 'it failed' };
-      throw new AppError('run-not-finished', `Run ${runId} has no calc sheet because ${why[run.status] ?? `it is ${run.status}`}. Open the run to see its status.`, 409);
+      throw new AppError('run-not-finished', `${runName(Number(run.number), run.trussName)} has no calc sheet because ${why[run.status] ?? `it is ${run.status}`}. Open the run to see its status.`, 409);
     }
   }
 
@@ -239,7 +241,7 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
         pages,
         pdfBytes: pdf.length,
         fileKey,
-        fileName: draftFileName(base.project.jobNumber, Number(job.runId)),
+        fileName: draftFileName(base),
         finishedAt: now(),
       });
     } catch (err) {

@@ -3,6 +3,7 @@ import type { TrussModel } from '@shared/model/truss';
 import type { TrussAnalysis } from '@shared/solver';
 import type { RoofTakeoffResult } from '@shared/takeoff';
 import { conflict, notFound } from '../../errors/app-error';
+import { fileNamePart, modelSaveName, runName } from '@shared/text/citations';
 import { Project, Truss } from '../../db/models';
 import { getFirm } from '../firm/firm.service';
 import * as runsRepo from '../runs/runs.repository';
@@ -23,11 +24,13 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
   if (!run) throw notFound('That analysis run');
   if (run.status !== 'solved' && run.status !== 'unstable') {
     const why = { queued: 'it is still waiting to be solved', running: 'it is still being solved', failed: 'it failed' }[run.status];
-    throw conflict('run-not-finished', `Run ${runId} has no calc sheet because ${why}. Open the run to see its status.`);
+    const t = await Truss.findByPk(run.trussId);
+    throw conflict('run-not-finished', `${runName(run.number, t?.name)} has no calc sheet because ${why}. Open the run to see its status.`);
   }
   const truss = await Truss.findByPk(run.trussId);
   const project = truss ? await Project.findByPk(truss.projectId) : null;
   if (!truss || !project) throw notFound('The truss of that run');
+  const cited = runName(run.number, truss.name);
   const takeoff = run.takeoff ? (JSON.parse(run.takeoff) as { result?: RoofTakeoffResult } | null) : null;
   const ranOn = run.createdAt.toISOString().slice(0, 10);
   return {
@@ -48,7 +51,8 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
       return { analysis: analysis as TrussAnalysis, design: design ?? null };
     })(),
     takeoffSteps: takeoff?.result?.steps,
-    runLabel: `Run ${run.id}${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
+    runLabel: `${cited} (${modelSaveName(run.modelVersion)})${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
+    runNumber: run.number,
   };
 }
 
@@ -56,9 +60,9 @@ export function draftInput(base: RunSheetInput, now: Date): CalcSheetInput {
   return { ...base, revision: 'draft', generatedAt: now };
 }
 
-/** The download name of a run's draft PDF. */
-export function draftFileName(jobNumber: string, runId: number): string {
-  return `${jobNumber}-run-${runId}-calc-sheet-draft.pdf`.replace(/[^A-Za-z0-9._-]+/g, '-');
+/** The download name of a run's draft PDF, with the run's number within its truss. */
+export function draftFileName(base: Pick<RunSheetInput, 'project' | 'trussName' | 'runNumber'>): string {
+  return `${fileNamePart(base.project.jobNumber)}-${fileNamePart(base.trussName)}-run-${base.runNumber ?? 0}-calc-sheet-draft.pdf`;
 }
 
 /**
@@ -86,5 +90,5 @@ export async function runSheetPdf(
   } else {
     bytes = await renderCalcSheetPdf(draftInput(base, now), printer, request);
   }
-  return { bytes, fileName: draftFileName(base.project.jobNumber, runId) };
+  return { bytes, fileName: draftFileName(base) };
 }

@@ -1,5 +1,8 @@
-import { QueryTypes } from 'sequelize';
-import type { TrussModel } from '@shared/model/truss';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { capitalised, modelSaveName } from '@shared/text/citations';
+import type { JointLoad, TrussModel } from '@shared/model/truss';
+import { roofLoadsProblem } from '@shared/model/roof-loads';
+import { sheetRevisionLabel } from '@shared/schemas/review.schema';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { DesignSaveInput, ModelSaveInput } from '@shared/schemas/model.schema';
 import { designBasisOf } from '@shared/design/basis';
@@ -101,17 +104,21 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
     if (record.version !== input.version) {
       throw conflict(
         'edit-conflict',
-        `Someone else saved this model while you were editing (yours was version ${input.version}, it is now ${record.version}). Reload to see their changes, then make yours again.`,
+        `Someone else saved this model while you were editing (you opened ${modelSaveName(input.version)}, it is now ${modelSaveName(record.version)}). Reload to see their changes, then make yours again.`,
       );
     }
     const model = JSON.parse(record.model) as TrussModel;
     assertReferences(model, input);
     // The takeoff kept or sent must still fit: its cases exist and its purlins sit on top-chord joints.
     const takeoff = input.takeoff === undefined ? takeoffParseStored(record.takeoff) : input.takeoff;
+    let caseLoads: Record<string, JointLoad[]> | null = null;
     if (takeoff) {
       assertTakeoffCases(takeoff, input.loadCases);
-      computeTakeoff(model, takeoff, input.loadCases);
+      caseLoads = computeTakeoff(model, takeoff, input.loadCases).caseLoads;
     }
+    // What the loads table shows is what a run solves: a case from the roof takeoff holds exactly its loads.
+    const problem = roofLoadsProblem(model.loadCases, input.loadCases, caseLoads, input.takeoff === null);
+    if (problem) throw new AppError(problem.code, problem.message, 422);
     const props = new Map(input.members.map((m) => [m.id, m]));
     const next: TrussModel = {
       joints: model.joints,
@@ -193,7 +200,7 @@ export async function saveDesign(trussId: number, input: DesignSaveInput, userId
     if (record.version !== input.version) {
       throw conflict(
         'edit-conflict',
-        `Someone else saved this model while you were editing (yours was version ${input.version}, it is now ${record.version}). Reload to see their changes, then make yours again.`,
+        `Someone else saved this model while you were editing (you opened ${modelSaveName(input.version)}, it is now ${modelSaveName(record.version)}). Reload to see their changes, then make yours again.`,
       );
     }
     const next = modelWithDesign(JSON.parse(record.model) as TrussModel, input.design);
@@ -205,4 +212,68 @@ export async function saveDesign(trussId: number, input: DesignSaveInput, userId
     return (await TrussModelRecord.findByPk(trussId, { transaction }))!;
   });
   return toView(record);
+}
+
+/**
+ * "Detach and edit by hand": the case keeps its loads as they are, no longer marked as from the
+ * roof takeoff, so the takeoff stops updating them and the loads table lets them be edited. A new
+ * model save. Refused (409, nothing written) when the current model save is the one an issued
+ * sheet revision was made from: that sheet says these loads come from the roof takeoff.
+ */
+export async function detachRoofLoads(trussId: number, input: { version: number; caseId: string }, userId: number): Promise<TrussModelView> {
+  await getTruss(trussId);
+  const sequelize = TrussModelRecord.sequelize!;
+  const record = await sequelize.transaction(async (transaction) => {
+    const record = await TrussModelRecord.findByPk(trussId, { transaction });
+    if (!record) throw new AppError('no-model-yet', 'This truss has no model yet: upload its DXF drawing first.', 404);
+    if (record.version !== input.version) {
+      throw conflict(
+        'edit-conflict',
+        `Someone else saved this model while you were editing (you opened ${modelSaveName(input.version)}, it is now ${modelSaveName(record.version)}). Reload to see their changes, then detach again.`,
+      );
+    }
+    const model = JSON.parse(record.model) as TrussModel;
+    const target = model.loadCases.find((c) => c.id === input.caseId);
+    if (!target) throw new AppError('unknown-load-case', `Load case "${input.caseId}" is not in this model; reload the page and pick a case from the loads table.`, 422);
+    if (target.source !== 'roof-loading') {
+      throw new AppError('not-from-roof-loading', `The loads of load case "${input.caseId}" are already entered by hand, so there is nothing to detach.`, 422);
+    }
+    const issued = await issuedRevisionOfSave(trussId, record.version, transaction);
+    if (issued !== null) {
+      throw conflict(
+        'model-issued',
+        `${capitalised(modelSaveName(record.version))} is the one issued sheet revision ${sheetRevisionLabel(issued)} was made from, so its roof-takeoff loads are not detached; change the roof takeoff and use its loads again instead.`,
+      );
+    }
+    const next: TrussModel = {
+      ...model,
+      loadCases: model.loadCases.map((c) => {
+        if (c.id !== input.caseId) return c;
+        const { source: _s, ...rest } = c;
+        void _s;
+        return rest;
+      }),
+    };
+    const [updated] = await TrussModelRecord.update(
+      { model: JSON.stringify(next), version: record.version + 1, updatedById: userId },
+      { where: { trussId, version: input.version }, transaction },
+    );
+    if (updated !== 1) throw conflict('edit-conflict', 'Someone else saved this model at the same moment. Reload and detach again.');
+    return (await TrussModelRecord.findByPk(trussId, { transaction }))!;
+  });
+  return toView(record);
+}
+
+/**
+ * The number of the newest issued (or since superseded) sheet revision of the truss whose run
+ * solved this model save, or null. Reads the sheet and run tables of other modules by their columns.
+ */
+async function issuedRevisionOfSave(trussId: number, modelVersion: number, transaction: Transaction): Promise<number | null> {
+  const rows = await TrussModelRecord.sequelize!.query<{ number: number }>(
+    `SELECT s.number FROM sheet_revisions s JOIN analysis_runs r ON r.id = s."runId"
+      WHERE s."trussId" = :trussId AND s.status IN ('issued', 'superseded') AND r."modelVersion" = :modelVersion
+      ORDER BY s.number DESC LIMIT 1`,
+    { replacements: { trussId, modelVersion }, type: QueryTypes.SELECT, transaction },
+  );
+  return rows.length ? Number(rows[0]!.number) : null;
 }

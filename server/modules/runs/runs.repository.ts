@@ -1,10 +1,12 @@
-import { Op, literal } from 'sequelize';
+import { Op, UniqueConstraintError, literal } from 'sequelize';
 import { AnalysisRun, TrussModelRecord, User } from '../../db/models';
 
 /** A run row as plain data; the JSON columns stay text so big results are never parsed needlessly. */
 export interface RunRow {
   id: number;
   trussId: number;
+  /** 1, 2, … within the truss. */
+  number: number;
   modelVersion: number;
   status: AnalysisRun['status'];
   progress: string;
@@ -22,7 +24,7 @@ export interface RunRow {
 
 type RunUpdate = Partial<Pick<AnalysisRun, 'status' | 'progress' | 'analysis' | 'summary' | 'error' | 'startedAt' | 'finishedAt'>>;
 
-const LIST_ATTRIBUTES = ['id', 'trussId', 'modelVersion', 'status', 'progress', 'takeoff', 'summary', 'error', 'ranById', 'startedAt', 'finishedAt', 'createdAt'] as const;
+const LIST_ATTRIBUTES = ['id', 'trussId', 'number', 'modelVersion', 'status', 'progress', 'takeoff', 'summary', 'error', 'ranById', 'startedAt', 'finishedAt', 'createdAt'] as const;
 
 async function namesOf(ids: (number | null)[]): Promise<Map<number, string>> {
   const wanted = [...new Set(ids.filter((id): id is number => id !== null))];
@@ -35,6 +37,7 @@ function toRow(r: AnalysisRun, names: Map<number, string>): RunRow {
   return {
     id: r.id,
     trussId: r.trussId,
+    number: r.number,
     modelVersion: r.modelVersion,
     status: r.status,
     progress: r.progress,
@@ -51,9 +54,21 @@ function toRow(r: AnalysisRun, names: Map<number, string>): RunRow {
   };
 }
 
-export async function insertRun(values: Omit<RunRow, 'id' | 'ranBy' | 'createdAt'>): Promise<RunRow> {
-  const created = await AnalysisRun.create(values);
-  return toRow(created, await namesOf([created.ranById]));
+/**
+ * Inserts a run as the truss's next number (the largest so far + 1). Two runs started at once may
+ * both read the same largest number; the unique index on (trussId, number) refuses the second
+ * insert, which then reads again and takes the next one.
+ */
+export async function insertRun(values: Omit<RunRow, 'id' | 'number' | 'ranBy' | 'createdAt'>): Promise<RunRow> {
+  for (let attempt = 1; ; attempt++) {
+    const last = (await AnalysisRun.max('number', { where: { trussId: values.trussId } })) as number | null;
+    try {
+      const created = await AnalysisRun.create({ ...values, number: (last ?? 0) + 1 });
+      return toRow(created, await namesOf([created.ranById]));
+    } catch (err) {
+      if (!(err instanceof UniqueConstraintError) || attempt >= 20) throw err;
+    }
+  }
 }
 
 export async function updateRun(id: number, values: RunUpdate): Promise<void> {

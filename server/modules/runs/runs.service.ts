@@ -4,9 +4,11 @@ import type { TrussAnalysis } from '@shared/solver';
 import { AppError, conflict, notFound } from '../../errors/app-error';
 import { TrussModelRecord } from '../../db/models';
 import { getTruss } from '../projects/projects.service';
-import { assertTakeoffCases, computeTakeoff, takeoffApply, takeoffParseStored } from '../takeoff/takeoff-compute';
+import { assertTakeoffCases, computeTakeoff, takeoffParseStored } from '../takeoff/takeoff-compute';
+import { sameJointLoads } from '@shared/model/roof-loads';
 import { designJson, designSummaryOf, runDesign, withDesignStiffness } from '@shared/design/basis';
 import { sheetRevisionLabel } from '@shared/schemas/review.schema';
+import { fileNamePart, modelSaveName, runName } from '@shared/text/citations';
 import { forcesCsv } from './forces-csv';
 import { reactionsCsv } from './reactions-csv';
 import * as repo from './runs.repository';
@@ -25,6 +27,7 @@ function summaryView(row: RunRow, currentVersion: number | null): RunSummaryView
   return {
     id: row.id,
     trussId: row.trussId,
+    number: row.number,
     modelVersion: row.modelVersion,
     stale: currentVersion !== null && currentVersion > row.modelVersion,
     status: row.status,
@@ -56,7 +59,7 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
   if (input.modelVersion !== undefined && input.modelVersion !== record.version) {
     throw conflict(
       'model-changed',
-      `The model was saved again since you opened it (you have version ${input.modelVersion}, it is now ${record.version}). Reload it, check the changes, then run.`,
+      `The model was saved again since you opened it (you have ${modelSaveName(input.modelVersion)}, it is now ${modelSaveName(record.version)}). Reload it, check the changes, then run.`,
     );
   }
   const { model, takeoff, error } = snapshotOf(record);
@@ -80,22 +83,33 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
 }
 
 /**
- * The model a run solves: the saved model with the takeoff's load cases put in, and members
- * without stiffness of their own given their design section's (an indeterminate truss's forces
- * depend on it). A takeoff that no longer fits gives the error the run fails with.
+ * The model a run solves: the saved model exactly as the loads table shows it (the roof takeoff
+ * never overwrites a case at run time), with members without stiffness of their own given their
+ * design section's (an indeterminate truss's forces depend on it). The takeoff is recomputed
+ * only to check that the cases marked as from it still hold its loads (the drawing or the
+ * takeoff may have changed since they were put in) and to print its steps; a takeoff that no
+ * longer fits, or a marked case that no longer matches, gives the error the run fails with.
  */
 function snapshotOf(record: TrussModelRecord): { model: TrussModel; takeoff: string | null; error: { code: string; message: string } | null } {
   const saved = JSON.parse(record.model) as TrussModel;
-  let model = saved;
+  const model = saved;
   let takeoff: string | null = null;
   let error: { code: string; message: string } | null = null;
   try {
     const takeoffInput = takeoffParseStored(record.takeoff);
-    if (takeoffInput) {
+    const marked = saved.loadCases.filter((c) => c.source === 'roof-loading');
+    if (takeoffInput && marked.length) {
       assertTakeoffCases(takeoffInput, saved.loadCases);
       const result = computeTakeoff(saved, takeoffInput);
-      model = takeoffApply(saved, result);
-      takeoff = JSON.stringify({ input: takeoffInput, result });
+      const stale = marked.find((c) => !result.caseLoads[c.id] || !sameJointLoads(c.loads, result.caseLoads[c.id]!));
+      if (stale) {
+        error = {
+          code: 'roof-loads-stale',
+          message: `The loads of load case "${stale.id}" no longer match the roof takeoff (the drawing or the takeoff changed since they were put in); open the roof takeoff and use its loads again, or detach them, then run.`,
+        };
+      } else {
+        takeoff = JSON.stringify({ input: takeoffInput, result });
+      }
     }
   } catch (err) {
     if (!(err instanceof AppError)) throw err;
@@ -121,22 +135,23 @@ function analysisInputs(model: TrussModel, withStiffness: boolean): string {
  */
 export async function recheckDesign(runId: number, input: DesignRecheckInput): Promise<RunSummaryView> {
   const row = await findRunOr404(runId);
+  const cited = await citeRun(row);
   if (row.status !== 'solved' || !row.analysis) {
-    throw conflict('run-not-solved', `Run ${runId} has no member forces to check (it is ${row.status}); run the analysis first.`);
+    throw conflict('run-not-solved', `${cited} has no member forces to check (it is ${row.status}); run the analysis first.`);
   }
   const revs = await repo.revisionsOfRun(runId);
   if (revs.length) {
     const r = revs[0];
     const issued = revs.find((x) => x.status === 'issued' || x.status === 'superseded');
     if (issued) {
-      throw conflict('sheet-issued', `Run ${runId} is behind issued sheet revision ${sheetRevisionLabel(issued.number)}, so its sections and checks cannot change; run the analysis again for a new run and start a new revision from it.`);
+      throw conflict('sheet-issued', `${cited} is behind issued sheet revision ${sheetRevisionLabel(issued.number)}, so its sections and checks cannot change; run the analysis again for a new run and start a new revision from it.`);
     }
-    throw conflict('run-has-sheet', `Run ${runId} has sheet revision ${sheetRevisionLabel(r.number)} (${r.status}), whose checks must not change under it; run the analysis again for a new run with the new sections.`);
+    throw conflict('run-has-sheet', `${cited} has sheet revision ${sheetRevisionLabel(r.number)} (${r.status}), whose checks must not change under it; run the analysis again for a new run with the new sections.`);
   }
   const record = await TrussModelRecord.findByPk(row.trussId);
   if (!record) throw new AppError('no-model-yet', 'This truss has no model yet: upload its DXF drawing first.', 404);
   if (input.modelVersion !== undefined && input.modelVersion !== record.version) {
-    throw conflict('model-changed', `The model was saved again since you opened it (you have version ${input.modelVersion}, it is now ${record.version}). Reload it, check the changes, then re-check.`);
+    throw conflict('model-changed', `The model was saved again since you opened it (you have ${modelSaveName(input.modelVersion)}, it is now ${modelSaveName(record.version)}). Reload it, check the changes, then re-check.`);
   }
   const snap = snapshotOf(record);
   if (snap.error) throw new AppError(snap.error.code, snap.error.message, 422);
@@ -146,7 +161,7 @@ export async function recheckDesign(runId: number, input: DesignRecheckInput): P
   const analysis = JSON.parse(row.analysis) as RunAnalysis;
   const indeterminate = analysis.classification.kind === 'indeterminate';
   if (analysisInputs(stored, false) !== analysisInputs(next, false)) {
-    throw conflict('model-changed-since-run', `The geometry, supports, loads or combinations changed since run ${runId}, so its forces no longer fit the model; run the analysis again.`);
+    throw conflict('model-changed-since-run', `The geometry, supports, loads or combinations changed since ${cited}, so its forces no longer fit the model; run the analysis again.`);
   }
   if (indeterminate && analysisInputs(stored, true) !== analysisInputs(next, true)) {
     throw conflict(
@@ -164,7 +179,7 @@ export async function recheckDesign(runId: number, input: DesignRecheckInput): P
   const summary = { ...(JSON.parse(row.summary!) as SolveSummary), design: designSummaryOf(design) };
   // The run now stands for the current model version: same forces, the saved sections.
   const written = await repo.updateRunDesign(runId, { model: JSON.stringify(next), analysis: analysisJson, summary: JSON.stringify(summary), modelVersion: record.version });
-  if (!written) throw conflict('run-has-sheet', `A sheet revision was just started from run ${runId}, so its checks must not change; run the analysis again for a new run with the new sections.`);
+  if (!written) throw conflict('run-has-sheet', `A sheet revision was just started from ${cited}, so its checks must not change; run the analysis again for a new run with the new sections.`);
   return summaryView({ ...row, modelVersion: record.version, summary: JSON.stringify(summary) }, record.version);
 }
 
@@ -202,7 +217,7 @@ async function solveRun(runId: number, model: TrussModel, deps: RunsDeps): Promi
     } catch {
       // The database itself is gone (shutdown); nothing more to record.
     }
-    deps.log(`Analysis run ${runId} could not be completed`, err);
+    deps.log(`Analysis run ${runId} (row id) could not be completed`, err);
   }
 }
 
@@ -211,6 +226,19 @@ export async function listRuns(trussId: number): Promise<RunSummaryView[]> {
   await getTruss(trussId);
   const [rows, version] = await Promise.all([repo.listRuns(trussId), repo.currentModelVersion(trussId)]);
   return rows.map((row) => summaryView(row, version));
+}
+
+/** "Run 2 of T7": the run's number within its truss and the truss's name, as people cite it. */
+async function citeRun(row: RunRow): Promise<string> {
+  return runName(row.number, (await trussNameOf(row.trussId)) ?? undefined);
+}
+
+async function trussNameOf(trussId: number): Promise<string | null> {
+  try {
+    return (await getTruss(trussId)).name;
+  } catch {
+    return null;
+  }
 }
 
 async function findRunOr404(runId: number): Promise<RunRow> {
@@ -240,7 +268,7 @@ async function solvedRunOr409(runId: number, table: string): Promise<RunRow & { 
       failed: 'it failed',
       solved: '',
     };
-    throw conflict('run-not-solved', `Run ${runId} has no ${table}: ${why[row.status]}. Open the run to see its status.`);
+    throw conflict('run-not-solved', `${await citeRun(row)} has no ${table}: ${why[row.status]}. Open the run to see its status.`);
   }
   return row as RunRow & { analysis: string };
 }
@@ -249,14 +277,14 @@ async function solvedRunOr409(runId: number, table: string): Promise<RunRow & { 
 export async function getForcesCsv(runId: number): Promise<{ csv: string; fileName: string }> {
   const row = await solvedRunOr409(runId, 'member force table');
   const csv = forcesCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
-  return { csv, fileName: `truss-${row.trussId}-run-${row.id}-member-forces.csv` };
+  return { csv, fileName: `${fileNamePart((await trussNameOf(row.trussId)) ?? `truss-${row.trussId}`)}-run-${row.number}-member-forces.csv` };
 }
 
 /** The support reactions of a solved run (cases, combinations, envelope) as CSV, with a file name. */
 export async function getReactionsCsv(runId: number): Promise<{ csv: string; fileName: string }> {
   const row = await solvedRunOr409(runId, 'reaction table');
   const csv = reactionsCsv(JSON.parse(row.model) as TrussModel, JSON.parse(row.analysis) as TrussAnalysis);
-  return { csv, fileName: `truss-${row.trussId}-run-${row.id}-reactions.csv` };
+  return { csv, fileName: `${fileNamePart((await trussNameOf(row.trussId)) ?? `truss-${row.trussId}`)}-run-${row.number}-reactions.csv` };
 }
 
 /**

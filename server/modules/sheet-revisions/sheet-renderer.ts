@@ -48,6 +48,11 @@ export interface RunRef {
   id: number;
   trussId: number;
   status: RunStatus;
+  /** 1, 2, … within the truss (migration 0014), and the truss's name: "Run 2 of T7". */
+  number?: number;
+  trussName?: string;
+  /** The model save the run solved. */
+  modelVersion?: number;
 }
 
 export interface RunSource {
@@ -55,16 +60,28 @@ export interface RunSource {
 }
 
 /**
- * Reads the three columns it needs (id, trussId, status) from the runs module's analysis_runs
+ * Reads the columns it needs (id, trussId, status, number, modelVersion, and the truss's name) from the runs module's analysis_runs
  * table (migration 0003), rather than importing that module, so the two stay independent.
  */
 export function analysisRunsTable(sequelize: Sequelize): RunSource {
   return {
     async findRun(runId) {
       try {
-        const [rows] = await sequelize.query('SELECT id, "trussId", status FROM analysis_runs WHERE id = ?', { replacements: [runId] });
-        const row = (rows as { id: number; trussId: number; status: RunStatus }[])[0];
-        return row ? { id: Number(row.id), trussId: Number(row.trussId), status: row.status } : null;
+        const [rows] = await sequelize.query(
+          'SELECT r.id, r."trussId", r.status, r.number, r."modelVersion", t.name AS "trussName" FROM analysis_runs r LEFT JOIN trusses t ON t.id = r."trussId" WHERE r.id = ?',
+          { replacements: [runId] },
+        );
+        const row = (rows as { id: number; trussId: number; status: RunStatus; number: number | null; modelVersion: number; trussName: string | null }[])[0];
+        return row
+          ? {
+              id: Number(row.id),
+              trussId: Number(row.trussId),
+              status: row.status,
+              ...(row.number !== null ? { number: Number(row.number) } : {}),
+              ...(row.trussName !== null ? { trussName: row.trussName } : {}),
+              modelVersion: Number(row.modelVersion),
+            }
+          : null;
       } catch (err) {
         // SQLite says "no such table", PostgreSQL 'relation "…" does not exist'.
         if (/no such table|relation .* does not exist/i.test(String((err as Error).message))) {

@@ -10,6 +10,8 @@ export interface ReviewMailInput {
   to: string[];
   context: TrussContext;
   label: string;
+  /** The run the sheet was made from, as cited: "Run 2 of T7 (model save 5)". */
+  run?: string;
   actorName: string;
   note: string;
   pageUrl: string;
@@ -72,6 +74,7 @@ export function reviewMailMessage(m: ReviewMailInput): { subject: string; text: 
       lines.push(`${m.actorName} issued the calc sheet ${sheet}.`, `The signed PDF is in the archive. SHA-256: ${m.sha256 ?? ''}`);
       break;
   }
+  if (m.run) lines.push(`The sheet is made from ${m.run}.`);
   if (m.comments?.length && (m.kind === 'returned' || m.kind === 'submitted')) lines.push(...commentLines(m.comments));
   if (m.note) lines.push('', `Note: ${m.note}`);
   lines.push('', `Open the sheet: ${m.pageUrl}`);

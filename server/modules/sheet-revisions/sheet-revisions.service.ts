@@ -13,7 +13,8 @@ import { reviewMailSend, type MailComment, type ReviewMailKind } from './sheet-r
 import { placeOf, runSheetPlaces, type SheetPlace } from '../calc-sheets/step-numbers';
 import { sheetRevisionsRepository as repo } from './sheet-revisions.repository';
 import { commentThreads, pageUrl, peopleOf, person, summaryView } from './sheet-revisions.views';
-import type { RunSource, SheetRenderer } from './sheet-renderer';
+import type { RunRef, RunSource, SheetRenderer } from './sheet-renderer';
+import { modelSaveName, runName } from '@shared/text/citations';
 
 export interface Actor {
   id: number;
@@ -48,16 +49,22 @@ export async function contextOr404(trussId: number): Promise<TrussContext> {
   return context;
 }
 
+/** "Run 2 of T7 (model save 5)" as people cite it; the row id only where the number is unknown. */
+function citeRun(run: RunRef): string {
+  if (run.number === undefined) return `Analysis run ${run.id}`;
+  return `${runName(run.number, run.trussName)}${run.modelVersion !== undefined ? ` (${modelSaveName(run.modelVersion)})` : ''}`;
+}
+
 /** Starts a draft revision of a truss's calc sheet from a solved run of that truss. */
 export async function createRevision(input: { trussId: number; runId: number; note: string }, actor: Actor, deps: ReviewServiceDeps): Promise<SheetRevisionView> {
   await contextOr404(input.trussId);
   const run = await deps.runs.findRun(input.runId);
   if (!run) throw new AppError('run-not-found', `Analysis run ${input.runId} was not found. Run the analysis, then start the sheet from that run.`, 422);
   if (run.trussId !== input.trussId) {
-    throw new AppError('run-of-other-truss', `Analysis run ${input.runId} belongs to another truss. Choose a run of this truss.`, 422);
+    throw new AppError('run-of-other-truss', `${citeRun(run)} belongs to another truss. Choose a run of this truss.`, 422);
   }
   if (run.status !== 'solved') {
-    throw new AppError('run-not-solved', `Analysis run ${input.runId} is ${run.status}, so it has no results to put on a sheet. Fix the model and run it again.`, 409);
+    throw new AppError('run-not-solved', `${citeRun(run)} is ${run.status}, so it has no results to put on a sheet. Fix the model and run it again.`, 409);
   }
   const row = await repo.createDraft({ trussId: input.trussId, runId: input.runId, preparedById: actor.id, note: input.note });
   return getRevision(row.id, deps);
@@ -252,11 +259,13 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
     else to = await repo.activeEmails({ ids: [row.preparedById], kind });
     if (to.length === 0) return;
     const comments = kind === 'returned' || kind === 'submitted' ? await openComments(row, deps) : undefined;
+    const run = await deps.runs.findRun(row.runId);
     await reviewMailSend(deps.mailer, {
       kind,
       to,
       context,
       label: sheetRevisionLabel(row.number),
+      ...(run ? { run: citeRun(run) } : {}),
       actorName: actor.name,
       note,
       pageUrl: pageUrl(deps, row.id),

@@ -75,7 +75,7 @@ function pageFrame(
         ...(issue ? [`Issued sheet ${issue.sheetId}  ·  revision ${input.revision}  ·  fingerprint ${issue.fingerprint} (of the issue record, not of this PDF file)`] : []),
       ],
     },
-    { share: FOOT_SHARES.right, lines: [`Panelpoint · run ${t.run} · ${t.generatedAt}`, ...(issue ? [`Verify at ${issue.verifyUrl}`] : [])] },
+    { share: FOOT_SHARES.right, lines: [`Panelpoint · ${t.run} · ${t.generatedAt}`, ...(issue ? [`Verify at ${issue.verifyUrl}`] : [])] },
   ];
   return {
     headPt: frameFontPt(head, width, HEAD_HEIGHT_MM, HEAD_SIZES, FRAME_LINE_HEIGHT),

@@ -39,6 +39,8 @@ export interface CalcSheetInput {
   takeoffSteps?: TakeoffStep[];
   /** Which analysis run the sheet was made from (printed on the cover and every page). */
   runLabel?: string;
+  /** The run's number within its truss ("Run 2 of T7"), for file names. */
+  runNumber?: number;
   /** When the sheet was generated. */
   generatedAt: Date | string;
   /** Set on the issued print only: the copy's id, fingerprint and verify address (every page, last page). */

@@ -48,13 +48,13 @@ export function DrawingSection({ trussId, mayUpload, unitSystem }: DrawingSectio
     notify(
       drawing.status === 'imported' ? 'success' : 'error',
       drawing.status === 'imported'
-        ? `Version ${drawing.version} imported: ${drawing.jointCount} joints, ${drawing.memberCount} members.`
-        : `Version ${drawing.version} is stored but did not import: set its options and re-import.`,
+        ? `Drawing version ${drawing.version} imported: ${drawing.jointCount} joints, ${drawing.memberCount} members.`
+        : `Drawing version ${drawing.version} is stored but did not import: set its options and re-import.`,
     );
   };
 
   const versionsPanel = (
-    <Panel title={<span>Versions <span className="figures font-normal text-ink-faint">({list.length})</span></span>}>
+    <Panel title={<span>Drawing versions <span className="figures font-normal text-ink-faint">({list.length})</span></span>}>
       <DrawingVersions versions={list} selectedId={selectedId} onSelect={setChosenId} />
     </Panel>
   );
@@ -72,7 +72,7 @@ export function DrawingSection({ trussId, mayUpload, unitSystem }: DrawingSectio
   return (
     <div className="flex flex-col gap-6">
       {mayUpload && uploadOpen && (
-        <Panel title="Upload a new version">
+        <Panel title="Upload a new drawing version">
           <UploadZone trussId={trussId} toleranceUnit={toleranceUnit} first={false} onUploaded={onUploaded} onCancel={() => setUploadOpen(false)} />
         </Panel>
       )}
@@ -86,7 +86,7 @@ export function DrawingSection({ trussId, mayUpload, unitSystem }: DrawingSectio
           uploadAction={
             mayUpload && !uploadOpen ? (
               <Button size="sm" variant="primary" onClick={() => setUploadOpen(true)}>
-                Upload a new version
+                Upload a new drawing version
               </Button>
             ) : null
           }
@@ -151,9 +151,9 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
 
   const title = (
     <span className="flex flex-wrap items-baseline gap-x-2">
-      <span>Version {drawing.version}</span>
+      <span>Drawing version {drawing.version}</span>
       <span className="font-normal text-ink-soft">{drawing.originalName}</span>
-      {!newest && <Badge tone="muted">Older version</Badge>}
+      {!newest && <Badge tone="muted">Older drawing version</Badge>}
       {drawing.status === 'failed' && <Badge tone="danger">Needs options</Badge>}
     </span>
   );
@@ -165,7 +165,7 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
           {result
             ? `${result.joints.length} joints · ${result.members.length} members · read in ${result.units.name}${result.units.source === 'option' ? ' (chosen)' : ''} · imported ${formatDateTime(drawing.importedAt)}`
             : `Uploaded ${formatDateTime(drawing.createdAt)} by ${drawing.uploadedBy || 'someone'}; not imported yet.`}
-          {!newest && ' · the working model follows the newest version only'}
+          {!newest && ' · the working model follows the newest drawing version only'}
         </p>
         {result ? (
           <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
@@ -181,7 +181,7 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
           </div>
         ) : (
           <div role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm">
-            <p className="font-medium text-danger">This version did not import.</p>
+            <p className="font-medium text-danger">This drawing version did not import.</p>
             <p className="mt-1 text-ink">{drawing.error?.message ?? 'The import stopped without saying why.'}</p>
             {mayUpload && <p className="mt-1 text-ink-soft">Set the options below and re-import; the file stays stored.</p>}
           </div>
@@ -197,7 +197,7 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
               toleranceUnit={toleranceUnit}
               onReimported={(d) => {
                 setSelectedEntry(null);
-                notify('success', `Version ${d.version} re-imported: ${d.jointCount} joints, ${d.memberCount} members.`);
+                notify('success', `Drawing version ${d.version} re-imported: ${d.jointCount} joints, ${d.memberCount} members.`);
               }}
             />
           </Panel>

@@ -17,7 +17,7 @@ export function DrawingVersions({ versions, selectedId, onSelect }: DrawingVersi
       <table className="w-full border-collapse text-[13px]">
         <thead>
           <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
-            <th scope="col" className="py-1.5 pr-3 text-left">Ver.</th>
+            <th scope="col" className="py-1.5 pr-3 text-left">Drawing version</th>
             <th scope="col" className="py-1.5 pr-3 text-left">File and upload</th>
             <th scope="col" className="py-1.5 pr-3 text-left">Status</th>
             <th scope="col" className="py-1.5 pr-3 text-right">Joints</th>
@@ -40,7 +40,7 @@ export function DrawingVersions({ versions, selectedId, onSelect }: DrawingVersi
                     aria-current={selected || undefined}
                     className={`figures font-semibold ${selected ? 'text-ink' : 'text-accent hover:underline'}`}
                   >
-                    v{v.version}
+                    {v.version}
                   </button>
                 </td>
                 <td className="max-w-[16rem] py-1.5 pr-3">

@@ -106,13 +106,13 @@ export function UploadZone({ trussId, toleranceUnit, first, onUploaded, onCancel
         ) : (
           <>
             <p className="text-sm text-ink">
-              {first ? 'Drop the truss’s DXF drawing here' : 'Drop a corrected DXF here for the next version'}
+              {first ? 'Drop the truss’s DXF drawing here' : 'Drop a corrected DXF here for the next drawing version'}
               <span className="text-ink-soft"> or </span>
               <Button size="sm" variant="secondary" onClick={() => inputRef.current?.click()}>
                 Choose a file…
               </Button>
             </p>
-            <p className="text-xs text-ink-faint">ASCII DXF from R12 on, in mm, cm, m, in or ft. Earlier versions stay kept.</p>
+            <p className="text-xs text-ink-faint">ASCII DXF from R12 on, in mm, cm, m, in or ft. Earlier drawing versions stay kept.</p>
           </>
         )}
         <input

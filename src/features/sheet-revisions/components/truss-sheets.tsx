@@ -88,7 +88,7 @@ function NewRevision({ trussId }: { trussId: number }) {
     <div className="flex flex-col items-end gap-1">
       <div className="flex items-center gap-3">
         <span className="text-xs text-ink-soft">
-          Run {run.id}, {formatDateTime(run.finishedAt ?? run.createdAt)}
+          Run {run.number}, {formatDateTime(run.finishedAt ?? run.createdAt)}
           {run.stale && <span className="text-danger"> · the model changed since</span>}
         </span>
         <Button
@@ -97,7 +97,7 @@ function NewRevision({ trussId }: { trussId: number }) {
           busy={create.isPending}
           onClick={() => create.mutate({ trussId, input: { runId: run.id } }, { onSuccess: (sheet) => navigate(`/sheets/${sheet.id}`) })}
         >
-          New revision from run {run.id}
+          New revision from Run {run.number}
         </Button>
       </div>
       {create.isError && <FormError message={errorMessage(create.error)} />}

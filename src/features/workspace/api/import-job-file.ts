@@ -15,7 +15,7 @@ export function useImportJobFile() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: importJobFile,
-    meta: { errorsShownInline: true, successMessage: 'Job file imported as a new model version.' },
+    meta: { errorsShownInline: true, successMessage: 'Job file imported as a new model save.' },
     onSuccess: (view) => {
       queryClient.setQueryData(getTrussModelQueryOptions(view.trussId).queryKey, view);
       return queryClient.invalidateQueries({ queryKey: ['trusses', view.trussId, 'runs'] });

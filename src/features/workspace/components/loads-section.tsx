@@ -12,14 +12,16 @@ interface LoadsSectionProps {
   form: DraftForm;
   joints: readonly Joint[];
   mayEdit: boolean;
-  /** Cases the saved roof takeoff writes: their joint loads are replaced when a run starts. */
-  takeoffCases: ReadonlySet<string>;
+  /** "Detach and edit by hand" for a case whose loads come from the roof takeoff; absent for readers. */
+  onDetach?: (caseId: string) => void;
+  /** Why detaching cannot happen now (unsaved edits, a save under way), or null. */
+  detachBlocked?: string | null;
 }
 
 const border = (error?: string) => (error ? 'border-danger' : 'border-paper-line');
 
 /** Load cases with their category, and every joint load in one table for exact entry and bulk edits. */
-export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSectionProps) {
+export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = null }: LoadsSectionProps) {
   const actions = draftActions(form);
   const caseArray = useFieldArray({ control: form.control, name: 'loadCases' });
   const loadArray = useFieldArray({ control: form.control, name: 'loads' });
@@ -31,9 +33,13 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
   const [caseFilter, setCaseFilter] = useState('');
   const errors = form.formState.errors;
   const tags = new Map(joints.map((j) => [j.id, j.tag]));
+  // Cases the roof takeoff wrote: their loads are shown read-only until detached (what is shown is what a run solves).
+  const fromTakeoff = new Set(cases.filter((c) => c.source === 'roof-loading').map((c) => c.id));
+  const [confirming, setConfirming] = useState<string | null>(null);
 
   const visible = loadArray.fields.map((f, i) => ({ f, i })).filter(({ i }) => !caseFilter || loads[i]?.caseId === caseFilter);
-  const allSelected = visible.length > 0 && visible.every(({ i }) => selected.has(i));
+  const editable = visible.filter(({ i }) => !fromTakeoff.has(loads[i]?.caseId ?? ''));
+  const allSelected = editable.length > 0 && editable.every(({ i }) => selected.has(i));
   const toggle = (i: number) =>
     setSelected((s) => {
       const next = new Set(s);
@@ -99,7 +105,22 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
                   </td>
                   <td className="figures px-2 py-2 text-right text-ink-soft">
                     {count}
-                    {c && takeoffCases.has(c.id) && <span className="ml-2 text-[11px] text-accent">from the roof takeoff</span>}
+                    {c && fromTakeoff.has(c.id) && (
+                      <span className="ml-2 text-[11px] text-accent">
+                        from the roof takeoff
+                        {mayEdit && onDetach && (
+                          <button
+                            type="button"
+                            className="ml-2 font-medium text-accent underline disabled:text-ink-faint disabled:no-underline"
+                            disabled={Boolean(detachBlocked)}
+                            title={detachBlocked ?? undefined}
+                            onClick={() => setConfirming(c.id)}
+                          >
+                            Detach and edit by hand
+                          </button>
+                        )}
+                      </span>
+                    )}
                   </td>
                   <RemoveCell show={Boolean(mayEdit && c)} onRemove={() => c && actions.removeCase(c.id)} />
                 </tr>
@@ -107,6 +128,29 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
             })}
           </tbody>
         </table>
+        {confirming && fromTakeoff.has(confirming) && onDetach && (
+          <div role="alertdialog" aria-label={`Detach the loads of case ${confirming}`} className="mt-2 rounded-md border border-compression/40 bg-compression/5 px-3 py-2 text-sm">
+            <p className="text-ink">
+              The roof takeoff will no longer update the loads of case {confirming}: they stay as they are now and become loads you edit by hand. Detach them?
+            </p>
+            <div className="mt-2 flex gap-2">
+              <Button
+                size="sm"
+                variant="primary"
+                onClick={() => {
+                  onDetach(confirming);
+                  setConfirming(null);
+                }}
+              >
+                Detach
+              </Button>
+              <Button size="sm" variant="quiet" onClick={() => setConfirming(null)}>
+                Cancel
+              </Button>
+            </div>
+          </div>
+        )}
+        {detachBlocked && fromTakeoff.size > 0 && mayEdit && <p className="mt-1 text-xs text-ink-soft">{detachBlocked}</p>}
         {mayEdit && (
           <div className="mt-2 flex items-center gap-2">
             <select aria-label="Category of the new load case" className={`${CELL_INPUT} ${border()} w-40`} value={newCategory} onChange={(e) => setNewCategory(e.target.value as LoadCategory)}>
@@ -180,7 +224,7 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
                     className="accent-accent"
                     aria-label="Select all loads shown"
                     checked={allSelected}
-                    onChange={() => setSelected(allSelected ? new Set() : new Set(visible.map(({ i }) => i)))}
+                    onChange={() => setSelected(allSelected ? new Set() : new Set(editable.map(({ i }) => i)))}
                   />
                 )}
               </th>
@@ -203,6 +247,21 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
               </tr>
             )}
             {visible.map(({ f, i }) => {
+              const l = loads[i];
+              if (l && fromTakeoff.has(l.caseId)) {
+                return (
+                  <tr key={f.id} className="border-b border-paper-line/70 align-top text-ink-soft" aria-label={`Load ${i + 1}: from the roof takeoff`}>
+                    <td className="px-2 py-2" />
+                    <td className="px-2 py-2">{l.caseId}</td>
+                    <td className="px-2 py-2">{tags.get(l.joint) ?? l.joint}</td>
+                    <td className="figures px-2 py-2 text-right">{Number(l.fx).toFixed(3)}</td>
+                    <td className="figures px-2 py-2 text-right">{Number(l.fy).toFixed(3)}</td>
+                    <td className="px-2 py-2 text-[11px] text-accent" colSpan={2}>
+                      from the roof takeoff
+                    </td>
+                  </tr>
+                );
+              }
               const e = errors.loads?.[i];
               const fxError = fieldErrorText(e?.fx?.message);
               const fyError = fieldErrorText(e?.fy?.message);
@@ -266,9 +325,9 @@ export function LoadsSection({ form, joints, mayEdit, takeoffCases }: LoadsSecti
             Add joint load
           </Button>
         )}
-        {[...takeoffCases].some((id) => cases.some((c) => c.id === id)) && (
+        {fromTakeoff.size > 0 && (
           <p className="mt-2 text-xs text-ink-soft">
-            Loads of the cases marked “from the roof takeoff” are recomputed from the takeoff when a run starts; edit the takeoff, not these rows.
+            Loads marked “from the roof takeoff” are the takeoff’s and read-only: change the takeoff and use its loads again, or detach a case to edit its loads by hand. A run solves the loads shown here.
           </p>
         )}
       </section>

@@ -13,6 +13,8 @@ import { ApiError, errorMessage } from '@/lib/api-client';
 import { formatDateTime } from '@/lib/format';
 import { getTrussModelQueryOptions, useTrussModel } from '../api/get-model';
 import { useSaveTrussModel } from '../api/save-model';
+import { useDetachLoads } from '../api/detach-loads';
+import { roofLoadsChanges, type RoofLoadsChange } from '@shared/model/roof-loads';
 import { draftForget, draftKeep, draftTake } from '../utils/draft-store';
 import {
   draftFromModelView,
@@ -90,6 +92,9 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
   });
   const takeoffForm = useForm<TakeoffFormValues>({ defaultValues: (kept?.takeoffValues as TakeoffFormValues | undefined) ?? takeoffDefaults(draftFromModelView(view).takeoff) });
   const save = useSaveTrussModel();
+  const detach = useDetachLoads();
+  /** "Use these loads" waiting for the engineer's confirmation: what it will change, per case. */
+  const [pendingUse, setPendingUse] = useState<{ input: TakeoffInput; result: RoofTakeoffResult; changes: RoofLoadsChange[] } | null>(null);
   const [conflict, setConflict] = useState<Conflict | null>(null);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [section, setSection] = useState<Section>('supports');
@@ -170,7 +175,6 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
   }, [view.model, groups, draftTakeoff, joints]);
   const topIds = useMemo(() => new Set(topChord.map((j) => j.id)), [topChord]);
   const purlins = useMemo(() => new Set((purlinPicks ?? topChord.map((j) => j.id)).filter((id) => topIds.has(id))), [purlinPicks, topChord, topIds]);
-  const takeoffCases = useMemo(() => new Set((draftTakeoff?.areaLoads ?? []).map((l) => l.caseId)), [draftTakeoff]);
 
   const caseShown = draftCases.some((c) => c.id === shownCase) ? shownCase : (draftCases[0]?.id ?? '');
   const arrows: JointArrow[] = draftLoads
@@ -209,14 +213,47 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           }
         : { onJointClick: (joint: Joint, at: { x: number; y: number }) => setPopover({ joint, at }) };
 
+  /** Marks (or, with null, unmarks) the draft's cases as holding the roof takeoff's loads. */
+  const markCases = (ids: ReadonlySet<string> | null) => {
+    const cases = form.getValues('loadCases') ?? [];
+    cases.forEach((c, i) => {
+      const marked = ids !== null && ids.has(c.id);
+      if (marked !== (c.source === 'roof-loading')) form.setValue(`loadCases.${i}.source`, marked ? 'roof-loading' : undefined, { shouldDirty: true });
+    });
+  };
+  // "Use these loads" first shows what it changes; nothing is saved until the engineer confirms.
   const useTakeoff = (input: TakeoffInput, result: RoofTakeoffResult) => {
+    const draft = form.getValues();
+    const cases = (draft.loadCases ?? []).map((c) => ({
+      ...c,
+      loads: (draft.loads ?? []).filter((l) => l.caseId === c.id).map((l) => ({ joint: l.joint, fx: Number(l.fx), fy: Number(l.fy) })),
+    }));
+    setPendingUse({ input, result, changes: roofLoadsChanges(cases, result.caseLoads) });
+  };
+  const confirmUse = () => {
+    if (!pendingUse) return;
+    const { input, result } = pendingUse;
+    const marked = (form.getValues('loadCases') ?? []).filter((c) => c.source === 'roof-loading').map((c) => c.id);
     form.setValue('takeoff', input, { shouldDirty: true });
     draftActions(form).replaceCaseLoads(result.caseLoads);
+    // The takeoff's cases are marked; one marked before stays marked (only detaching unmarks it).
+    markCases(new Set([...marked, ...Object.keys(result.caseLoads)]));
+    setPendingUse(null);
     void submit();
   };
   const removeTakeoff = () => {
     form.setValue('takeoff', null, { shouldDirty: true });
+    // Without a takeoff its cases keep their loads as hand loads.
+    markCases(null);
     void submit();
+  };
+  const detachCase = async (caseId: string) => {
+    setSaveError(null);
+    try {
+      loadView(await detach.mutateAsync({ trussId, input: { version: versionRef.current, caseId } }));
+    } catch (error) {
+      setSaveError(errorMessage(error));
+    }
   };
 
   const hint =
@@ -232,7 +269,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
     <form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Model and loads">
       <div className="sticky top-0 z-20 -mx-1 flex flex-wrap items-center justify-between gap-3 border-b border-paper-line bg-paper/95 px-1 py-2 backdrop-blur">
         <p className="text-xs text-ink-soft">
-          <span className="figures">Version {baseVersion}</span>
+          <span className="figures">Model save {baseVersion}</span>
           {view.updatedBy && ` · saved by ${view.updatedBy}, ${formatDateTime(view.updatedAt)}`}
           {!mayEdit && ' · read only: engineers change supports and loads'}
         </p>
@@ -255,13 +292,13 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           <p className="font-semibold text-ink">Not saved: someone else saved this model while you were editing.</p>
           <p className="mt-1 text-ink-soft">
             {conflict.theirs
-              ? `${conflict.theirs.updatedBy || 'Someone'} saved version ${conflict.theirs.version} at ${formatDateTime(conflict.theirs.updatedAt)}.`
+              ? `${conflict.theirs.updatedBy || 'Someone'} saved model save ${conflict.theirs.version} at ${formatDateTime(conflict.theirs.updatedAt)}.`
               : conflict.message}{' '}
-            Your edits are still here, unsaved. Load their version to see their changes (yours are dropped), or save yours over theirs.
+            Your edits are still here, unsaved. Load their save to see their changes (yours are dropped), or save yours over theirs.
           </p>
           <div className="mt-2 flex gap-2">
             <Button size="sm" onClick={() => conflict.theirs && loadView(conflict.theirs)} disabled={!conflict.theirs}>
-              Load their version
+              Load their save
             </Button>
             <Button
               size="sm"
@@ -354,12 +391,60 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
       <Panel>
         <fieldset disabled={!mayEdit} className="min-w-0">
           {section === 'supports' && <SupportsTable form={form} joints={joints} mayEdit={mayEdit} />}
-          {section === 'loads' && <LoadsSection form={form} joints={joints} mayEdit={mayEdit} takeoffCases={takeoffCases} />}
+          {section === 'loads' && (
+            <LoadsSection
+              form={form}
+              joints={joints}
+              mayEdit={mayEdit}
+              onDetach={(id) => void detachCase(id)}
+              detachBlocked={hasEdits ? 'Save or discard your changes before detaching loads from the roof takeoff.' : save.isPending || detach.isPending ? 'Saving…' : null}
+            />
+          )}
           {section === 'combinations' && <CombinationsSection form={form} mayEdit={mayEdit} />}
           {section === 'members' && (
             <MembersSection form={form} joints={joints} members={members} mayEdit={mayEdit} selected={selectedMembers} onSelect={setSelectedMembers} />
           )}
         </fieldset>
+        {section === 'takeoff' && pendingUse && (
+          <div role="alertdialog" aria-label="Use the roof takeoff's loads" className="mb-4 rounded-md border border-accent/40 bg-accent-soft/40 px-4 py-3 text-sm">
+            <p className="font-semibold text-ink">Use these loads? This saves the model with these changes:</p>
+            <table className="mt-2 border-collapse text-[13px]" aria-label="What using the takeoff's loads changes">
+              <thead>
+                <tr className="border-b border-paper-line text-left text-xs text-ink-soft">
+                  <th className="py-1 pr-4">Load case</th>
+                  <th className="py-1 pr-4">Change</th>
+                  <th className="py-1 pr-4 text-right">Loads now</th>
+                  <th className="py-1 pr-4 text-right">Total Fy now, kN</th>
+                  <th className="py-1 pr-4 text-right">Loads after</th>
+                  <th className="py-1 text-right">Total Fy after, kN</th>
+                </tr>
+              </thead>
+              <tbody>
+                {pendingUse.changes.map((c) => (
+                  <tr key={c.caseId} className="border-b border-paper-line/60">
+                    <td className="py-1 pr-4 font-medium">{c.caseId}</td>
+                    <td className="py-1 pr-4">{c.kind === 'added' ? 'loads added' : c.kind === 'replaced' ? 'loads replaced' : 'no change'}</td>
+                    <td className="figures py-1 pr-4 text-right">{c.before.count}</td>
+                    <td className="figures py-1 pr-4 text-right">{c.before.totalFy.toFixed(2)}</td>
+                    <td className="figures py-1 pr-4 text-right">{c.after.count}</td>
+                    <td className="figures py-1 text-right">{c.after.totalFy.toFixed(2)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+            <p className="mt-2 text-xs text-ink-soft">
+              These cases are then marked “from the roof takeoff” and read-only in the loads table; any other unsaved edits are saved with them.
+            </p>
+            <div className="mt-2 flex gap-2">
+              <Button size="sm" variant="primary" busy={save.isPending} onClick={confirmUse}>
+                Save these loads
+              </Button>
+              <Button size="sm" variant="quiet" onClick={() => setPendingUse(null)}>
+                Cancel
+              </Button>
+            </div>
+          </div>
+        )}
         {section === 'takeoff' && (
           <TakeoffSection
             trussId={trussId}

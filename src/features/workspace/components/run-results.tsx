@@ -49,14 +49,14 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
   const r = run.data;
 
   return (
-    <section aria-label={`Run ${r.id}`} className="flex flex-col gap-4">
+    <section aria-label={`Run ${r.number}`} className="flex flex-col gap-4">
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h2 className="text-lg font-semibold text-ink">
-            Run <span className="figures">{r.id}</span>
+            Run <span className="figures">{r.number}</span>
           </h2>
           <p className="text-xs text-ink-soft">
-            Model version <span className="figures">{r.modelVersion}</span> · run by {r.ranBy} · {formatDateTime(r.createdAt)}
+            Model save <span className="figures">{r.modelVersion}</span> · run by {r.ranBy} · {formatDateTime(r.createdAt)}
             {r.usedTakeoff && ' · loads from the roof takeoff'}
           </p>
           {r.stale && (

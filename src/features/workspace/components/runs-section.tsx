@@ -61,7 +61,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
       >
         {mayRun && model.data && (
           <p className="mb-3 text-xs text-ink-soft">
-            A run solves the saved model, version <span className="figures">{model.data.version}</span>, and keeps a copy of it with its results.
+            A run solves the saved model, model save <span className="figures">{model.data.version}</span>, and keeps a copy of it with its results.
             {draftIsKept(trussId) && ' You have unsaved edits on the Model & loads tab: save them first to include them.'}
           </p>
         )}
@@ -85,7 +85,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                   <th className={TH}>Run</th>
                   <th className={TH}>Status</th>
                   <th className={TH}>Truss</th>
-                  <th className={TH_RIGHT}>Model</th>
+                  <th className={TH_RIGHT}>Model save</th>
                   <th className={TH}>Ran by</th>
                   <th className={TH}>When</th>
                 </tr>
@@ -97,7 +97,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                     <tr key={r.id} className={`border-b border-paper-line/70 ${active ? 'bg-accent-soft/50' : 'hover:bg-paper'}`}>
                       <td className="px-2 py-1.5">
                         <button type="button" className="figures font-medium text-accent hover:underline" aria-current={active || undefined} onClick={() => select(r.id)}>
-                          Run {r.id}
+                          Run {r.number}
                         </button>
                       </td>
                       <td className="px-2 py-1.5">
@@ -111,7 +111,7 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                             : '—'}
                       </td>
                       <td className="figures px-2 py-1.5 text-right whitespace-nowrap">
-                        v{r.modelVersion}
+                        {r.modelVersion}
                         {r.stale && (
                           <span className="ml-2 text-[11px] font-medium text-compression" title="The model has been saved since this run: its results no longer match the model.">
                             stale: the model changed after this run

@@ -102,7 +102,7 @@ export function draftFromModelView(view: TrussModelView): ModelDraft {
   const parsedTakeoff = view.takeoff ? takeoffInputSchema.safeParse(view.takeoff) : null;
   return {
     supports: m.supports.map((s) => (s.kind === 'roller' ? { ...s, angleDeg: s.angleDeg ?? 90 } : { ...s })),
-    loadCases: m.loadCases.map(({ id, name, category }) => ({ id, name, category })),
+    loadCases: m.loadCases.map(({ id, name, category, source }) => ({ id, name, category, ...(source ? { source } : {}) })),
     loads: m.loadCases.flatMap((c) => c.loads.map((l) => ({ caseId: c.id, joint: l.joint, fx: l.fx, fy: l.fy, ...(l.note ? { note: l.note } : {}) }))),
     combinations: m.combinations.map((c) => ({ ...c, factors: { ...c.factors } })),
     members: m.members.map((mem) => ({
