@@ -25,8 +25,8 @@ function issuedInput(): CalcSheetInput {
   const withCombos: TrussModel = {
     ...model,
     combinations: [
-      { id: 'C1', name: '1.4D', factors: { D: 1.4 }, clause: 'ASCE/SEI 7-16 2.3.1 (1)' },
-      { id: 'C2', name: '1.2D + 1.6S', factors: { D: 1.2, S: 1.6 }, clause: 'ASCE/SEI 7-16 2.3.1 (3)' },
+      { name: '1.4D', factors: { D: 1.4 }, clause: 'ASCE/SEI 7-16 2.3.1 (1)' },
+      { name: '1.2D + 1.6S', factors: { D: 1.2, S: 1.6 }, clause: 'ASCE/SEI 7-16 2.3.1 (3)' },
     ],
   };
   return {
