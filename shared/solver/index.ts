@@ -12,6 +12,8 @@ export {
   symbolMember,
   symbolReaction,
   symbolLoad,
+  loadLetterFor,
+  loadLetterOf,
   type KatexOptions,
 } from './katex';
 export { caseSteps } from './steps';

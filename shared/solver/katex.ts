@@ -31,9 +31,30 @@ export function symbolReaction(jointTag: string, component: 'x' | 'y' | 'n'): st
   return component === 'n' ? `R_{${t}}` : `R_{${t},${component}}`;
 }
 
-/** KaTeX symbol of a load component at a joint: P_{C,x}, P_{C,y}. */
-export function symbolLoad(jointTag: string, component: 'x' | 'y'): string {
-  return `P_{${texText(jointTag)},${component}}`;
+/** Letters a joint load may be written with, in order of preference. */
+const LOAD_LETTERS = ['P', 'Q', 'W', 'G', 'H'] as const;
+
+/**
+ * The letter of the load symbols of a truss: P, unless a tag could be read as that letter — a
+ * joint tag starting with it (a joint "P" or "P2" beside the load "P"), or a member tag equal to
+ * it — then the next of Q, W, G, H that none does. When all clash, the first no tag equals. The
+ * load symbol always carries its joint and axis as a subscript (P_{C,y}) and the sheet's symbols
+ * list defines it, so even then it is qualified.
+ */
+export function loadLetterFor(jointTags: readonly string[], memberTags: readonly string[] = []): string {
+  const clashes = (letter: string) =>
+    jointTags.some((t) => t.toUpperCase().startsWith(letter)) || memberTags.some((t) => t.toUpperCase() === letter);
+  return LOAD_LETTERS.find((l) => !clashes(l)) ?? LOAD_LETTERS.find((l) => !jointTags.some((t) => t.toUpperCase() === l)) ?? 'P';
+}
+
+/** The load letter of a model (see {@link loadLetterFor}). */
+export function loadLetterOf(model: { joints: readonly { tag: string }[]; members: readonly { tag: string }[] }): string {
+  return loadLetterFor(model.joints.map((j) => j.tag), model.members.map((m) => m.tag));
+}
+
+/** KaTeX symbol of a load component at a joint: P_{C,x}, P_{C,y} (or the truss's own load letter). */
+export function symbolLoad(jointTag: string, component: 'x' | 'y', letter = 'P'): string {
+  return `${letter}_{${texText(jointTag)},${component}}`;
 }
 
 /** Formats a number with fixed decimals, never "-0.000". */

@@ -1,6 +1,6 @@
 import type { TrussModel } from '@shared/model/truss';
 import { SolverError } from './errors';
-import { symbolLoad, symbolMember, symbolReaction } from './katex';
+import { loadLetterFor, symbolLoad, symbolMember, symbolReaction } from './katex';
 
 /**
  * Internal, index-based view of a validated model. Member direction (cx, cy) runs from joint
@@ -247,6 +247,7 @@ export function modelPrepare(model: TrussModel): PreparedModel {
     }
   }
 
+  const loadLetter = loadLetterFor(jointTags, model.members.map((m) => m.tag));
   return {
     model,
     jointIds,
@@ -262,7 +263,7 @@ export function modelPrepare(model: TrussModel): PreparedModel {
     incident,
     cases,
     extent,
-    loadSymbolX: jointTags.map((t) => symbolLoad(t, 'x')),
-    loadSymbolY: jointTags.map((t) => symbolLoad(t, 'y')),
+    loadSymbolX: jointTags.map((t) => symbolLoad(t, 'x', loadLetter)),
+    loadSymbolY: jointTags.map((t) => symbolLoad(t, 'y', loadLetter)),
   };
 }

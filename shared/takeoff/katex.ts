@@ -7,6 +7,8 @@ import { texText } from '../text/safe-text';
 export interface TakeoffKatexOptions {
   /** 'si' (default): m, kPa, kN/m, kN. 'us': ft, psf, plf, kip. */
   system?: UnitSystemId;
+  /** The letter of the truss's joint loads (loadLetterOf in shared/solver); default P. */
+  loadLetter?: string;
 }
 
 const QUANTITY_OF: Partial<Record<TakeoffUnit, keyof (typeof UNIT_SYSTEMS)['si']>> = {
@@ -140,6 +142,7 @@ const text = texText;
  */
 export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions = {}): string {
   const system = options.system ?? 'si';
+  const L = options.loadLetter ?? 'P';
   const q = (key: string, withUnit = true, extra = 0) => quantity(find(step, key), system, withUnit, extra);
   const len = (metres: number, extra = 0) => quantity({ value: metres, unit: 'm' }, system, true, extra);
   const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
@@ -240,7 +243,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
       const c = step.chosen === 'exact' ? 'c_{\\mathrm{exact}}' : 'c_{\\mathrm{trib}}';
       for (const axis of ['x', 'y'] as const) {
         const e = operandExtra([find(step, 'perUnit'), find(step, `w${axis}`)], ([a, b]) => a * b, find(step, `f${axis}`), system);
-        lines.push(`&P_{${tag},${axis}} = ${c}\\,w_{${axis}} = ${q('perUnit', true, e)} \\times (${q(`w${axis}`, true, e)}) = ${q(`f${axis}`)}`);
+        lines.push(`&${L}_{${tag},${axis}} = ${c}\\,w_{${axis}} = ${q('perUnit', true, e)} \\times (${q(`w${axis}`, true, e)}) = ${q(`f${axis}`)}`);
       }
       return ['\\begin{aligned}', lines.join(' \\\\\n'), '\\end{aligned}'].join('\n');
     }
@@ -272,7 +275,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
         );
       }
       const chosen = step.chosen === 'exact' ? 'R_{\\mathrm{exact}}' : 'R_{\\mathrm{trib}}';
-      lines.push(`P_{${tag},y} &= -${chosen} = ${q('fy')}${step.pattern ? ` \\quad ${text(`(${step.pattern})`)}` : ''}`);
+      lines.push(`${L}_{${tag},y} &= -${chosen} = ${q('fy')}${step.pattern ? ` \\quad ${text(`(${step.pattern})`)}` : ''}`);
       return ['\\begin{aligned}', lines.join(' \\\\\n'), '\\end{aligned}'].join('\n');
     }
   }

@@ -3,7 +3,7 @@ import path from 'node:path';
 import Handlebars from 'handlebars';
 import type { CalcSheetView } from './calc-sheet-view';
 import { notoCssFor, sheetAssets, TEMPLATES_DIR } from './sheet-assets';
-import { forceLegendSvg } from './truss-svg';
+import { forceLegendSvg } from '@shared/drawing/truss-svg';
 
 /**
  * Turns a calc sheet view into one self-contained HTML document (fonts and styles inlined). The

@@ -1,7 +1,7 @@
 import type { TrussModel } from '@shared/model/truss';
 import type { CaseResult, TrussAnalysis } from '@shared/solver';
 import type { UnitSystemId } from '@shared/units';
-import { trussBands, type TrussBand } from '../truss-svg';
+import { trussBands, type TrussBand } from '@shared/drawing/truss-svg';
 import { formatters, tagOf, type Formatters } from './format';
 import type { CalcSheetInput, CalcSheetView, ContentsEntry, SummaryRow } from './types';
 

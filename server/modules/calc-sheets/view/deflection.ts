@@ -1,6 +1,6 @@
 import { num } from '@shared/design/steps';
 import { SHAPE_JOINT_LIMIT } from '@shared/design/deflected-shape';
-import { deflectedShapeSvg } from '../truss-svg';
+import { deflectedShapeSvg } from '@shared/drawing/truss-svg';
 import type { SheetSection } from './context';
 import type { TableRow } from './types';
 

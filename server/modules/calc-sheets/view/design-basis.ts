@@ -1,4 +1,7 @@
-import type { TrussAnalysis } from '@shared/solver';
+import type { TrussModel } from '@shared/model/truss';
+import { loadLetterOf, symbolLoad, symbolMember, symbolReaction, type TrussAnalysis } from '@shared/solver';
+import { texText } from '@shared/text/safe-text';
+import { katexHtml } from './format';
 import type { SheetSection } from './context';
 import type { CalcSheetInput } from './types';
 import { DESIGN_CAUTION } from './design-checks';
@@ -19,6 +22,7 @@ export const designBasisSection: SheetSection<'caution' | 'designBasis'> = {
           paragraphs: (input.project.designBasis ?? '').split(/\n\s*\n/).map((p) => p.trim()).filter(Boolean),
           clauses,
           method: methodLines(input, analysis),
+          symbols: symbolsOf(model, analysis),
         },
       },
       contents: [{ anchor: 'design-basis', title: 'Design basis and caution' }],
@@ -81,4 +85,50 @@ function methodLines(input: CalcSheetInput, analysis: TrussAnalysis): string[] {
     'Every result is checked by an independent residual of equilibrium at every joint.',
   );
   return lines;
+}
+
+/**
+ * The symbols list of the design basis: every symbol the steps of this sheet write, shown with a
+ * tag of this truss, and what it stands for, so each is defined before its first use (the design
+ * basis comes before every step). Only symbols the sheet uses are listed.
+ */
+function symbolsOf(model: TrussModel, analysis: TrussAnalysis): { html: string; tex: string; meaning: string }[] {
+  const out: { tex: string; meaning: string }[] = [];
+  const add = (tex: string, meaning: string) => out.push({ tex, meaning });
+  const member = model.members[0];
+  if (member) add(symbolMember(member.tag), `axial force in member ${member.tag} (each member by its tag); tension positive, marked (T), compression negative, marked (C)`);
+  const pin = model.supports.find((s) => s.kind === 'pin');
+  const roller = model.supports.find((s) => s.kind === 'roller');
+  const tagOf = (id: string) => model.joints.find((j) => j.id === id)?.tag ?? id;
+  if (pin) {
+    const t = tagOf(pin.joint);
+    add(`${symbolReaction(t, 'x')},\\ ${symbolReaction(t, 'y')}`, `reaction of the support at joint ${t} along x and along y, positive toward +x and +y (y up)`);
+  }
+  if (roller) {
+    const t = tagOf(roller.joint);
+    const norm = (((roller.kind === 'roller' ? roller.angleDeg : 90) % 180) + 180) % 180;
+    const shown = norm === 90 ? 'y' : norm === 0 ? 'x' : 'n';
+    add(symbolReaction(t, shown), shown === 'n' ? `reaction of the roller at joint ${t}, along its reaction line (normal to its rolling surface)` : `reaction of the roller at joint ${t}, along ${shown} (its reaction line)`);
+  }
+  const loaded = model.loadCases.flatMap((c) => c.loads).find((l) => Math.hypot(l.fx, l.fy) > 0);
+  if (loaded) {
+    const t = tagOf(loaded.joint);
+    const letter = loadLetterOf(model);
+    add(`${symbolLoad(t, 'x', letter)},\\ ${symbolLoad(t, 'y', letter)}`, `load applied at joint ${t} along x and along y, positive toward +x and +y${letter === 'P' ? '' : ` (written ${letter} here, as a joint tag of this truss starts with P)`}`);
+  }
+  add('\\Sigma F_x = 0,\\ \\Sigma F_y = 0', 'equilibrium of a joint: the sum of the forces on it along x, and along y, is zero');
+  if (analysis.cases.some((c) => c.reactionSteps.length)) {
+    const about = tagOf(model.supports[0]?.joint ?? model.joints[0]?.id ?? 'A');
+    add(`\\Sigma M_{${texText(about)}} = 0`, `the sum of the moments about a joint (about ${about}, for one) is zero; moments counter-clockwise positive, lever arms in m`);
+  }
+  add('(\\cos, \\sin)', 'direction cosines of a force’s line of action at a joint: of a member, from the joint toward its far end');
+  add('m,\\ r,\\ j', 'numbers of members, of reaction components and of joints (the determinacy count m + r against 2j)');
+  if (analysis.cases.some((c) => c.method === 'stiffness')) {
+    const j = model.joints.find((p) => !model.supports.some((s) => s.joint === p.id))?.tag ?? model.joints[0]?.tag ?? 'A';
+    add('k = EA/L', 'axial stiffness of a member: modulus E times area A over length L');
+    add(`u_{${texText(j)}},\\ v_{${texText(j)}}`, `movement of joint ${j} along x and along y`);
+    if (roller) add(`t_{${texText(tagOf(roller.joint))}}`, `movement of the roller joint ${tagOf(roller.joint)} along its rolling line (its one free movement)`);
+    add('\\mathbf{K}\\,\\mathbf{u} = \\mathbf{P}', 'the stiffness equations: K the assembled stiffness matrix, u the joint movements, P the joint loads, each in the order of u');
+  }
+  return out.map((s) => ({ ...s, html: katexHtml(s.tex, false) }));
 }

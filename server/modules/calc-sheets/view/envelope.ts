@@ -1,4 +1,4 @@
-import { forceSenseOf } from '../truss-svg';
+import { forceSenseOf } from '@shared/drawing/truss-svg';
 import type { SheetSection } from './context';
 
 /** Each member's largest tension and compression and what governs, over the combinations (or the cases). */

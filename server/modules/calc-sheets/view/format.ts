@@ -2,7 +2,7 @@ import katex from 'katex';
 import type { JointLoad, TrussModel } from '@shared/model/truss';
 import { stepToKatex, type SolverStep } from '@shared/solver';
 import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
-import { forceSenseOf, jointFbdSvg } from '../truss-svg';
+import { forceSenseOf, jointFbdSvg } from '@shared/drawing/truss-svg';
 import type { StepView } from './types';
 import { breakableTex } from '@shared/text/breakable-tex';
 

@@ -1,4 +1,4 @@
-import { trussGeometrySvg } from '../truss-svg';
+import { trussGeometrySvg } from '@shared/drawing/truss-svg';
 import type { SheetSection } from './context';
 
 /** The truss drawn with its dimensions, and the tables of joint coordinates and members. */

@@ -138,7 +138,13 @@ export interface CalcSheetView {
   /** Section number by anchor ("1", "2", …), in the order of the contents. */
   numbers: Record<string, string>;
   caution: string;
-  designBasis: { paragraphs: string[]; clauses: string[]; method: string[] };
+  designBasis: {
+    paragraphs: string[];
+    clauses: string[];
+    method: string[];
+    /** The symbols the sheet's steps use, each typeset (KaTeX HTML) with what it stands for. */
+    symbols: { html: string; tex: string; meaning: string }[];
+  };
   geometry: { svg: string; jointRows: TableRow[]; memberRows: TableRow[] };
   supports: { rows: TableRow[]; materialRows: TableRow[]; materialNote: string };
   takeoff: StepView[];

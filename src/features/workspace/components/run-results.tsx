@@ -346,7 +346,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
 
           <Panel title={caseResult ? `Joint by joint — load case ${caseResult.caseId} (${caseResult.method === 'stiffness' ? 'direct stiffness method' : 'method of joints'})` : 'Joint by joint'}>
             {caseResult ? (
-              <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+              <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
                 <div className="lg:sticky lg:top-2 lg:self-start">
                   <TrussSvg
                     label="Joints of the steps: point at a step to see its joint"
@@ -363,7 +363,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
                   />
                   <p className="mt-2 text-xs text-ink-soft">Point at a step to see its joint here; click a joint to find its step.</p>
                 </div>
-                <SolverSteps steps={steps} activeStep={activeStep?.id ?? null} onActivate={setActiveStep} onHover={setHoverJoints} />
+                <SolverSteps steps={steps} activeStep={activeStep?.id ?? null} onActivate={setActiveStep} onHover={setHoverJoints} unitSystem={unitSystem} />
               </div>
             ) : (
               <p className="text-sm text-ink-soft">The equations are written per load case: choose a load case above to read them. Combinations add the cases’ forces with their factors.</p>

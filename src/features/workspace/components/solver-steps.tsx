@@ -1,5 +1,8 @@
 import { useEffect, useMemo, useRef } from 'react';
 import { stepToKatex, stepsOperandDecimals, type SolverStep } from '@shared/solver';
+import { jointFbdSvg } from '@shared/drawing/truss-svg';
+import type { UnitSystemId } from '@shared/units';
+import { FORCE_ZERO_KN, forceText } from '../utils/force-format';
 import { stepJoints } from '../utils/run-results';
 import { Tex } from './tex';
 
@@ -9,6 +12,8 @@ interface SolverStepsProps {
   activeStep: string | null;
   onActivate: (step: SolverStep) => void;
   onHover: (joints: string[] | null) => void;
+  /** Units of the free-body diagrams' force labels. */
+  unitSystem: UnitSystemId;
 }
 
 const KIND_LABEL: Partial<Record<SolverStep['kind'], string>> = {
@@ -24,8 +29,20 @@ const KIND_LABEL: Partial<Record<SolverStep['kind'], string>> = {
   check: 'Equilibrium check',
 };
 
-/** The solver's steps typeset with KaTeX; each step with joints lights them on the diagram. */
-export function SolverSteps({ steps, activeStep, onActivate, onHover }: SolverStepsProps) {
+/**
+ * A joint step's free-body diagram, drawn by the same code as the calc sheet's
+ * (shared/drawing/truss-svg.ts). The SVG is our own string with every label escaped.
+ */
+function JointFbd({ step, unitSystem }: { step: Extract<SolverStep, { kind: 'joint' }>; unitSystem: UnitSystemId }) {
+  const svg = useMemo(() => jointFbdSvg(step, { formatForce: (kN) => forceText(kN, unitSystem), zeroTolerance: FORCE_ZERO_KN }), [step, unitSystem]);
+  return <figure className="m-0 self-start rounded border border-paper-line bg-white [&>svg]:block [&>svg]:h-auto [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: svg }} />;
+}
+
+/**
+ * The solver's steps typeset with KaTeX; each step with joints lights them on the diagram. A
+ * joint step shows its free-body diagram beside its equations, as the calc sheet does.
+ */
+export function SolverSteps({ steps, activeStep, onActivate, onHover, unitSystem }: SolverStepsProps) {
   const listRef = useRef<HTMLOListElement>(null);
   useEffect(() => {
     if (!activeStep) return;
@@ -53,9 +70,18 @@ export function SolverSteps({ steps, activeStep, onActivate, onHover }: SolverSt
               <span className="font-semibold text-ink">{step.title}</span>
               <span className="text-ink-faint">{KIND_LABEL[step.kind]}</span>
             </p>
-            {stepToKatex(step, { operandDecimals: operand.get(step.id) }).map((line, i) => (
-              <Tex key={i} source={line} />
-            ))}
+            {step.kind === 'joint' ? (
+              <div className="mt-1 grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,21rem)_minmax(0,1fr)]">
+                <JointFbd step={step} unitSystem={unitSystem} />
+                <div className="min-w-0">
+                  {stepToKatex(step, { operandDecimals: operand.get(step.id) }).map((line, i) => (
+                    <Tex key={i} source={line} />
+                  ))}
+                </div>
+              </div>
+            ) : (
+              stepToKatex(step, { operandDecimals: operand.get(step.id) }).map((line, i) => <Tex key={i} source={line} />)
+            )}
           </li>
         );
       })}

@@ -1,4 +1,4 @@
-import { trussGeometrySvg } from '../../truss-svg';
+import { trussGeometrySvg } from '@shared/drawing/truss-svg';
 import type { CasePart } from './case-context';
 
 /** The case's loads: drawn on the truss and listed joint by joint. */

@@ -1,4 +1,4 @@
-import { forceDiagramSvg, forceSenseOf } from '../../truss-svg';
+import { forceDiagramSvg, forceSenseOf } from '@shared/drawing/truss-svg';
 import type { CasePart } from './case-context';
 
 /** Member forces of the case: the table (tension +, compression −) and the force diagram. */

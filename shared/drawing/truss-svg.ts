@@ -3,8 +3,9 @@ import type { JointForce, JointStep } from '@shared/solver';
 import type { DeflectedShape } from '@shared/design/deflected-shape';
 
 /**
- * SVG drawings for the calc sheet: the truss with tags and dimensions, the loads of a case, the
- * member force diagram, and a small free-body diagram per joint. Pure string building (no DOM).
+ * SVG drawings of a truss, shared by the calc sheet (server) and the app's run results (client):
+ * the truss with tags and dimensions, the loads of a case, the member force diagram, and a small
+ * free-body diagram per joint. Pure string building (no DOM, no I/O), so both print the same.
  *
  * Model coordinates are metres, y up; drawings use a 1000-unit-wide view box, y down, and scale
  * to the width of the page. Tension, compression and zero force are told apart by colour, line
@@ -100,7 +101,8 @@ function haloText(x: number, y: number, text: string, attrs: string): string {
  * subscript lowered and smaller, never the raw underscore. Other labels are escaped as they are.
  */
 export function subscriptText(text: string, size: number): string {
-  const m = /^([A-Za-z])_([^\s=]+)(.*)$/s.exec(text);
+  // The subscript runs to " = " (a tag may hold spaces), or to the end of a bare symbol.
+  const m = /^([A-Za-z])_(.+?)((?: = .*)?)$/s.exec(text);
   if (!m) return svgEscape(text);
   const shift = f1(size * 0.25);
   return `${svgEscape(m[1])}<tspan dy="${shift}" font-size="${f1(size * 0.72)}">${svgEscape(m[2])}</tspan><tspan dy="-${shift}">${svgEscape(m[3])}</tspan>`;
@@ -372,10 +374,22 @@ export interface JointFbdOptions {
   zeroTolerance: number;
 }
 
-function forceLabel(f: JointForce, kind: 'member' | 'other', fmt: (kN: number) => string, tol: number): string {
-  const name = f.ref.type === 'member' ? f.label : f.label;
-  if (f.value === null) return kind === 'member' ? `${name} = ?` : `${name} = ?`;
-  if (kind === 'member') {
+/**
+ * The plain symbol of a force on a joint, written the way {@link subscriptText} typesets it and
+ * matching the equations' KaTeX symbol: member "F_AB", reaction "R_A,y" (or "R_M" along a roller's
+ * line), load "P_C,y" (the letter the solver chose for loads: one no joint or member tag uses).
+ */
+export function forceSymbolText(f: JointForce, jointTag: string): string {
+  if (f.ref.type === 'member') return `F_${f.label}`;
+  if (f.ref.type === 'reaction') return f.label;
+  const letter = /^([A-Za-z])_/.exec(f.symbol)?.[1] ?? 'P';
+  return `${letter}_${jointTag},${f.ref.component}`;
+}
+
+function forceLabel(f: JointForce, jointTag: string, fmt: (kN: number) => string, tol: number): string {
+  const name = forceSymbolText(f, jointTag);
+  if (f.value === null) return `${name} = ?`;
+  if (f.ref.type === 'member') {
     const s = forceSenseOf(f.value, tol);
     return s === '0' ? `${name} = 0` : `${name} = ${fmt(Math.abs(f.value))} (${s})`;
   }
@@ -394,10 +408,51 @@ function clampLabel(x: number, anchor: 'start' | 'middle' | 'end', text: string,
   return x + shift;
 }
 
+/** Applied loads: solid blue line, filled head. */
+export const LOAD_STYLE = { stroke: '#1d4ed8', width: 2 } as const;
+/** Support reactions: violet dashed line, open head, a short bar across the tail. */
+export const REACTION_STYLE = { stroke: '#6d28d9', width: 2, dash: '5 3' } as const;
+/** How far (view units) a reaction is drawn beside a load on the same line. */
+const REACTION_OFFSET = 14;
+
+/** A reaction arrow from (tail) to (tip) along (ux, uy): dashed, open head, bar across the tail. */
+function reactionArrow(tailX: number, tailY: number, tipX: number, tipY: number, ux: number, uy: number): string {
+  const st = REACTION_STYLE;
+  const size = 10;
+  const px = -uy;
+  const py = ux;
+  const bx = tipX - ux * size;
+  const by = tipY - uy * size;
+  return (
+    `<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(bx)}" y2="${f1(by)}" stroke="${st.stroke}" stroke-width="${st.width}" stroke-dasharray="${st.dash}"/>` +
+    `<line x1="${f1(tailX + px * 5)}" y1="${f1(tailY + py * 5)}" x2="${f1(tailX - px * 5)}" y2="${f1(tailY - py * 5)}" stroke="${st.stroke}" stroke-width="${st.width}"/>` +
+    `<path d="M${f1(tipX)} ${f1(tipY)} L${f1(bx + px * size * 0.38)} ${f1(by + py * size * 0.38)} L${f1(bx - px * size * 0.38)} ${f1(by - py * size * 0.38)} Z" fill="#fff" stroke="${st.stroke}" stroke-width="1.6" stroke-linejoin="round"/>`
+  );
+}
+
+/** The key under a free-body diagram: how a load and a reaction are drawn. */
+function fbdKey(height: number, load: boolean, reaction: boolean): string {
+  const y = height - 9;
+  const parts: string[] = [];
+  let x = 8;
+  if (load) {
+    parts.push(`<line x1="${x}" y1="${y - 4}" x2="${x + 22}" y2="${y - 4}" stroke="${LOAD_STYLE.stroke}" stroke-width="${LOAD_STYLE.width}"/>`, arrowHead(x + 30, y - 4, 1, 0, 9, LOAD_STYLE.stroke));
+    parts.push(`<text x="${x + 36}" y="${y}" font-size="10.5" fill="${LOAD_STYLE.stroke}">load</text>`);
+    x += 84;
+  }
+  if (reaction) {
+    parts.push(reactionArrow(x, y - 4, x + 30, y - 4, 1, 0));
+    parts.push(`<text x="${x + 36}" y="${y}" font-size="10.5" fill="${REACTION_STYLE.stroke}">reaction</text>`);
+  }
+  return `<g class="fbd-key">${parts.join('')}</g>`;
+}
+
 /**
  * A joint's free-body diagram: the joint, a stub of each member with its force arrow (unknowns
  * drawn as tension, away from the joint; known forces in their actual sense), and loads and
- * reactions as arrows onto the joint, each labelled.
+ * reactions as arrows onto the joint, each labelled with its symbol as the equations write it
+ * (F_AB, R_A,y, P_C,y with the subscript lowered). Loads and reactions differ in colour, line
+ * (solid or dashed) and head (filled or open), and a reaction on a load's line is drawn beside it.
  */
 export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
   // Wide enough for "AB = 123.45 kN (C)" beyond a horizontal member's stub on either side.
@@ -414,6 +469,8 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
   ];
   const labels: string[] = [];
   const memberDirs = all.filter(({ f }) => f.ref.type === 'member').map(({ f }): [number, number] => [f.cx, -f.cy]);
+  const loadDirs = all.filter(({ f }) => f.ref.type === 'load' && f.value !== null && Math.abs(f.value) > 1e-12).map(({ f }): [number, number] => [f.cx, -f.cy]);
+  const hasReaction = all.some(({ f }) => f.ref.type === 'reaction' && !(f.value !== null && Math.abs(f.value) <= 1e-12));
   const used: [number, number][] = [];
   const place = (x: number, y: number): [number, number] => {
     let py = y;
@@ -448,7 +505,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
         out.push(`<line x1="${f1(cx + ux * tailD)}" y1="${f1(cy + uy * tailD)}" x2="${f1(cx + ux * (tipD - dir * 8))}" y2="${f1(cy + uy * (tipD - dir * 8))}" stroke="${st.stroke}" stroke-width="2"${dash}/>`);
         out.push(arrowHead(cx + ux * tipD, cy + uy * tipD, ux * dir, uy * dir, 10, st.stroke));
       }
-      const text = forceLabel(f, 'member', options.formatForce, options.zeroTolerance);
+      const text = forceLabel(f, step.jointTag, options.formatForce, options.zeroTolerance);
       const style = `font-size="12" font-weight="${unknown ? 700 : 500}" fill="${unknown ? INK : st.ink}" class="tnum"`;
       const [lx, ly] = place(cx + ux * (len + 6), cy + uy * (len + 6) + 4);
       const anchor = ux > 0.3 ? 'start' : ux < -0.3 ? 'end' : 'middle';
@@ -472,21 +529,32 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
       const tipY = cy + side * dy * tipD;
       const tailX = cx + side * dx * tailD;
       const tailY = cy + side * dy * tailD;
-      const colour = f.ref.type === 'load' ? '#1d4ed8' : '#6d28d9';
-      out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - dx * 8)}" y2="${f1(tipY - dy * 8)}" stroke="${colour}" stroke-width="2"/>`);
-      out.push(arrowHead(tipX, tipY, dx, dy, 10, colour));
-      const endX = cx + side * dx * (far + 8);
-      const endY = cy + side * dy * (far + 8);
+      const isLoad = f.ref.type === 'load';
+      const colour = isLoad ? LOAD_STYLE.stroke : REACTION_STYLE.stroke;
+      // A reaction on the line of a load at this joint is drawn beside it, never on it, so the two
+      // cannot read as one double-headed arrow; it also has its own dashed line and open head.
+      const shift = !isLoad && loadDirs.some(([lx, ly]) => Math.abs(lx * dy - ly * dx) < 0.1) ? REACTION_OFFSET : 0;
+      const ox = -dy * shift;
+      const oy = dx * shift;
+      if (isLoad) {
+        out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - dx * 8)}" y2="${f1(tipY - dy * 8)}" stroke="${colour}" stroke-width="${LOAD_STYLE.width}"/>`);
+        out.push(arrowHead(tipX, tipY, dx, dy, 10, colour));
+      } else {
+        out.push(reactionArrow(tailX + ox, tailY + oy, tipX + ox, tipY + oy, dx, dy));
+      }
+      const endX = cx + side * dx * (far + 8) + ox;
+      const endY = cy + side * dy * (far + 8) + oy;
       const [lx, ly] = place(endX, endY + 4);
       const ax = side * dx;
       const anchor = ax > 0.3 ? 'start' : ax < -0.3 ? 'end' : 'middle';
       const ay = side * dy;
-      const text = f.ref.type === 'load' ? `P = ${options.formatForce(Math.abs(f.value ?? 0))}` : forceLabel(f, 'other', options.formatForce, options.zeroTolerance);
+      const text = forceLabel(f, step.jointTag, options.formatForce, options.zeroTolerance);
       labels.push(haloText(clampLabel(lx, anchor, text, W), ly + (ay > 0.5 ? 8 : ay < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
     }
   }
   out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="#fff" stroke="${INK}" stroke-width="2"/>`);
   out.push(haloText(cx + 10, cy - 10, step.jointTag, `font-size="14" font-weight="700" fill="${INK}"`));
+  if (loadDirs.length || hasReaction) out.push(fbdKey(H, loadDirs.length > 0, hasReaction));
   out.push(...labels, '</svg>');
   return out.join('');
 }
