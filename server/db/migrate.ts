@@ -10,6 +10,7 @@ import * as m0007 from './migrations/0007-signing-keys-and-record-guards';
 import * as m0008 from './migrations/0008-import-limits';
 import * as m0011 from './migrations/0011-print-jobs';
 import * as m0015 from './migrations/0015-email-settings';
+import * as m0016 from './migrations/0016-audit-chain-head';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
@@ -23,6 +24,7 @@ const MIGRATIONS = [
   { name: '0008-import-limits', ...m0008 },
   { name: '0011-print-jobs', ...m0011 },
   { name: '0015-email-settings', ...m0015 },
+  { name: '0016-audit-chain-head', ...m0016 },
 ];
 
 export async function migrate(sequelize: Sequelize): Promise<void> {
