@@ -14,7 +14,7 @@ export default {
         danger: '#a33a2b',
       },
       fontFamily: {
-        sans: ['Inter', 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'system-ui', 'sans-serif'],
+        sans: ['Inter', 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans KR', 'Noto Sans Thai', 'system-ui', 'sans-serif'],
       },
     },
   },

@@ -2,15 +2,19 @@
  * `npm run -s audit:verify`: checks the sheet audit log's hash chain in the database of
  * DATA_DIR (default `data`), or of DATABASE_URL when that names a PostgreSQL server, line by line from the first, without changing anything.
  *
- * Prints "OK: …" and exits 0 when every line follows the one before it; prints the first
- * broken line and why and exits 1 when not; exits 2 with one line on stderr when there is no
- * database to check.
+ * The keyed lines are checked with the audit key in DATA_DIR (audit-chain-key.json); lines from
+ * before keying with their plain SHA-256.
+ *
+ * Prints "OK: …" and exits 0 when every line follows the one before it and the chain head
+ * matches; prints the first break and why and exits 1 when not; exits 2 with one line on stderr
+ * when there is no database to check, or the log is keyed and the key file is not there.
  */
 import fs from 'node:fs';
 import { loadConfig } from '../server/config';
 import { openDatabase } from '../server/db/sequelize';
 import { initModels } from '../server/db/models';
-import { auditChainVerify } from '../server/modules/records/audit-chain';
+import path from 'node:path';
+import { AUDIT_KEY_FILE, auditChainVerify, auditKeyLoad, auditKeyUse } from '../server/modules/records/audit-chain';
 
 async function main(): Promise<number> {
   const config = loadConfig(process.env);
@@ -33,7 +37,14 @@ async function main(): Promise<number> {
       console.error(`${where} has no sheet audit log; start Panelpoint once so its migrations run, then check again.`);
       return 2;
     }
+    const key = auditKeyLoad(path.join(config.dataDir, AUDIT_KEY_FILE));
+    if (key) auditKeyUse(sequelize, key);
     const result = await auditChainVerify();
+    if (!result.ok && !result.broken) {
+      // Keyed, but no key here: nothing could be checked.
+      console.error(result.message);
+      return 2;
+    }
     console.log(result.ok ? result.message : `BROKEN: ${result.message}`);
     return result.ok ? 0 : 1;
   } finally {

@@ -16,7 +16,7 @@ import { runsFailInterrupted } from './modules/runs/runs.service';
 import type { FileStore } from './storage/file-store';
 import { fileStoresOpen, type FileStores } from './storage/stores';
 import { signingKeysOpen, type SigningKeys } from './modules/records/signing-keys';
-import { auditChainSealExisting } from './modules/records/audit-chain';
+import { auditChainSealExisting, auditKeyOpen } from './modules/records/audit-chain';
 import { sweepOrphans, tightenModes } from './storage/file-hygiene';
 
 /** An unreferenced upload younger than this may be another process's request in flight. */
@@ -91,6 +91,15 @@ export async function startServices(config: Config, options: { clientDir?: strin
     if (tightened) say(`Made ${tightened} file(s) and folder(s) in the data and uploads folders readable by this user only (files 0600, folders 0700).`);
   } else if (stores.kind === 'local') {
     await tightenModes([config.uploadsDir]);
+  }
+  // The audit key (a file beside the signing key), before anything writes an audit line: a keyed
+  // log whose key file is missing or replaced refuses the start with one sentence.
+  try {
+    await auditKeyOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
+  } catch (err) {
+    await sequelize.close();
+    stores.close();
+    throw err;
   }
   await runsFailInterrupted();
   await sweepLeftovers(stores, say);

@@ -11,6 +11,14 @@ import '@fontsource/noto-sans-hebrew/400.css';
 import '@fontsource/noto-sans-hebrew/700.css';
 import '@fontsource/noto-sans-devanagari/400.css';
 import '@fontsource/noto-sans-devanagari/700.css';
+// Chinese (with Japanese kana), Korean and Thai: some hundred faces per CJK package, each with its
+// unicode-range, so the browser fetches only the few subsets a page's characters fall in.
+import '@fontsource/noto-sans-sc/400.css';
+import '@fontsource/noto-sans-sc/700.css';
+import '@fontsource/noto-sans-kr/400.css';
+import '@fontsource/noto-sans-kr/700.css';
+import '@fontsource/noto-sans-thai/400.css';
+import '@fontsource/noto-sans-thai/700.css';
 import './index.css';
 
 import { StrictMode } from 'react';

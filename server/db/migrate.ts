@@ -11,6 +11,7 @@ import * as m0008 from './migrations/0008-import-limits';
 import * as m0011 from './migrations/0011-print-jobs';
 import * as m0014 from './migrations/0014-run-numbers';
 import * as m0015 from './migrations/0015-email-settings';
+import * as m0016 from './migrations/0016-audit-chain-head';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
@@ -25,6 +26,7 @@ const MIGRATIONS = [
   { name: '0011-print-jobs', ...m0011 },
   { name: '0014-run-numbers', ...m0014 },
   { name: '0015-email-settings', ...m0015 },
+  { name: '0016-audit-chain-head', ...m0016 },
 ];
 
 /** The migrations' names, in the order they run. */

@@ -298,6 +298,9 @@ export interface AuditChainView {
   ok: boolean;
   /** Lines checked. */
   lines: number;
+  /** Of those, lines sealed before the audit key existed (plain SHA-256), and lines sealed with it (HMAC). */
+  beforeKeying: number;
+  keyed: number;
   /** Hash of the last line (64 zeros for an empty log). */
   lastHash: string;
   /** The first line that breaks the chain, or null. */

@@ -6,7 +6,9 @@ import { hasUnsafeText, plainText, texText } from './safe-text';
 /**
  * Property tests over random strings from a seeded generator (no fast-check in the install): the
  * characters TeX gives a meaning to, bidi controls, control characters, lone surrogates,
- * combining marks and text in Arabic, Hebrew, Devanagari, Cyrillic and CJK. The checks lean on
+ * combining marks and text in Arabic, Hebrew, Devanagari, Cyrillic, Chinese, Japanese kana
+ * (with a combining voiced mark), Korean (syllables and conjoining jamo) and Thai (with its
+ * vowel and tone marks). The checks lean on
  * sources outside this file: KaTeX itself (renderToString with throwOnError), and the Unicode
  * Character Database as the JS regex engine carries it (\p{Bidi_Control}, \p{Cc}, NFC).
  */
@@ -22,7 +24,10 @@ const SCRIPTS = [
   'צומת', 'א', // Hebrew
   'बिंदु', 'क्ष', // Devanagari with a virama conjunct
   'Узел', 'Ж', // Cyrillic
-  '节点', 'の', // CJK
+  '节点', '荷重', '﨑', // Han (U+FA11 from the compatibility block)
+  'の', 'カタカナ', '\u304B\u3099', 'ｶﾅ', // kana: か with a combining voiced mark (NFC: が), half-width katakana
+  '절점', '\u1100\u1161', 'ㄱ', // Hangul: a syllable, conjoining jamo ᄀ+ᅡ (NFC: 가), a compatibility jamo
+  'จุดต่อ', 'น้ำ', '\u0E33', // Thai: vowel and tone marks above and below, a lone sara am
   'é', 'ß', 'Ω', '°', '×', '−', '–', '—', '’', '…', '🙂',
 ];
 const PLAIN = ['A', 'b', 'Z', '0', '7', ' ', '-', '--', "'", '`', '"', '.', ',', ':', '/', '(', ')', '[', ']', '<', '>', '|', '!', '?', '@', '+', '=', '*', '\\P', '\\text', '\\\\'];
@@ -135,7 +140,11 @@ describe('texText and plainText over random strings', () => {
       if (/\p{Script=Hebrew}/u.test(s)) seen.add('hebrew');
       if (/\p{Script=Devanagari}/u.test(s)) seen.add('devanagari');
       if (/\p{M}/u.test(s)) seen.add('mark');
+      if (/\p{Script=Han}/u.test(s)) seen.add('han');
+      if (/[\p{Script=Hiragana}\p{Script=Katakana}]/u.test(s)) seen.add('kana');
+      if (/\p{Script=Hangul}/u.test(s)) seen.add('hangul');
+      if (/\p{Script=Thai}/u.test(s)) seen.add('thai');
     }
-    expect([...seen].sort()).toEqual(['arabic', 'bidi', 'devanagari', 'hebrew', 'mark', 'surrogate', 'tex']);
+    expect([...seen].sort()).toEqual(['arabic', 'bidi', 'devanagari', 'han', 'hangul', 'hebrew', 'kana', 'mark', 'surrogate', 'tex', 'thai']);
   });
 });

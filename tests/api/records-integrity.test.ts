@@ -179,13 +179,16 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     const res = await tab.admin.agent.get('/api/admin/audit-chain').expect(200);
     expect(res.body).toMatchObject({ ok: true, broken: null, lines: await SheetRevisionEvent.count() });
     expect((await tab.reviewer.agent.get('/api/admin/audit-chain')).status).toBe(403);
-    // Line 1 recomputed here: SHA-256 of the JSON with keys in code-unit order, prevHash 64 zeros.
+    // Line 1 recomputed here: HMAC-SHA-256 (RFC 2104, Node's crypto) under the audit key file's
+    // secret of the JSON with keys in code-unit order, prevHash 64 zeros.
     const first = (await SheetRevisionEvent.findOne({ order: [['id', 'ASC']] }))!;
     const text =
       `{"actorId":${first.actorId},"at":${JSON.stringify(new Date(first.at).toISOString())},"fromStatus":null,"id":${first.id},` +
       `"note":${JSON.stringify(first.note)},"prevHash":"${'0'.repeat(64)}","revisionId":${first.revisionId},"toStatus":"draft"}`;
     expect(first.prevHash).toBe('0'.repeat(64));
-    expect(first.hash).toBe(sha(Buffer.from(text, 'utf8')));
+    const secret = Buffer.from(JSON.parse(fs.readFileSync(path.join(dataDir, 'audit-chain-key.json'), 'utf8')).secret, 'hex');
+    expect(first.hash).toBe(crypto.createHmac('sha256', secret).update(text, 'utf8').digest('hex'));
+    expect(first.hash).not.toBe(sha(Buffer.from(text, 'utf8')));
     const second = (await SheetRevisionEvent.findOne({ where: { id: first.id + 1 } }))!;
     expect(second.prevHash).toBe(first.hash);
     const cmd = await run(tsx, [path.join(root, 'scripts', 'audit-verify.ts')], { cwd: root, env: { ...process.env, DATA_DIR: dataDir, ...databaseEnv(services) } });
@@ -220,7 +223,7 @@ describe('signing keys, issued-record guards and the audit chain (real SQLite fi
     );
     expect(cmd.code).toBe(1);
     expect(cmd.stdout).toContain(`BROKEN: The audit log is broken at line ${middle.id} (sheet revision ${middle.revisionId}`);
-    expect(cmd.stdout).toMatch(/content no longer matches its hash/);
+    expect(cmd.stdout).toMatch(/content no longer matches its keyed hash/);
     const api = await tab.admin.agent.get('/api/admin/audit-chain').expect(200);
     expect(api.body).toMatchObject({ ok: false, broken: { eventId: middle.id, revisionId: middle.revisionId } });
   });

@@ -56,10 +56,65 @@ const NOTO_FACES: { pkg: string; family: string; subsets: string[] }[] = [
 ];
 const NOTO_WEIGHTS = [400, 700] as const;
 
-interface FontFace {
-  css: string;
-  /** Inclusive code point ranges of the face's unicode-range. */
+/** Unicode blocks (The Unicode Standard, Blocks.txt), inclusive code point ranges. */
+const HAN_AND_KANA: [number, number][] = [
+  [0x2e80, 0x2fff], // CJK Radicals Supplement, Kangxi Radicals, Ideographic Description Characters
+  [0x3000, 0x312f], // CJK Symbols and Punctuation, Hiragana, Katakana, Bopomofo
+  [0x3190, 0x33ff], // Kanbun … CJK Compatibility (Bopomofo Extended, CJK Strokes, Katakana Phonetic Extensions, Enclosed CJK)
+  [0x3400, 0x4dbf], // CJK Unified Ideographs Extension A
+  [0x4e00, 0x9fff], // CJK Unified Ideographs
+  [0xf900, 0xfaff], // CJK Compatibility Ideographs
+  [0xfe10, 0xfe1f], // Vertical Forms
+  [0xfe30, 0xfe4f], // CJK Compatibility Forms
+  [0xff00, 0xffef], // Halfwidth and Fullwidth Forms
+  [0x20000, 0x3ffff], // Supplementary and Tertiary Ideographic Planes
+];
+const HANGUL: [number, number][] = [
+  [0x1100, 0x11ff], // Hangul Jamo
+  [0x3130, 0x318f], // Hangul Compatibility Jamo
+  [0xa960, 0xa97f], // Hangul Jamo Extended-A
+  [0xac00, 0xd7ff], // Hangul Syllables, Hangul Jamo Extended-B
+];
+const THAI: [number, number][] = [[0x0e00, 0x0e7f]];
+
+/**
+ * Chinese (with Japanese kana), Korean and Thai: @fontsource/noto-sans-sc, -kr and -thai. The CJK
+ * packages split their font into about a hundred numbered subsets by unicode-range; each subset is
+ * its own face here, so a sheet carries only the subsets its characters fall in. Each face's range
+ * is cut down to its script's blocks (`blocks`): the numbered subsets also hold Latin letters and
+ * punctuation, which Inter prints, and a Latin-only sheet must not pull any of them in.
+ *
+ * These faces join the 'Noto Sans' family (one family may be made of faces with different
+ * unicode-ranges, CSS Fonts Level 4 §4.5), so every font stack that names 'Noto Sans' (the sheet's
+ * CSS, KaTeX's stacks, the drawings' SVG) reaches them without being edited. Where two faces of
+ * the family cover one character the face declared last is tried first (§4.5): Korean comes before
+ * Chinese in the list, so a Han character prints in the Chinese face when it has it and in the
+ * Korean face otherwise.
+ */
+const nfcStable = (c: number) => String.fromCodePoint(c).normalize('NFC') === String.fromCodePoint(c);
+const CJK_FACES: { pkg: string; family: string; subsets: RegExp; blocks: [number, number][]; keep?: (c: number) => boolean }[] = [
+  { pkg: 'noto-sans-kr', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: [...HANGUL, ...HAN_AND_KANA] },
+  // Of the CJK Compatibility Ideographs block the Chinese package keeps only the twelve unified
+  // ideographs in it (﨑 U+FA11, …: the characters NFC leaves alone). Its unicode-ranges also name
+  // compatibility ideographs it has no glyph for (U+F9E1, for one), which the Korean package has.
+  { pkg: 'noto-sans-sc', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: HAN_AND_KANA, keep: (c) => c < 0xf900 || c > 0xfaff || nfcStable(c) },
+  { pkg: 'noto-sans-thai', family: 'Noto Sans', subsets: /^(thai)$/, blocks: THAI },
+];
+
+export interface FontFace {
+  family: string;
+  weight: number;
+  /** The woff2 file, read when the face is first inlined. */
+  file: string;
+  /** The face's unicode-range as written in its @font-face rule. */
+  range: string;
+  /** Inclusive code point ranges of `range`. */
   ranges: [number, number][];
+  /**
+   * The faces joined to 'Noto Sans' from the CJK and Thai packages: their place in `CJK_FACES`.
+   * Of two such faces that cover one character only the later one's is needed (it is tried first).
+   */
+  joinedRank?: number;
 }
 
 function parseUnicodeRange(range: string): [number, number][] {
@@ -72,26 +127,87 @@ function parseUnicodeRange(range: string): [number, number][] {
   });
 }
 
+/** The parts of `ranges` inside `blocks`. */
+function rangesWithin(ranges: [number, number][], blocks: [number, number][]): [number, number][] {
+  const out: [number, number][] = [];
+  for (const [lo, hi] of ranges) {
+    for (const [blo, bhi] of blocks) {
+      const a = Math.max(lo, blo);
+      const b = Math.min(hi, bhi);
+      if (a <= b) out.push([a, b]);
+    }
+  }
+  return out.sort((x, y) => x[0] - y[0]);
+}
+
+/** `ranges` with the code points `keep` refuses taken out (all of them kept without `keep`). */
+function rangesKept(ranges: [number, number][], keep?: (c: number) => boolean): [number, number][] {
+  if (!keep) return ranges;
+  const out: [number, number][] = [];
+  for (const [lo, hi] of ranges) {
+    for (let c = lo; c <= hi; c++) {
+      if (!keep(c)) continue;
+      const last = out[out.length - 1];
+      if (last && last[1] === c - 1) last[1] = c;
+      else out.push([c, c]);
+    }
+  }
+  return out;
+}
+
+function unicodeRangeText(ranges: [number, number][]): string {
+  const hex = (n: number) => n.toString(16).toUpperCase();
+  return ranges.map(([lo, hi]) => (lo === hi ? `U+${hex(lo)}` : `U+${hex(lo)}-${hex(hi)}`)).join(',');
+}
+
+function fontsourceRanges(pkg: string): { dir: string; ranges: Record<string, string> } {
+  const dir = require_(`@fontsource/${pkg}`);
+  return { dir, ranges: JSON.parse(fs.readFileSync(path.join(dir, 'unicode.json'), 'utf8')) as Record<string, string> };
+}
+
 function notoFaces(): FontFace[] {
   const faces: FontFace[] = [];
   for (const { pkg, family, subsets } of NOTO_FACES) {
-    const dir = require_(`@fontsource/${pkg}`);
-    const ranges = JSON.parse(fs.readFileSync(path.join(dir, 'unicode.json'), 'utf8')) as Record<string, string>;
+    const { dir, ranges } = fontsourceRanges(pkg);
     for (const subset of subsets) {
       const range = ranges[subset];
       if (!range) throw new Error(`@fontsource/${pkg} has no unicode range for the "${subset}" subset; reinstall the package.`);
       for (const weight of NOTO_WEIGHTS) {
-        const file = path.join(dir, 'files', `${pkg}-${subset}-${weight}-normal.woff2`);
-        faces.push({
-          css:
-            `@font-face{font-family:'${family}';font-style:normal;font-weight:${weight};font-display:block;` +
-            `src:url(${dataUri(file, 'font/woff2')}) format('woff2');unicode-range:${range}}`,
-          ranges: parseUnicodeRange(range),
-        });
+        faces.push({ family, weight, file: path.join(dir, 'files', `${pkg}-${subset}-${weight}-normal.woff2`), range, ranges: parseUnicodeRange(range) });
       }
     }
   }
+  for (const [rank, { pkg, family, subsets, blocks, keep }] of CJK_FACES.entries()) {
+    const { dir, ranges } = fontsourceRanges(pkg);
+    let found = 0;
+    for (const [key, range] of Object.entries(ranges)) {
+      const m = subsets.exec(key);
+      if (!m) continue;
+      const within = rangesKept(rangesWithin(parseUnicodeRange(range), blocks), keep);
+      if (within.length === 0) continue;
+      found += 1;
+      for (const weight of NOTO_WEIGHTS) {
+        faces.push({
+          family,
+          weight,
+          file: path.join(dir, 'files', `${pkg}-${m[1]}-${weight}-normal.woff2`),
+          range: unicodeRangeText(within),
+          ranges: within,
+          joinedRank: rank,
+        });
+      }
+    }
+    if (found === 0) throw new Error(`@fontsource/${pkg} has no subset in its script's blocks; reinstall the package.`);
+  }
   return faces;
+}
+
+/** The face's @font-face rule with its font file as a data: URI (read when asked for: the CJK faces are some 11 MB together). */
+function faceCss(face: FontFace): string {
+  return (
+    `@font-face{font-family:'${face.family}';font-style:normal;font-weight:${face.weight};font-display:block;` +
+    `src:url(${dataUri(face.file, 'font/woff2')}) format('woff2');unicode-range:${face.range}}`
+  );
 }
 
 /**
@@ -162,17 +278,51 @@ export function sheetAssetsReset(): void {
   cached = null;
 }
 
-/** Matches any character outside Basic Latin, Latin-1 and Latin Extended-A/B (which Inter covers). */
+/** Matches any character outside Basic Latin, Latin-1 and Latin Extended-A/B (which Inter covers; code points from U+0250 on). */
 const BEYOND_LATIN = /[^\u0000-\u024F]/gu;
+
+/** Code point → the faces whose range holds it, built once per set of faces. */
+const faceIndexes = new WeakMap<FontFace[], Map<number, FontFace[]>>();
+
+function faceIndex(faces: FontFace[]): Map<number, FontFace[]> {
+  let index = faceIndexes.get(faces);
+  if (!index) {
+    index = new Map();
+    for (const face of faces) {
+      for (const [lo, hi] of face.ranges) {
+        // The installed faces' widest range spans under a thousand code points; a far wider one is a changed package.
+        if (hi - lo > 0x10000) throw new Error(`A Noto face's unicode-range U+${lo.toString(16)}-${hi.toString(16)} is wider than expected; check the @fontsource packages.`);
+        for (let c = Math.max(lo, 0x250); c <= hi; c++) {
+          const list = index.get(c);
+          if (list) list.push(face);
+          else index.set(c, [face]);
+        }
+      }
+    }
+    faceIndexes.set(faces, index);
+  }
+  return index;
+}
 
 /**
  * The @font-face rules of the Noto faces whose unicode-range holds a character of `text`: the
- * faces a sheet needs, and only those (empty for a sheet in Latin script alone).
+ * faces a sheet needs, and only those (empty for a sheet in Latin script alone), in the order the
+ * faces are listed (which decides the Korean/Chinese overlap, see `CJK_FACES`).
  */
 export function notoCssFor(text: string): string {
-  const codes = new Set<number>();
-  for (const m of text.matchAll(BEYOND_LATIN)) codes.add(m[0].codePointAt(0)!);
-  if (codes.size === 0) return '';
-  const wanted = sheetAssets().notoFaces.filter((face) => [...codes].some((c) => face.ranges.some(([lo, hi]) => c >= lo && c <= hi)));
-  return wanted.map((f) => f.css).join('\n');
+  return notoFacesFor(text).map(faceCss).join('\n');
+}
+
+/** The Noto faces `notoCssFor` inlines for `text`. */
+export function notoFacesFor(text: string): FontFace[] {
+  const faces = sheetAssets().notoFaces;
+  const index = faceIndex(faces);
+  const wanted = new Set<FontFace>();
+  for (const m of text.matchAll(BEYOND_LATIN)) {
+    const covering = index.get(m[0].codePointAt(0)!) ?? [];
+    // Of the joined faces only the package tried first for this character (the highest rank).
+    const top = Math.max(-1, ...covering.map((f) => f.joinedRank ?? -1));
+    for (const face of covering) if (face.joinedRank === undefined || face.joinedRank === top) wanted.add(face);
+  }
+  return faces.filter((f) => wanted.has(f));
 }

@@ -1,6 +1,7 @@
 import { fn, col, QueryTypes } from 'sequelize';
 import type { ProjectView, TrussView } from '@shared/schemas/project.schema';
 import { Project, Truss } from '../../db/models';
+import { sqlDateIso } from '../../db/sql-dates';
 
 /** A project row, as a model instance or as the raw row of a list query. */
 type ProjectRow = Pick<Project, 'id' | 'name' | 'jobNumber' | 'client' | 'site' | 'designBasis' | 'unitSystem' | 'archived' | 'createdAt' | 'updatedAt'>;
@@ -15,8 +16,8 @@ function toProjectView(p: ProjectRow, trussCount: number): ProjectView {
     designBasis: p.designBasis,
     unitSystem: p.unitSystem,
     archived: Boolean(p.archived),
-    createdAt: new Date(p.createdAt).toISOString(),
-    updatedAt: new Date(p.updatedAt).toISOString(),
+    createdAt: sqlDateIso(p.createdAt),
+    updatedAt: sqlDateIso(p.updatedAt),
     trussCount,
   };
 }
@@ -26,8 +27,8 @@ export function toTrussView(t: Truss): TrussView {
     id: t.id,
     projectId: t.projectId,
     name: t.name,
-    createdAt: new Date(t.createdAt).toISOString(),
-    updatedAt: new Date(t.updatedAt).toISOString(),
+    createdAt: sqlDateIso(t.createdAt),
+    updatedAt: sqlDateIso(t.updatedAt),
   };
 }
 

@@ -1,6 +1,7 @@
 import { QueryTypes, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
 import { Project, SheetRevision, SheetRevisionEvent, Truss } from '../../db/models';
+import { sqlDate } from '../../db/sql-dates';
 
 /**
  * Reads of what is kept: sheet revisions as stored (the issued ones are frozen by the
@@ -67,7 +68,7 @@ export interface ArchiveLineRow {
   supersededByNumber: number | null;
 }
 
-const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : new Date(v as string));
+const toDate = (v: unknown): Date | null => (v === null || v === undefined ? null : sqlDate(v as string));
 
 export function revisionRow(r: SheetRevision | RevisionRow): RevisionRow {
   const p = (r instanceof SheetRevision ? r.get({ plain: true }) : r) as unknown as RevisionRow;
@@ -77,8 +78,8 @@ export function revisionRow(r: SheetRevision | RevisionRow): RevisionRow {
     checkedAt: toDate(p.checkedAt),
     issuedAt: toDate(p.issuedAt),
     supersededAt: toDate(p.supersededAt),
-    createdAt: new Date(p.createdAt),
-    updatedAt: new Date(p.updatedAt),
+    createdAt: sqlDate(p.createdAt),
+    updatedAt: sqlDate(p.updatedAt),
   };
 }
 

@@ -13,6 +13,18 @@ export function AuditChain() {
       <p role="status" className={c.ok ? 'text-ink' : 'font-medium text-danger'}>
         {c.message}
       </p>
+      {c.lines > 0 && (
+        <p className="text-[13px] text-ink-soft">
+          <span className="figures">{c.keyed}</span> line(s) sealed with the audit key
+          {c.beforeKeying > 0 && (
+            <>
+              {', '}
+              <span className="figures">{c.beforeKeying}</span> from before keying (checked by their plain hash, as before)
+            </>
+          )}
+          .
+        </p>
+      )}
       {c.broken && (
         <dl className="grid grid-cols-[9rem_1fr] gap-x-3 gap-y-1 text-[13px]">
           <dt className="text-ink-soft">Audit line</dt>
