@@ -10,14 +10,14 @@ export const MESSAGES_AFTER_TOUCH = { mode: 'onTouched', reValidateMode: 'onChan
 // A ruled box on the sheet ground, 2 px corners; in focus the rule turns accent and thickens at
 // the foot (an inset 1 px line), like a line being written on.
 const CONTROL_LOOK =
-  'rounded-sm border bg-paper-raised px-2.5 text-sm text-ink placeholder:text-ink-faint focus:border-accent focus:shadow-[inset_0_-1px_0_0_var(--color-accent)] focus:outline-none disabled:border-dashed disabled:bg-paper-sunk disabled:text-ink-soft';
+  'rounded-sm border bg-paper-raised px-2.5 text-sm text-ink placeholder:text-ink-faint focus:border-accent focus:shadow-[inset_0_-1px_0_0_var(--pp-accent)] focus:outline-none disabled:border-dashed disabled:bg-paper-sunk disabled:text-ink-soft';
 const CONTROL = `w-full ${CONTROL_LOOK}`;
 
 /** The look of a bare control outside a labelled field (a filter box labelled by aria-label). */
 export const CONTROL_CLASS = `${CONTROL_LOOK} h-8 border-paper-rule`;
 
 function borderFor(error?: string) {
-  return error ? 'border-danger shadow-[inset_0_-1px_0_0_var(--color-danger)]' : 'border-paper-rule';
+  return error ? 'border-danger shadow-[inset_0_-1px_0_0_var(--pp-danger)]' : 'border-paper-rule';
 }
 
 interface FrameProps {
@@ -30,20 +30,24 @@ interface FrameProps {
 
 function FieldFrame({ id, label, error, hint, children }: FrameProps) {
   return (
-    <div className="flex flex-col gap-1.5">
+    <div className="flex flex-col gap-1">
       <label htmlFor={id} className="text-[13px] leading-4 font-medium text-ink">
         {label}
       </label>
       {children}
+      {/* One line is kept for the message even while there is none, so a message that appears
+          when a field is left does not push the button being clicked out from under the pointer. */}
       {error ? (
-        <p id={`${id}-error`} className="border-l-2 border-danger pl-2 text-[13px] leading-4 text-danger">
+        <p id={`${id}-error`} className="min-h-4 border-l-2 border-danger pl-2 text-[13px] leading-4 text-danger">
           {error}
         </p>
       ) : hint ? (
-        <p id={`${id}-hint`} className="text-[13px] leading-4 text-ink-faint">
+        <p id={`${id}-hint`} className="min-h-4 text-[13px] leading-4 text-ink-faint">
           {hint}
         </p>
-      ) : null}
+      ) : (
+        <span aria-hidden className="block min-h-4" />
+      )}
     </div>
   );
 }
