@@ -9,7 +9,7 @@ export default {
     extend: {
       colors: {
         // table: the ground; raised: a sheet laid on it; sunk: the calc pad; line: the ruled edge.
-        paper: { DEFAULT: '#f4f1ea', raised: '#fdfcf9', sunk: '#eceee8', line: '#cfc8ba', rule: '#aaa293' },
+        paper: { DEFAULT: '#f4f1ea', raised: '#fdfcf9', sunk: '#eceee8', line: '#cfc8ba', rule: '#8a8275' },
         // Graphite, in three weights of pencil. Faint is the lightest that still reads as text (≥ 4.5:1).
         ink: { DEFAULT: '#26292b', soft: '#4f5357', faint: '#65696c' },
         accent: { DEFAULT: '#0f5a55', hover: '#0a4541', soft: '#dbe8e4' },
