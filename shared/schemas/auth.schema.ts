@@ -1,12 +1,12 @@
 import { z } from 'zod';
 
-export const roleSchema = z.enum(['drafter', 'engineer', 'reviewer', 'admin']);
+export const roleSchema = z.enum(['drafter', 'engineer', 'reviewer', 'admin'], { error: 'Choose a role: drafter, engineer, reviewer or admin.' });
 export type Role = z.infer<typeof roleSchema>;
 export const ROLES: readonly Role[] = roleSchema.options;
 
 export const signInSchema = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address like name@firm.com.'),
-  password: z.string().min(1, 'Enter your password.').max(200),
+  password: z.string().min(1, 'Enter your password.').max(200, 'Passwords here are at most 200 characters; check what was pasted.'),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
@@ -47,14 +47,14 @@ export interface PasswordResetRequested {
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(20).max(200),
-  name: z.string().trim().min(1, 'Enter your name.').max(120),
+  name: z.string().trim().min(1, 'Enter your name as it should read on sheets, e.g. "Eli Marsh".').max(120, 'Shorten your name to 120 characters or fewer.'),
   password: passwordSchema,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
 
 export const inviteUserSchema = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address like name@firm.com.'),
-  name: z.string().trim().min(1, 'Enter the person’s name.').max(120),
+  name: z.string().trim().min(1, 'Enter the person’s name, e.g. "Dana Whitlock".').max(120, 'Shorten the name to 120 characters or fewer.'),
   role: roleSchema,
 });
 export type InviteUserInput = z.infer<typeof inviteUserSchema>;

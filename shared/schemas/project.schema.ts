@@ -1,14 +1,14 @@
 import { z } from 'zod';
 
-export const unitSystemSchema = z.enum(['SI', 'US']);
+export const unitSystemSchema = z.enum(['SI', 'US'], { error: 'Choose the units: SI or US.' });
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
 const projectFields = {
-  name: z.string().trim().min(1, 'Enter a project name.').max(160),
-  jobNumber: z.string().trim().min(1, 'Enter the job number.').max(40),
-  client: z.string().trim().max(160),
-  site: z.string().trim().max(240),
-  designBasis: z.string().trim().max(2000),
+  name: z.string().trim().min(1, 'Enter a project name, e.g. "Riverside depot roof".').max(160, 'Shorten the project name to 160 characters or fewer.'),
+  jobNumber: z.string().trim().min(1, 'Enter the job number, e.g. 24-031.').max(40, 'Shorten the job number to 40 characters or fewer.'),
+  client: z.string().trim().max(160, 'Shorten the client to 160 characters or fewer.'),
+  site: z.string().trim().max(240, 'Shorten the site to 240 characters or fewer.'),
+  designBasis: z.string().trim().max(2000, 'Shorten the design basis to 2000 characters or fewer.'),
   unitSystem: unitSystemSchema,
 };
 
@@ -43,7 +43,7 @@ export interface ProjectView {
 }
 
 export const trussInputSchema = z.object({
-  name: z.string().trim().min(1, 'Enter a truss name, e.g. "T1 – typical interior truss".').max(160),
+  name: z.string().trim().min(1, 'Enter a truss name, e.g. "T1 – typical interior truss".').max(160, 'Shorten the truss name to 160 characters or fewer.'),
 });
 export type TrussInput = z.infer<typeof trussInputSchema>;
 
@@ -55,10 +55,10 @@ export interface TrussView {
   updatedAt: string;
 }
 
-export const paperSizeSchema = z.enum(['A4', 'Letter']);
+export const paperSizeSchema = z.enum(['A4', 'Letter'], { error: 'Choose the paper size: A4 or Letter.' });
 export const firmSettingsSchema = z.object({
-  name: z.string().trim().min(1, 'Enter the firm name.').max(160),
-  address: z.string().trim().max(400).default(''),
+  name: z.string().trim().min(1, 'Enter the firm name, as it should read on every sheet.').max(160, 'Shorten the firm name to 160 characters or fewer.'),
+  address: z.string().trim().max(400, 'Shorten the address to 400 characters or fewer.').default(''),
   paperSize: paperSizeSchema.default('A4'),
 });
 export type FirmSettings = z.infer<typeof firmSettingsSchema>;

@@ -1,7 +1,6 @@
 import type { ReactNode } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
-import { Badge } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { Wordmark } from '@/components/ui/wordmark';
 import { useSession } from '@/features/auth/api/get-session';
@@ -56,10 +55,11 @@ function NavItem({ to, children }: { to: string; children: ReactNode }) {
     <NavLink
       to={to}
       className={({ isActive }) =>
-        `relative flex h-full items-center px-3 text-sm transition-colors ${
+        // The open page is marked by a 3 px accent rule along the top edge of the bar, over its word.
+        `relative flex h-full items-center px-3 text-sm ${
           isActive
-            ? 'font-semibold text-ink after:absolute after:inset-x-3 after:-bottom-px after:h-0.5 after:bg-accent'
-            : 'text-ink-soft hover:text-ink'
+            ? 'font-semibold text-ink before:absolute before:inset-x-2 before:top-0 before:h-[3px] before:bg-accent'
+            : 'text-ink-soft hover:text-ink hover:underline hover:decoration-paper-rule hover:underline-offset-4'
         }`
       }
     >
@@ -76,7 +76,7 @@ export function AppShell() {
 
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="border-b border-paper-line bg-paper-raised/70">
+      <header className="border-b border-ink-soft bg-paper">
         <div className="mx-auto flex min-h-14 max-w-6xl flex-wrap items-stretch gap-x-6 px-6">
           <NavLink to="/projects" className="flex items-center" aria-label="Panelpoint, projects">
             <Wordmark />
@@ -87,7 +87,7 @@ export function AppShell() {
             <NavItem to="/verify">Verify</NavItem>
             {isAdmin(user.role) && (
               <>
-                <span aria-hidden className="mx-2 my-4 w-px bg-paper-line" />
+                <span aria-hidden className="mx-2 my-4 w-px bg-paper-rule" />
                 <NavItem to="/admin/users">Users</NavItem>
                 <NavItem to="/admin/outbox">Outbox</NavItem>
                 <NavItem to="/admin/firm">Firm</NavItem>
@@ -97,12 +97,12 @@ export function AppShell() {
           <div className="ml-auto flex h-14 items-center gap-3">
             <NavLink to="/account" className="hidden text-right leading-tight hover:underline sm:block" title="Your account and password">
               <div className="text-sm font-medium text-ink">{user.name}</div>
-              <div className="hidden text-[11px] text-ink-faint lg:block">{user.email}</div>
+              <div className="hidden text-[12px] text-ink-faint lg:block">{user.email}</div>
             </NavLink>
             <NavLink to="/account" className="text-sm text-ink-soft hover:text-ink sm:hidden">
               Account
             </NavLink>
-            <Badge tone="accent">{ROLE_LABELS[user.role]}</Badge>
+            <span className="border-l border-paper-rule pl-3 text-[13px] text-ink-soft">{ROLE_LABELS[user.role]}</span>
             <Button
               size="sm"
               variant="quiet"
@@ -114,7 +114,7 @@ export function AppShell() {
           </div>
         </div>
       </header>
-      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8">
+      <main className="mx-auto w-full max-w-6xl flex-1 px-6 pt-7 pb-12">
         <Outlet />
       </main>
       <Footer />
@@ -124,7 +124,7 @@ export function AppShell() {
 
 export function Footer() {
   return (
-    <footer className="border-t border-paper-line">
+    <footer className="border-t border-paper-rule">
       <p className="mx-auto max-w-6xl px-6 py-3 text-xs text-ink-faint">{CAUTION}</p>
     </footer>
   );

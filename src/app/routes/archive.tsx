@@ -1,5 +1,6 @@
 import { useDeferredValue } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { CONTROL_CLASS } from '@/components/ui/field';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useArchive } from '@/features/records/api/get-archive';
@@ -44,7 +45,7 @@ export function ArchiveRoute() {
           onChange={(e) => update({ q: e.target.value })}
           placeholder="Job number, project or truss"
           aria-label="Search the archive"
-          className="h-9 w-80 rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+          className={`${CONTROL_CLASS} w-80`}
         />
         <label className="flex items-center gap-2 text-sm text-ink-soft">
           <input type="checkbox" checked={withSuperseded} onChange={(e) => update({ superseded: e.target.checked })} className="accent-accent" />

@@ -2,20 +2,21 @@ import type { ReactNode } from 'react';
 import { Wordmark } from '@/components/ui/wordmark';
 import { CAUTION } from '../app-shell';
 
-/** A quiet page for signing in and joining: the mark, a card, the caution line. */
+/** A quiet page for signing in and joining: the mark, one sheet, the caution line. */
 export function AuthLayout({ title, lead, children }: { title: string; lead?: ReactNode; children: ReactNode }) {
   return (
     <div className="flex min-h-screen flex-col">
       <main className="flex flex-1 flex-col items-center px-6 pt-[12vh] pb-12">
         <Wordmark size="lg" />
-        <section className="mt-8 w-full max-w-sm rounded-lg border border-paper-line bg-paper-raised px-7 py-7 shadow-[0_1px_0_rgba(43,45,47,0.04)]">
-          <h1 className="text-lg font-semibold text-ink">{title}</h1>
+        {/* A single sheet on the drafting table: ruled edge, square corners, the title ruled off. */}
+        <section className="mt-8 w-full max-w-sm rounded-xs border border-paper-rule bg-paper-raised px-7 pt-5 pb-7">
+          <h1 className="border-b border-ink-soft pb-2 text-lg font-semibold text-ink">{title}</h1>
           {lead && <p className="mt-1 text-sm text-ink-soft">{lead}</p>}
           <div className="mt-5">{children}</div>
         </section>
         <TrussSketch />
       </main>
-      <footer className="border-t border-paper-line">
+      <footer className="border-t border-paper-rule">
         <p className="mx-auto max-w-6xl px-6 py-3 text-center text-xs text-ink-faint">{CAUTION}</p>
       </footer>
     </div>

@@ -3,7 +3,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { ProjectView } from '@shared/schemas/project.schema';
 import { Button } from '@/components/ui/button';
 import { Badge, PageHeader, Panel } from '@/components/ui/page-header';
-import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { EmptyState, ErrorState, LoadingState, NoteLine } from '@/components/ui/states';
 import { useProject } from '@/features/projects/api/get-project';
 import { useUpdateProject } from '@/features/projects/api/update-project';
 import { ProjectDetails } from '@/features/projects/components/project-details';
@@ -87,9 +87,9 @@ function ProjectLoaded({ project }: { project: ProjectView }) {
       />
 
       {project.archived && (
-        <p className="mb-6 rounded-md border border-paper-line bg-paper-sunk px-4 py-2.5 text-sm text-ink-soft">
+        <NoteLine className="mb-6">
           This project is archived: it stays readable, and no trusses can be added until it is unarchived.
-        </p>
+        </NoteLine>
       )}
 
       <div className={`grid grid-cols-1 gap-6 ${editing ? 'lg:grid-cols-[minmax(0,34rem)_1fr]' : 'lg:grid-cols-[minmax(0,22rem)_1fr]'}`}>

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { CONTROL_CLASS } from '@/components/ui/field';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useProjects } from '@/features/projects/api/get-projects';
@@ -53,7 +54,7 @@ export function ProjectsRoute() {
           onChange={(e) => setFilter(e.target.value)}
           placeholder="Filter by job number, name, client or site"
           aria-label="Filter projects"
-          className="h-9 w-full max-w-sm rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+          className={`${CONTROL_CLASS} w-full max-w-sm`}
         />
         <label className="flex items-center gap-2 text-sm text-ink-soft">
           <input type="checkbox" checked={includeArchived} onChange={(e) => setIncludeArchived(e.target.checked)} className="accent-accent" />

@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
+import { buttonClass } from '@/components/ui/button';
 import { PageHeader, Panel } from '@/components/ui/page-header';
-import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { EmptyState, ErrorState, LoadingState, NoteLine } from '@/components/ui/states';
 import { sheetPreviewUrl, useSheet } from '@/features/sheet-revisions/api/get-sheet';
 import { SheetActions } from '@/features/sheet-revisions/components/sheet-actions';
 import { SheetAuditLog } from '@/features/sheet-revisions/components/sheet-audit-log';
@@ -64,7 +65,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
               href={sheetPreviewUrl(s.id)}
               target="_blank"
               rel="noreferrer"
-              className="inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
+              className={buttonClass('secondary')}
             >
               Open sheet in a new tab
             </a>
@@ -72,7 +73,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
               <a
                 href={archivedPdfUrl(s.id)}
                 download
-                className="inline-flex h-9 items-center rounded-md border border-accent bg-accent px-4 text-sm font-medium text-paper-raised hover:bg-accent-hover"
+                className={buttonClass('primary')}
               >
                 Download issued PDF
               </a>
@@ -82,13 +83,13 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
       />
 
       {s.supersededBy && (
-        <p className="mb-4 rounded-md border border-paper-line bg-paper-sunk px-4 py-2.5 text-sm text-ink-soft">
+        <NoteLine className="mb-4">
           Superseded by{' '}
           <Link to={`/sheets/${s.supersededBy.id}`} className="font-medium text-accent hover:underline">
             revision {s.supersededBy.label}
           </Link>
           . This revision stays in the archive as it was issued.
-        </p>
+        </NoteLine>
       )}
 
       <SheetReview key={s.id} sheet={s} user={user} />

@@ -30,7 +30,10 @@ interface DataTableProps<T> {
   rowClassName?: (row: T) => string;
 }
 
-/** A dense, sortable table for engineers: small type, tabular figures, numbers right-aligned. */
+/**
+ * A dense, sortable table for engineers: 28 px rows, 13 px type, tabular figures, numbers
+ * right-aligned, headers in sentence case with the unit in the header ("Force, kN").
+ */
 export function DataTable<T>({ data, columns, filter, initialSorting = [], empty, getRowId, rowClassName }: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const table = useReactTable({
@@ -47,11 +50,13 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
   const rows = table.getRowModel().rows;
 
   return (
-    <div className="overflow-x-auto rounded-lg border border-paper-line bg-paper-raised">
-      <table className="w-full border-collapse text-[13px]">
+    // Ruled, not boxed: a 1 px graphite rule over and under the table, the header ruled off below,
+    // hairlines between rows (docs/visual-language.md, "Tables").
+    <div className="overflow-x-auto border-y border-ink-soft bg-paper-raised">
+      <table className="w-full border-collapse text-[13px] leading-[18px]">
         <thead>
           {table.getHeaderGroups().map((group) => (
-            <tr key={group.id} className="border-b border-paper-line bg-paper-sunk/60">
+            <tr key={group.id} className="border-b border-ink-soft">
               {group.headers.map((header) => {
                 const meta = header.column.columnDef.meta;
                 const right = meta?.align === 'right';
@@ -62,17 +67,17 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
                     key={header.id}
                     scope="col"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={`px-3 py-2 align-middle text-[11px] leading-4 font-semibold tracking-wide text-ink-soft uppercase ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
+                    className={`px-2.5 pt-2 pb-1.5 align-bottom text-[12px] leading-4 font-semibold text-ink-soft ${right ? 'text-right' : 'text-left'} ${meta?.width ?? ''}`}
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button
                         type="button"
                         onClick={header.column.getToggleSortingHandler()}
-                        className={`inline-flex items-center gap-1 align-middle leading-4 tracking-wide uppercase hover:text-ink ${right ? 'flex-row-reverse' : ''}`}
+                        className={`inline-flex items-baseline gap-1 leading-4 hover:text-ink ${sorted ? 'text-ink' : ''} ${right ? 'flex-row-reverse' : ''}`}
                       >
                         {flexRender(header.column.columnDef.header, header.getContext())}
                         <span aria-hidden className={`inline-block w-3 text-center text-ink-faint ${sorted ? '' : 'invisible'}`}>
-                          {sorted === 'desc' ? '↓' : '↑'}
+                          {sorted === 'desc' ? '▾' : '▴'}
                         </span>
                       </button>
                     ) : (
@@ -87,17 +92,17 @@ export function DataTable<T>({ data, columns, filter, initialSorting = [], empty
         <tbody>
           {rows.length === 0 ? (
             <tr>
-              <td colSpan={table.getAllLeafColumns().length} className="px-3 py-8 text-center text-sm text-ink-soft">
+              <td colSpan={table.getAllLeafColumns().length} className="px-2.5 py-4 text-left text-sm text-ink-soft">
                 {empty}
               </td>
             </tr>
           ) : (
             rows.map((row) => (
-              <tr key={row.id} className={`border-b border-paper-line/70 last:border-b-0 hover:bg-paper/70 ${rowClassName?.(row.original) ?? ''}`}>
+              <tr key={row.id} className={`h-7 border-b border-paper-line last:border-b-0 hover:bg-paper-sunk/60 ${rowClassName?.(row.original) ?? ''}`}>
                 {row.getVisibleCells().map((cell) => {
                   const meta = cell.column.columnDef.meta;
                   return (
-                    <td key={cell.id} className={`px-3 py-1.5 align-middle ${meta?.align === 'right' ? 'text-right whitespace-nowrap' : 'text-left'}`}>
+                    <td key={cell.id} className={`px-2.5 py-1 align-middle ${meta?.align === 'right' ? 'text-right whitespace-nowrap tabular-nums' : 'text-left'}`}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   );

@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { CONTROL_CLASS } from '@/components/ui/field';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useUsers } from '@/features/users/api/get-users';
@@ -38,7 +39,7 @@ export function UsersRoute() {
           onChange={(e) => setFilter(e.target.value)}
           placeholder="Filter by name or e-mail"
           aria-label="Filter users"
-          className="h-9 w-full max-w-xs rounded-md border border-paper-line bg-paper-raised px-3 text-sm placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+          className={`${CONTROL_CLASS} w-full max-w-xs`}
         />
         {users.data && (
           <span className="figures ml-auto text-xs text-ink-faint">

@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { acceptInvitationSchema, PASSWORD_MIN_LENGTH, type InvitationView, type SessionView } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { ROLE_LABELS } from '@/lib/permissions';
 import { useAcceptInvitation } from '../api/accept-invitation';
@@ -30,6 +30,7 @@ export function AcceptInvitationForm({ token, invitation, onAccepted }: AcceptIn
     setError,
     formState: { errors, isSubmitting },
   } = useForm<AcceptFormInput>({
+    ...MESSAGES_AFTER_TOUCH,
     resolver: zodResolver(acceptFormSchema),
     defaultValues: { token, name: invitation.name, password: '', repeatPassword: '' },
   });

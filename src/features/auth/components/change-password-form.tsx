@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { changePasswordSchema, PASSWORD_MIN_LENGTH } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useChangePassword } from '../api/change-password';
 
@@ -25,6 +25,7 @@ export function ChangePasswordForm({ onChanged }: { onChanged: () => void }) {
     reset,
     formState: { errors, isSubmitting },
   } = useForm<ChangeFormInput>({
+    ...MESSAGES_AFTER_TOUCH,
     resolver: zodResolver(changeFormSchema),
     defaultValues: { currentPassword: '', newPassword: '', repeatPassword: '' },
   });

@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { requestPasswordResetSchema, type RequestPasswordResetInput } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useRequestPasswordReset } from '../api/request-password-reset';
 
@@ -14,7 +14,7 @@ export function ForgotPasswordForm() {
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<RequestPasswordResetInput>({ resolver: zodResolver(requestPasswordResetSchema), defaultValues: { email: '' } });
+  } = useForm<RequestPasswordResetInput>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(requestPasswordResetSchema), defaultValues: { email: '' } });
 
   const onSubmit = handleSubmit(async (values) => {
     try {

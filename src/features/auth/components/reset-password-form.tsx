@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { completePasswordResetSchema, PASSWORD_MIN_LENGTH, type PasswordResetView, type SessionView } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useCompletePasswordReset } from '../api/complete-password-reset';
 
@@ -28,7 +28,7 @@ export function ResetPasswordForm({ token, reset, onDone }: ResetPasswordFormPro
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<ResetFormInput>({ resolver: zodResolver(resetFormSchema), defaultValues: { token, password: '', repeatPassword: '' } });
+  } = useForm<ResetFormInput>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(resetFormSchema), defaultValues: { token, password: '', repeatPassword: '' } });
 
   const onSubmit = handleSubmit(async ({ password }) => {
     try {

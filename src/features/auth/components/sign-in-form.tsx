@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signInSchema, type SessionView, type SignInInput } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useSignIn } from '../api/sign-in';
 
@@ -13,7 +13,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (session: SessionView) 
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
+  } = useForm<SignInInput>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
 
   const onSubmit = handleSubmit(async (values) => {
     try {

@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { firmSettingsSchema, type FirmSettings } from '@shared/schemas/project.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField, TextareaField } from '@/components/ui/field';
+import { FormError, TextField, TextareaField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useUpdateFirm } from '../api/update-firm';
 
@@ -23,7 +23,7 @@ export function FirmForm({ firm, editable }: { firm: FirmSettings; editable: boo
     setError,
     reset,
     formState: { errors, isSubmitting, isDirty },
-  } = useForm<FirmFormInput, unknown, FirmSettings>({ resolver: zodResolver(firmSettingsSchema), values: firm });
+  } = useForm<FirmFormInput, unknown, FirmSettings>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(firmSettingsSchema), values: firm });
 
   const onSubmit = handleSubmit(async (values) => {
     try {

@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { IMPORT_LIMIT_BOUNDS, importLimitsSchema, type ImportLimits } from '@shared/schemas/import-limits.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { applyApiError } from '@/lib/form-errors';
 import { useImportLimits, useUpdateImportLimits } from '../api/import-limits';
@@ -22,7 +22,7 @@ export function ImportLimitsForm({ editable }: { editable: boolean }) {
     setError,
     reset,
     formState: { errors, isSubmitting, isDirty },
-  } = useForm<ImportLimits>({ resolver: zodResolver(importLimitsSchema), values: limits.data });
+  } = useForm<ImportLimits>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(importLimitsSchema), values: limits.data });
 
   if (limits.isPending) return <LoadingState label="Loading the drawing limits…" />;
   if (limits.isError) return <ErrorState title="The drawing limits could not be loaded" error={limits.error} onRetry={() => void limits.refetch()} />;

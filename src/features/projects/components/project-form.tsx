@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { projectInputSchema, unitSystemSchema, type ProjectInput, type ProjectView } from '@shared/schemas/project.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, SelectField, TextField, TextareaField } from '@/components/ui/field';
+import { FormError, SelectField, TextField, TextareaField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { UNIT_SYSTEM_LABELS } from '@/lib/format';
 import { useCreateProject } from '../api/create-project';
@@ -28,7 +28,7 @@ function ProjectForm({ initial, submitLabel, onSave, onCancel }: ProjectFormProp
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<ProjectInput, unknown, ProjectValues>({ resolver: zodResolver(projectInputSchema), defaultValues: initial });
+  } = useForm<ProjectInput, unknown, ProjectValues>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(projectInputSchema), defaultValues: initial });
 
   const onSubmit = handleSubmit(async (values) => {
     try {

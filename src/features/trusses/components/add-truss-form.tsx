@@ -2,7 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { trussInputSchema, type TrussInput, type TrussView } from '@shared/schemas/project.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextField } from '@/components/ui/field';
+import { FormError, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { useCreateTruss } from '../api/create-truss';
 
@@ -19,7 +19,7 @@ export function AddTrussForm({ projectId, onAdded, onCancel }: AddTrussFormProps
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<TrussInput>({ resolver: zodResolver(trussInputSchema), defaultValues: { name: '' } });
+  } = useForm<TrussInput>({ ...MESSAGES_AFTER_TOUCH, resolver: zodResolver(trussInputSchema), defaultValues: { name: '' } });
 
   const onSubmit = handleSubmit(async (input) => {
     try {

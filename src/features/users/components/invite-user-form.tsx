@@ -3,7 +3,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { ROLES, inviteUserSchema, type InviteUserInput } from '@shared/schemas/auth.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, SelectField, TextField } from '@/components/ui/field';
+import { FormError, SelectField, TextField, MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { applyApiError } from '@/lib/form-errors';
 import { formatDateTime } from '@/lib/format';
 import { ROLE_LABELS } from '@/lib/permissions';
@@ -21,6 +21,7 @@ export function InviteUserForm({ onClose }: { onClose?: () => void }) {
     reset,
     formState: { errors, isSubmitting },
   } = useForm<InviteUserInput>({
+    ...MESSAGES_AFTER_TOUCH,
     resolver: zodResolver(inviteUserSchema),
     defaultValues: { email: '', name: '', role: 'engineer' },
   });

@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
+import { MESSAGES_AFTER_TOUCH } from '@/components/ui/field';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import type { Joint, Member, MemberGroup } from '@shared/model/truss';
@@ -87,6 +88,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
   const [baseVersion, setBaseVersion] = useState(kept?.version ?? view.version);
   const [restored, setRestored] = useState(Boolean(kept));
   const form = useForm<ModelDraftInput, unknown, ModelDraft>({
+    ...MESSAGES_AFTER_TOUCH,
     resolver: zodResolver(modelDraftSchema),
     defaultValues: kept?.values ?? draftFromModelView(view),
   });
