@@ -5,8 +5,9 @@ import path from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
-import { AnalysisRun, SheetRevisionEvent } from '../../server/db/models';
+import { SheetRevisionEvent } from '../../server/db/models';
 import { databaseEnv, demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
+import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
 /**
@@ -79,23 +80,7 @@ async function verifyCommand(): Promise<{ code: number; stdout: string; stderr: 
 
 const chain = async () => (await admin.agent.get('/api/admin/audit-chain').expect(200)).body;
 
-async function solvedRun(trussId: number): Promise<number> {
-  const r = await AnalysisRun.create({
-    trussId,
-    modelVersion: 1,
-    status: 'solved',
-    progress: '{}',
-    model: '{}',
-    takeoff: null,
-    analysis: null,
-    summary: '{"note":"fixture run"}',
-    error: null,
-    ranById: null,
-    startedAt: new Date(),
-    finishedAt: new Date(),
-  });
-  return r.id;
-}
+const solvedRun = fixtureRun;
 
 /** A draft sheet and its submission: two audit lines. */
 async function twoLines() {
