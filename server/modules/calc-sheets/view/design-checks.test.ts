@@ -8,13 +8,15 @@ import { sheetInput, TRIANGLE_FORCES, triangleModel } from './view-fixtures';
 
 /**
  * The 3-4-5 triangle of view-fixtures (case D: rafters AC = BC = −10 kN, tie AB = +8 kN by the
- * method of joints) designed by AISC 360-16 LRFD with A992 (Fy 345 MPa, E 200 000 MPa) and a
+ * method of joints) designed by AISC 360-16 LRFD with A992 (Fy 50 ksi = 344.74 MPa, E 29 000 ksi) and a
  * section by properties A = 1000 mm², rx = ry = 30 mm. Expected values written out here from
  * AISC 360-16 D1, D2(a), E2 and E3 (the standard's published formulas):
  *   rafters: Lc/r = 5000/30 = 166.67 > 4.71√(E/Fy) = 113.4, so Fcr = 0.877·π²E/(Lc/r)² (E3-3);
  *            ratio max(10/(0.9·Fcr·A), 166.67/200 = 0.833)
- *   tie:     L/r = 8000/30 = 266.67; ratio max(8/(0.9·345·1000/1000), 266.67/300 = 0.889)
+ *   tie:     L/r = 8000/30 = 266.67; ratio max(8/(0.9·344.74·1000/1000), 266.67/300 = 0.889)
+ * MPa per ksi from the exact pound-force and inch (NIST SP 811): 4448.2216152605 N / 645.16 mm².
  */
+const KSI = 4448.2216152605 / 645.16;
 const design: DesignInput = {
   standard: 'aisc360-16-lrfd',
   groups: [
@@ -35,14 +37,14 @@ describe('sheet view: member design pages', () => {
     expect(view.designChecks.standard).toBe('AISC 360-16, LRFD (φ)');
     const [g] = view.designChecks.groups;
     expect(view.cover.contents.map((c) => c.anchor)).toContain(g.anchor);
-    const tieRatio = Math.max(TRIANGLE_FORCES.D.AB / ((0.9 * 345 * 1000) / 1000), 8000 / 30 / 300);
+    const tieRatio = Math.max(TRIANGLE_FORCES.D.AB / ((0.9 * 50 * KSI * 1000) / 1000), 8000 / 30 / 300);
     expect(g.governing!.tag).toBe('AB');
     expect(g.governing!.line).toBe(`Governing member AB under D: utilisation ${Number(tieRatio.toPrecision(3))} ≤ 1.0, adequate.`);
     const clauses = g.governing!.steps.map((s) => s.cells[0]);
     expect(clauses).toEqual(expect.arrayContaining(['AISC 360-16 D2(a)', 'AISC 360-16 D2(b)', 'AISC 360-16 D3', 'AISC 360-16 D1 (user note)']));
-    expect(g.governing!.steps.find((s) => s.cells[0] === 'AISC 360-16 D2(a)' && s.cells[2] === 'Pn = Fy·Ag')!.cells[4]).toBe('345 kN');
+    expect(g.governing!.steps.find((s) => s.cells[0] === 'AISC 360-16 D2(a)' && s.cells[2] === 'Pn = Fy·Ag')!.cells[4]).toBe('344.74 kN'); // 50 ksi × 1000 mm² = 344.738 kN
     // The rafters in the table: compression −10 kN, utilisation from the E2 slenderness.
-    const Fe = (Math.PI ** 2 * 200_000) / (5000 / 30) ** 2;
+    const Fe = (Math.PI ** 2 * 29_000 * KSI) / (5000 / 30) ** 2;
     const rafter = Math.max(10 / ((0.9 * 0.877 * Fe * 1000) / 1000), 5000 / 30 / 200);
     const ac = g.rows.find((r) => r.cells[0] === 'AC')!;
     expect(ac.cells.slice(1, 3)).toEqual(['—', '\u221210.00']);
