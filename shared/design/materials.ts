@@ -52,9 +52,9 @@ const ksi = (v: number): number => unitConvert(v, 'ksi', 'MPa');
  * prints as 50 ksi). The EN grades are specified in MPa.
  */
 export const STEEL_GRADES: Record<string, SteelMaterial> = {
-  A36: { kind: 'steel', grade: 'A36', Fy: ksi(36), Fu: ksi(58), E: ksi(29_000), source: 'ASTM A36: Fy 36 ksi (248.2 MPa), Fu 58 ksi (399.9 MPa); E 29 000 ksi (199 948 MPa) per AISC 360-16 symbols list (from memory)' },
-  A992: { kind: 'steel', grade: 'A992', Fy: ksi(50), Fu: ksi(65), E: ksi(29_000), source: 'ASTM A992: Fy 50 ksi (344.7 MPa), Fu 65 ksi (448.2 MPa) (from memory; AISC Manual Table 2-4); E 29 000 ksi' },
-  'A500-C': { kind: 'steel', grade: 'A500 Gr C', Fy: ksi(46), Fu: ksi(62), E: ksi(29_000), source: 'ASTM A500 Grade C round HSS: Fy 46 ksi (317.2 MPa), Fu 62 ksi (427.5 MPa) (from memory; AISC Manual Table 2-4); rectangular HSS to A500-18 have Fy 50 ksi — enter Fy for those; E 29 000 ksi' },
+  A36: { kind: 'steel', grade: 'A36', Fy: ksi(36), Fu: ksi(58), E: ksi(29_000), source: 'ASTM A36: Fy 36 ksi, Fu 58 ksi; E 29 000 ksi per AISC 360-16 symbols list (from memory)' },
+  A992: { kind: 'steel', grade: 'A992', Fy: ksi(50), Fu: ksi(65), E: ksi(29_000), source: 'ASTM A992: Fy 50 ksi, Fu 65 ksi (from memory; AISC Manual Table 2-4); E 29 000 ksi' },
+  'A500-C': { kind: 'steel', grade: 'A500 Gr C', Fy: ksi(46), Fu: ksi(62), E: ksi(29_000), source: 'ASTM A500 Grade C round HSS: Fy 46 ksi, Fu 62 ksi (from memory; AISC Manual Table 2-4); rectangular HSS to A500-18 have Fy 50 ksi — enter Fy for those; E 29 000 ksi' },
   S235: { kind: 'steel', grade: 'S235', Fy: 235, Fu: 360, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 235 MPa, fu 360 MPa; E 210 000 MPa (§3.2.6) (from memory)' },
   S275: { kind: 'steel', grade: 'S275', Fy: 275, Fu: 430, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 275 MPa, fu 430 MPa; E 210 000 MPa (§3.2.6) (from memory)' },
   S355: { kind: 'steel', grade: 'S355', Fy: 355, Fu: 490, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 355 MPa, fu 490 MPa; E 210 000 MPa (§3.2.6) (from memory)' },

@@ -84,4 +84,35 @@ describe('sheet view: member design pages', () => {
     expect(at('design-1')).toBeGreaterThan(at('deflection'));
     expect(at('residual')).toBeGreaterThan(at('design-1'));
   });
+
+  it('a US customary project: the design and deflection pages print ksi, in², in and kip, never MPa, mm or kN; the rafter worked by hand in ksi (AISC 360-16 E3)', () => {
+    const C = triangleModel().joints.find((j) => j.tag === 'C')!.id;
+    const model = { ...triangleModel(['D']), design: { ...design, groups: [{ ...design.groups[0], members: 'all' as const }], deflection: { joints: [C], combinations: ['D'], limit: 240 } } };
+    const analysis = trussSolve(model);
+    const view = buildCalcSheetView(sheetInput(model, { project: { name: 'P', jobNumber: 'J', unitSystem: 'US' }, analysis, design: runDesign(model, analysis) }));
+    const html = renderCalcSheetHtml(view);
+    const pages = html.slice(html.indexOf('id="deflection"'), html.indexOf('id="residual"')).replace(/<svg[\s\S]*?<\/svg>/g, '').replace(/<[^>]+>/g, ' ');
+    expect(pages).toMatch(/ksi/);
+    expect(pages).toMatch(/in²/);
+    expect(pages).toMatch(/Tension \(kip\)/);
+    expect(pages).toMatch(/δy \(in\)/);
+    expect(pages).not.toMatch(/MPa|mm²|\bmm\b|\bkN\b/);
+    expect(pages).not.toMatch(/as the standards’ formulas are written/);
+    const [g] = view.designChecks.groups;
+    // A992 preset: 50 ksi, 65 ksi, 29 000 ksi exactly; A = 1000 mm² = 1000/645.16 in² (1 in = 25.4 mm).
+    expect(g.basis[0].value).toMatch(/^A992: Fy = 50 ksi, Fu = 65 ksi, E = 29000 ksi/);
+    expect(g.basis[1].value).toMatch(/A = 1\.55 in², rx = 1\.1811 in/);
+    // The governing tie in ksi: Pn = Fy·Ag = 50 ksi × 1.55 in² = 77.5 kips (AISC 360-16 D2(a)).
+    const yielding = g.governing!.steps.find((r) => r.cells[0] === 'AISC 360-16 D2(a)' && r.cells[2] === 'Pn = Fy·Ag')!;
+    expect(yielding.cells[3]).toMatch(/^50 ksi × 1\.55\d* in²$/);
+    expect(yielding.cells[4]).toBe(`${Number((50 * (1000 / 645.16)).toPrecision(5))} kip`);
+    // The rafters in the table, −10 kN = −2.25 kips (10 / 4.4482216152605), and their utilisation
+    // from AISC 360-16 E3 by hand in ksi: Lc/r = 5000/30, Fe = π²·29 000/(Lc/r)², Fcr = 0.877·Fe (E3-3).
+    const ac = g.rows.find((r) => r.cells[0] === 'AC')!;
+    expect(ac.cells[2]).toBe(`\u2212${(10 / 4.4482216152605).toFixed(2)}`);
+    const FeKsi = (Math.PI ** 2 * 29_000) / (5000 / 30) ** 2;
+    const phiPnKips = 0.9 * 0.877 * FeKsi * (1000 / 645.16);
+    expect(ac.cells[5]).toBe(String(Number(Math.max(10 / 4.4482216152605 / phiPnKips, 5000 / 30 / 200).toPrecision(3))));
+    expect(view.deflection.note).toMatch(/N in kip, L in in, A in in², E in ksi/);
+  });
 });

@@ -26,7 +26,7 @@ const force = (kN: number, u: DesignUnitSet) => {
 /** The units line of the design pages: what the steps are worked in on this project. */
 export function designUnitsLine(u: DesignUnitSet): string {
   return u.system === 'us'
-    ? 'Forces in kip, lengths and radii of gyration in in, areas in in², stresses in ksi: each step is worked in these units from the design values converted exactly (1 in = 25.4 mm, 1 kip = 4.4482 kN, 1 ksi = 6.8948 MPa), so its printed numbers multiply out.'
+    ? 'Forces in kip, lengths and radii of gyration in in, areas in in², stresses in ksi: each step is worked in these units, from the design values converted with the exact inch and pound-force (NIST SP 811), so its printed numbers multiply out.'
     : 'Forces in kN, lengths and radii of gyration in mm, areas in mm², stresses in MPa, as the standards’ formulas are written.';
 }
 
