@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { create, all, type Unit as MathUnit } from 'mathjs';
 import type { TrussModel } from '@shared/model/truss';
+import type { DesignInput } from '@shared/model/design-input';
+import { runDesign } from '@shared/design/basis';
 import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
 import { demoTruss, kTruss, withTakeoff } from './support/sheet-samples';
@@ -454,6 +456,175 @@ describe('calc sheet arithmetic redone by hand from the printed numbers', () => 
     // Cutting digits that were there changes nothing when none were added; so some must have been.
     const added = long.view.cases.flatMap((c) => c.jointSteps).some((s) => s.tex.some((l) => /\d+\.\d{4,}/.test(l)));
     expect(added).toBe(true);
+    expect(bad.length).toBeGreaterThan(0);
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// Member design and deflection pages: each step redone from its printed operands with mathjs's
+// unit algebra (ksi = 1000 lbf/in², kip = 1000 lbf, exact by definition, NIST SP 811).
+
+math.createUnit('ksi', '1000 lbf/in^2');
+
+const DESIGN_UNIT_TEXT: [RegExp, string][] = [
+  [/in²/g, 'in^2'],
+  [/mm²/g, 'mm^2'],
+  [/\bkip\b/g, 'kipf'],
+];
+
+/** A printed design expression as mathjs text: numbers with their units in brackets. */
+function designToMath(text: string): string {
+  let s = text;
+  for (const [re, to] of DESIGN_UNIT_TEXT) s = s.replace(re, to);
+  s = s.replace(/(\d+(?:\.\d+)?) (ksi|MPa|kipf|kN|in\^2|mm\^2|in|mm)\b/g, '($1 $2)');
+  return s.replace(/×/g, '*').replace(/π/g, 'pi').replace(/√\(/g, 'sqrt(').replace(/²/g, '^2').replace(/−/g, '-').replace(/\[/g, '(').replace(/\]/g, ')');
+}
+
+/** "77.5 kip" → the number and its mathjs unit; null for words. */
+function designPrinted(text: string): { printed: Printed; unit: string | null } | null {
+  const m = /^(-?\d+(?:\.\d+)?)(?: (ksi|MPa|kip|kN|in²|mm²|in|mm))?$/.exec(text.trim());
+  if (!m) return null;
+  const unit = m[2] ? designToMath(`1 ${m[2]}`).replace(/^\(1 (.+)\)$/, '$1') : null;
+  return { printed: printedNumber(m[1]), unit };
+}
+
+function designEvaluate(expr: string, unit: string | null): number {
+  const v = math.evaluate(designToMath(expr)) as number | MathUnit;
+  if (typeof v === 'number') return v;
+  return unit ? v.toNumber(unit) : NaN;
+}
+
+/** Redoes one design step: every "a = b" link of its numbers and its result. Returns results checked. */
+function designStepCheck(sheet: string, cells: string[], bad: Mismatch[]): number {
+  const [clause, , , substituted, resultCell] = cells;
+  if (!/\d/.test(substituted) || /^Table|confirmed/.test(substituted)) return 0;
+  const result = resultCell.replace(/ (≤|>) [\d.]+(: fails)?$/, '');
+  const segs = [...substituted.split(' = '), result];
+  let checked = 0;
+  for (let i = 0; i + 1 < segs.length; i++) {
+    let left = segs[i];
+    const right = segs[i + 1];
+    const cmp = /^(.+) (≤|>) (.+)$/.exec(left);
+    if (cmp) {
+      // "125 > 4.71 × √(E/Fy)": the comparison holds as printed, and its right side is redone.
+      const a = designEvaluate(cmp[1], null);
+      const b = designEvaluate(cmp[3], null);
+      if (cmp[2] === '≤' ? !(a <= b) : !(a > b)) bad.push({ sheet, step: clause, line: left, got: a, printed: b });
+      left = cmp[3];
+    }
+    const maxL = /^max\((.+)\)$/.exec(left);
+    const maxR = /^max\((.+)\)$/.exec(right);
+    if (maxL && maxR) {
+      const ls = splitTop(maxL[1], ', ');
+      const rs = splitTop(maxR[1], ', ');
+      ls.forEach((l, k) => {
+        const p = designPrinted(rs[k])!;
+        const got = designEvaluate(l, p.unit);
+        checked++;
+        if (!agrees(got, p.printed)) bad.push({ sheet, step: clause, line: `${l} = ${rs[k]}`, got, printed: p.printed.value });
+      });
+      continue;
+    }
+    const p = designPrinted(right);
+    if (!p || !/\d/.test(left)) continue;
+    const got = designEvaluate(left, p.unit);
+    checked++;
+    if (!agrees(got, p.printed)) bad.push({ sheet, step: clause, line: `${left} = ${right}`, got, printed: p.printed.value });
+  }
+  return checked;
+}
+
+/** Every design step and every deflection row of a sheet, redone. */
+function designSheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number {
+  let checked = 0;
+  for (const g of view.designChecks.groups) {
+    for (const row of g.governing?.steps ?? []) if (row.cls !== 'step-head') checked += designStepCheck(sheet, row.cells, bad);
+  }
+  const us = view.deflection.units.length === 'in';
+  for (const t of view.deflection.tables) {
+    let sum = 0;
+    let bound = 1e-12;
+    for (const row of t.rows) {
+      const [, n, N, L, A, E, term] = row.cells.map((c) => c.replace('\u2212', '-'));
+      // n·N·L/(A·E): kip·in/(in²·ksi) = in; kN·mm/(mm²·MPa) = 1/1000 mm, so × 1000 (kN to N).
+      const got = (Number(n) * Number(N) * Number(L) * (us ? 1 : 1000)) / (Number(A) * Number(E));
+      const printed = printedNumber(term);
+      checked++;
+      if (!agrees(got, printed)) bad.push({ sheet, step: t.title, line: row.cells.join(' | '), got, printed: printed.value });
+      sum += printed.value;
+      bound += printed.half;
+    }
+    const m = /^Σ = δy = (−?\d+\.\d+) (in|mm)$/.exec(t.sum)!;
+    const shown = printedNumber(m[1].replace('\u2212', '-'));
+    checked++;
+    if (Math.abs(sum - shown.value) > shown.half + bound) bad.push({ sheet, step: t.title, line: t.sum, got: sum, printed: shown.value });
+  }
+  for (const row of view.deflection.rows) {
+    const m = /^(\d+(?:\.\d+)?)\/(\d+) = (\d+\.\d+)$/.exec(row.cells[4]);
+    if (!m) continue;
+    checked++;
+    if (!agrees(Number(m[1]) / Number(m[2]), printedNumber(m[3]))) bad.push({ sheet, step: 'deflection', line: row.cells[4], got: Number(m[1]) / Number(m[2]), printed: Number(m[3]) });
+  }
+  return checked;
+}
+
+function designSheets(): { name: string; view: CalcSheetView }[] {
+  const base = withTakeoff(demoTruss(), 'exact', 4.5).model;
+  const webs = base.members.filter((m) => !(m.from.startsWith('L') && m.to.startsWith('L')) && !/^(L0|L6|U\d)(L0|L6|U\d)$/.test(m.id)).map((m) => m.id);
+  const bottom = base.members.filter((m) => m.from.startsWith('L') && m.to.startsWith('L')).map((m) => m.id);
+  const deflection = { joints: ['L3'], combinations: ['S'], limit: 240 };
+  const designed = (design: DesignInput, system: 'SI' | 'US') => {
+    const model = { ...base, design };
+    const analysis = trussSolve(model);
+    return buildCalcSheetView(input(model, { analysis, design: runDesign(model, analysis) }, system));
+  };
+  const steel = (standard: DesignInput['standard'], grade: string): DesignInput => ({
+    standard,
+    groups: [
+      { name: 'Chords', members: 'all', material: { kind: 'grade', grade }, section: { shape: 'rect-hollow', B: 80, H: 80, t: 4, An: 1000, U: 0.87 } },
+      { name: 'Webs', members: webs, material: { kind: 'grade', grade }, section: { shape: 'angle', b: 50, d: 50, t: 5 }, Ly: 1.1 },
+      // The bottom chord is in tension: its page carries the D2/D3 (6.2.3) steps.
+      { name: 'Bottom chord', members: bottom, material: { kind: 'grade', grade }, section: { shape: 'round-hollow', D: 60.3, t: 3.2, An: 480, U: 0.9 } },
+    ],
+    deflection,
+  });
+  const timber: DesignInput = {
+    standard: 'nds-2018-asd',
+    groups: [
+      { name: 'All', members: 'all', material: { kind: 'timber', Ft: 4.1, Fc: 7.3, Emin: 3700, E: 9650, c: 0.8 }, section: { shape: 'rectangle', b: 63, d: 184 } },
+      { name: 'Bottom chord', members: bottom, material: { kind: 'timber', Ft: 4.1, Fc: 7.3, Emin: 3700, E: 9650, c: 0.8 }, section: { shape: 'rectangle', b: 63, d: 235, An: 12_000 } },
+    ],
+    deflection,
+  };
+  return [
+    { name: 'design AISC LRFD (US units)', view: designed(steel('aisc360-16-lrfd', 'A992'), 'US') },
+    { name: 'design AISC ASD (US units)', view: designed(steel('aisc360-16-asd', 'A36'), 'US') },
+    { name: 'design NDS timber (US units)', view: designed(timber, 'US') },
+    { name: 'design EN 1993-1-1 (SI)', view: designed({ ...steel('en1993-1-1', 'S355'), groups: steel('en1993-1-1', 'S355').groups.map((g) => ({ ...g, curve: 'c' as const })) }, 'SI') },
+    { name: 'design AISC LRFD (SI)', view: designed(steel('aisc360-16-lrfd', 'A992'), 'SI') },
+  ];
+}
+
+describe('member design and deflection pages redone by hand from the printed numbers', () => {
+  it('when every design step, ratio and unit-load row of five sheets (three in US units) is redone, then each printed result comes back: 0 mismatches', () => {
+    const bad: Mismatch[] = [];
+    for (const { name, view } of designSheets()) {
+      expect(view.designChecks.present, name).toBe(true);
+      expect(view.designChecks.error, name).toBeNull();
+      const n = designSheetCheck(name, view, bad);
+      // Governing steps of every group, both deflection tables' rows and the allowed span.
+      expect(view.designChecks.groups.some((g) => g.governing?.steps.some((r) => /^Tension/.test(r.cells[0]))), name).toBe(true);
+      expect(n, name).toBeGreaterThan(15);
+    }
+    expect(bad).toEqual([]);
+  });
+
+  it('when an operand is cut to three figures, then the reader finds the mismatch (the test can fail)', () => {
+    const [us] = designSheets();
+    const bad: Mismatch[] = [];
+    const cut = structuredClone(us.view);
+    for (const g of cut.designChecks.groups) for (const s of g.governing?.steps ?? []) s.cells[3] = s.cells[3].replace(/(\d+\.\d)\d+/g, '$1');
+    designSheetCheck('cut', cut, bad);
     expect(bad.length).toBeGreaterThan(0);
   });
 });

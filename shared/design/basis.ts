@@ -7,7 +7,8 @@ import { designCheck, type DesignBasis, type DesignGroup, type MemberDesignResul
 import { DesignError } from './errors';
 import { materialValidate, steelGrade, type Material } from './materials';
 import { sectionProperties, type Section } from './sections';
-import type { DesignStandard } from './checks';
+import { EN_RECOMMENDED, senseCheck, type BucklingCurve, type DesignStandard, type MemberDesign } from './checks';
+import type { DesignUnitSet } from './units';
 import { NEAR_FAILING } from './design';
 
 /**
@@ -264,4 +265,32 @@ export function designSummaryOf(d: RunDesign): {
 /** JSON of a run's design; a value that is not a finite number (a zero span) is written as null. */
 export function designJson(d: RunDesign | null): string {
   return JSON.stringify(d, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v));
+}
+
+/**
+ * A member's tension and compression steps printed in `units`: the run keeps them in SI (MPa,
+ * mm, mm², kN); a US customary project shows them in ksi, in, in², kip, each step computed again
+ * from the converted values so that its printed numbers multiply out. Capacities (kN) are the
+ * run's own up to rounding of the last binary digit.
+ */
+export function memberStepsIn(model: TrussModel, d: RunDesign, r: RunMemberDesign, units: DesignUnitSet): Pick<RunMemberDesign, 'tension' | 'compression'> {
+  if (units.system === 'si') return { tension: r.tension, compression: r.compression };
+  const g = d.groups.find((x) => x.name === r.group);
+  const mb = model.members.find((m) => m.id === r.member);
+  if (!g || !mb) return { tension: r.tension, compression: r.compression };
+  const a = model.joints.find((j) => j.id === mb.from)!;
+  const b = model.joints.find((j) => j.id === mb.to)!;
+  const L = Math.hypot(b.x - a.x, b.y - a.y);
+  const design: MemberDesign = {
+    material: g.material,
+    section: g.section,
+    Kx: g.Kx,
+    Ky: g.Ky,
+    Lx: (g.Lx ?? L) * 1000,
+    Ly: (g.Ly ?? L) * 1000,
+    ...(g.curve ? { curve: g.curve as BucklingCurve } : {}),
+  };
+  const en = d.en1993 ?? EN_RECOMMENDED;
+  const again = (sc: RunMemberDesign['tension']) => (sc ? { ...senseCheck(d.standard, sc.sense, design, en, units), combination: sc.combination, force: sc.force } : null);
+  return { tension: again(r.tension), compression: again(r.compression) };
 }

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { enChi, IMPERFECTION, ndsCp, senseCheck, type MemberDesign } from './checks';
 import { steelGrade, type Material } from './materials';
 import { sectionProperties } from './sections';
+import { DESIGN_UNITS } from './units';
 
 /** A member of area A (mm²) with r chosen so that K·L/r is `slender` in plane (out of plane stockier). */
 function member(material: Material, A: number, slender: number, extra: Partial<MemberDesign> = {}, An?: number, U?: number): MemberDesign {
@@ -143,5 +144,59 @@ describe('NDS 2018 §3.7.1 column stability factor Cp (3.7-1)', () => {
     expect(senseCheck('nds-2018-asd', 'tension', d).capacity).toBeCloseTo(75, 9);
     const long = senseCheck('nds-2018-asd', 'compression', { ...d, Ly: 5500 });
     expect(long.limits[0].slenderness!.value).toBeCloseTo(55, 9); // > 50: a failing limit (3.7.1.4)
+  });
+});
+
+describe('US customary steps (ksi, in², in, kip): AISC 360-16 D2/D3 and E3 in the units printed', () => {
+  // Inputs stored in SI as the app stores them: MPa per ksi and mm per in from the exact
+  // pound-force and inch (NIST SP 811): 1 ksi = 4448.2216152605 N / 645.16 mm², 1 in = 25.4 mm.
+  const KSI = 4448.2216152605 / 645.16;
+  const us = DESIGN_UNITS.us;
+  const steelKsi = (Fy: number, Fu: number, E: number): Material => ({ kind: 'steel', Fy: Fy * KSI, Fu: Fu * KSI, E: E * KSI });
+  /** A member of A in² with r = 2 in in plane (4 in out of plane) and K·L/r = slender. */
+  const memberUs = (m: Material, A: number, slender: number, An?: number, U?: number): MemberDesign => ({
+    material: m,
+    section: sectionProperties({ shape: 'properties', A: A * 645.16, rx: 2 * 25.4, ry: 4 * 25.4, ...(An ? { An: An * 645.16 } : {}), ...(U ? { U } : {}) }, 'M1'),
+    Kx: 1,
+    Ky: 1,
+    Lx: slender * 2 * 25.4,
+    Ly: slender * 2 * 25.4,
+  });
+  const step = (c: ReturnType<typeof senseCheck>, clause: string, formula?: string) => c.steps.find((s) => s.clause === clause && (!formula || s.formula === formula))!;
+
+  it('tension, Ag = 5.0 in², Fy = 50 ksi: Pn = 250 kips, φPn = 225, Pn/Ω = 149.70; An = 4.25 in², U = 0.80, Fu = 65 ksi: Ae = 3.40 in², 221.0 / 165.75 / 110.50 kips (REFERENCES §5.1 US check values)', () => {
+    const d = memberUs(steelKsi(50, 65, 29_000), 5.0, 100, 4.25, 0.8);
+    const lrfd = senseCheck('aisc360-16-lrfd', 'tension', d, undefined, us);
+    expect(step(lrfd, 'AISC 360-16 D2(a)', 'Pn = Fy·Ag').value).toBeCloseTo(250, 9);
+    expect(step(lrfd, 'AISC 360-16 D2(a)', 'Pn = Fy·Ag').substituted).toBe('50 ksi × 5 in²');
+    expect(step(lrfd, 'AISC 360-16 D2(a)', 'Pn = Fy·Ag').result).toBe('250 kip');
+    expect(step(lrfd, 'AISC 360-16 D2(a)', 'φPn = 0.9·Pn').value).toBeCloseTo(225, 9);
+    expect(step(lrfd, 'AISC 360-16 D3').value).toBeCloseTo(3.4, 9);
+    expect(step(lrfd, 'AISC 360-16 D3').result).toBe('3.4 in²');
+    expect(step(lrfd, 'AISC 360-16 D2(b)', 'Pn = Fu·Ae').value).toBeCloseTo(221.0, 9);
+    expect(step(lrfd, 'AISC 360-16 D2(b)', 'φPn = 0.75·Pn').value).toBeCloseTo(165.75, 9);
+    // Capacities stay in kN for the ratios: 165.75 kips × 4.4482216152605 kN/kip.
+    expect(lrfd.capacity).toBeCloseTo(165.75 * 4.4482216152605, 6);
+    const asd = senseCheck('aisc360-16-asd', 'tension', d, undefined, us);
+    expect(step(asd, 'AISC 360-16 D2(a)', 'Pn/Ω = Pn/1.67').value).toBeCloseTo(149.70, 2);
+    expect(step(asd, 'AISC 360-16 D2(b)', 'Pn/Ω = Pn/2').value).toBeCloseTo(110.5, 9);
+  });
+
+  it.each([
+    // KL/r, Fe, Fcr, φFcr (ksi): REFERENCES §5.2 table, Fy = 50 ksi, E = 29 000 ksi.
+    [50, 114.487, 41.647, 37.482, 'E3-2'],
+    [150, 12.721, 11.156, 10.041, 'E3-3'],
+  ])('compression at KL/r = %d: Fe = %d ksi, Fcr = %d ksi, φFcr = %d ksi (REFERENCES §5.2; 4.71√(E/Fy) = 113.43)', (lr, Fe, Fcr, phiFcr, eq) => {
+    const c = senseCheck('aisc360-16-lrfd', 'compression', memberUs(steelKsi(50, 65, 29_000), 10, lr), undefined, us);
+    expect(step(c, 'AISC 360-16 E3 (E3-4)').value).toBeCloseTo(Fe, 3);
+    expect(step(c, 'AISC 360-16 E3 (E3-4)').result).toMatch(/ ksi$/);
+    expect(step(c, 'AISC 360-16 E3').value).toBeCloseTo(113.43, 2);
+    expect(step(c, `AISC 360-16 E3 (${eq})`).value).toBeCloseTo(Fcr, 3);
+    // A = 10 in²: φPn = 10 × φFcr kips; the capacity in kN is that times 4.4482216152605.
+    expect(step(c, 'AISC 360-16 E1').value).toBeCloseTo(10 * phiFcr, 2);
+    expect(c.capacity / 4.4482216152605).toBeCloseTo(10 * phiFcr, 2);
+    // The same member in SI steps: the same capacity (only the printing differs).
+    expect(senseCheck('aisc360-16-lrfd', 'compression', memberUs(steelKsi(50, 65, 29_000), 10, lr)).capacity).toBeCloseTo(c.capacity, 9);
+    expect(c.steps.map((s) => `${s.substituted} ${s.result}`).join(' ')).not.toMatch(/MPa|mm|kN/);
   });
 });

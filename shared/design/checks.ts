@@ -1,6 +1,7 @@
 import type { Material, SteelMaterial, TimberMaterial } from './materials';
 import type { Section } from './sections';
-import { num, type DesignStep } from './steps';
+import { carriedStep, num, operandSig, type DesignStep } from './steps';
+import { areaOut, DESIGN_UNITS, forceIn, lengthOut, stressAreaToForce, stressOut, type DesignUnitSet } from './units';
 
 /** The design bases Panelpoint checks members by. */
 export type DesignStandard = 'aisc360-16-lrfd' | 'aisc360-16-asd' | 'en1993-1-1' | 'nds-2018-asd';
@@ -52,21 +53,52 @@ export interface SenseCheck {
 
 const isSteel = (m: Material): m is SteelMaterial => m.kind === 'steel';
 
-function slenderStep(clause: string, title: string, d: MemberDesign, K: boolean, limit: number | null, rx: number, ry: number, symbol: string): { step: DesignStep; value: number } {
+/** A member's values in the units its steps are printed in (lengths, radii, areas, stresses). */
+interface Printed {
+  u: DesignUnitSet;
+  A: number;
+  An: number;
+  U: number;
+  rx: number;
+  ry: number;
+  dx: number;
+  dy: number;
+  Lx: number;
+  Ly: number;
+  /** stress × area → force */
+  k: number;
+}
+
+function printedOf(d: MemberDesign, u: DesignUnitSet): Printed {
+  const s = d.section;
+  return { u, A: areaOut(s.A, u), An: areaOut(s.An, u), U: s.U, rx: lengthOut(s.rx, u), ry: lengthOut(s.ry, u), dx: lengthOut(s.dx, u), dy: lengthOut(s.dy, u), Lx: lengthOut(d.Lx, u), Ly: lengthOut(d.Ly, u), k: stressAreaToForce(u) };
+}
+
+function slenderStep(clause: string, title: string, d: MemberDesign, p: Printed, K: boolean, limit: number | null, rx: number, ry: number, radii: [string, string], symbol: string): { step: DesignStep; value: number } {
   const kx = K ? d.Kx : 1;
   const ky = K ? d.Ky : 1;
-  const sx = (kx * d.Lx) / rx;
-  const sy = (ky * d.Ly) / ry;
+  const sx = (kx * p.Lx) / rx;
+  const sy = (ky * p.Ly) / ry;
   const value = Math.max(sx, sy);
-  const kTxt = (k: number) => (K ? `${num(k)} × ` : '');
+  const kTxt = (k: string) => (K ? `${k} × ` : '');
+  // Each ratio carries from its printed K, L and r; the larger is the result.
+  const sxT = num(sx, 4);
+  const syT = num(sy, 4);
+  const ops = [kx, p.Lx, rx, ky, p.Ly, ry];
+  const sig = Math.max(
+    operandSig(ops.slice(0, 3), ([k, l, r]) => (k * l) / r, sxT),
+    operandSig(ops.slice(3), ([k, l, r]) => (k * l) / r, syT),
+  );
+  const t = ops.map((x) => num(x, sig));
+  const [sxR, syR] = [Number(sxT), Number(syT)];
   return {
     value,
     step: {
       clause,
       title,
-      formula: `${symbol} = max(${K ? 'Kx·' : ''}Lx/${rx === d.section.rx ? 'rx' : 'dx'}, ${K ? 'Ky·' : ''}Ly/${ry === d.section.ry ? 'ry' : 'dy'})${limit !== null ? ` ≤ ${limit}` : ''}`,
-      substituted: `max(${kTxt(kx)}${num(d.Lx)}/${num(rx)}, ${kTxt(ky)}${num(d.Ly)}/${num(ry)}) = max(${num(sx, 4)}, ${num(sy, 4)})`,
-      result: `${num(value, 4)}${limit !== null ? (value <= limit ? ` ≤ ${limit}` : ` > ${limit}: fails`) : ''}`,
+      formula: `${symbol} = max(${K ? 'Kx·' : ''}Lx/${radii[0]}, ${K ? 'Ky·' : ''}Ly/${radii[1]})${limit !== null ? ` ≤ ${limit}` : ''}`,
+      substituted: `max(${kTxt(t[0])}${t[1]} ${p.u.length}/${t[2]} ${p.u.length}, ${kTxt(t[3])}${t[4]} ${p.u.length}/${t[5]} ${p.u.length}) = max(${sxT}, ${syT})`,
+      result: `${sxR >= syR ? sxT : syT}${limit !== null ? (value <= limit ? ` ≤ ${limit}` : ` > ${limit}: fails`) : ''}`,
       value,
     },
   };
@@ -77,55 +109,70 @@ function capacityOf(limits: DesignLimit[]): number {
 }
 
 /** AISC 360-16 Chapter D (tension) and §E3 (flexural buckling), LRFD (φ) or ASD (Ω). */
-function aisc(sense: SenseCheck['sense'], asd: boolean, d: MemberDesign, m: SteelMaterial): SenseCheck {
-  const s = d.section;
+function aisc(sense: SenseCheck['sense'], asd: boolean, d: MemberDesign, m: SteelMaterial, u: DesignUnitSet): SenseCheck {
+  const p = printedOf(d, u);
+  const Fy = stressOut(m.Fy, u);
+  const Fu = stressOut(m.Fu, u);
+  const E = stressOut(m.E, u);
   const steps: DesignStep[] = [];
   const limits: DesignLimit[] = [];
   const factor = (Pn: number, phi: number, omega: number, clause: string, title: string) => {
     const v = asd ? Pn / omega : phi * Pn;
-    steps.push({
-      clause,
-      title,
-      formula: asd ? `Pn/Ω = Pn/${num(omega)}` : `φPn = ${num(phi)}·Pn`,
-      substituted: asd ? `${num(Pn)}/${num(omega)}` : `${num(phi)} × ${num(Pn)}`,
-      result: `${num(v)} kN`,
-      value: v,
-    });
-    limits.push({ clause, title, capacity: v });
+    steps.push(
+      carriedStep({
+        clause,
+        title,
+        formula: asd ? `Pn/Ω = Pn/${num(omega)}` : `φPn = ${num(phi)}·Pn`,
+        ops: [Pn],
+        text: ([pn]) => (asd ? `${pn} ${u.force}/${num(omega)}` : `${num(phi)} × ${pn} ${u.force}`),
+        redo: ([pn]) => (asd ? pn / omega : phi * pn),
+        value: v,
+        unit: u.force,
+      }),
+    );
+    limits.push({ clause, title, capacity: forceIn(v, u) });
   };
+  const stressArea = (clause: string, title: string, formula: string, F: number, A: number) =>
+    carriedStep({ clause, title, formula, ops: [F, A], text: ([f, a]) => `${f} ${u.stress} × ${a} ${u.area}`, redo: ([f, a]) => f * a * p.k, value: F * A * p.k, unit: u.force });
   if (sense === 'tension') {
-    const Pny = (m.Fy * s.A) / 1000;
-    steps.push({ clause: 'AISC 360-16 D2(a)', title: 'Tensile yielding in the gross section', formula: 'Pn = Fy·Ag', substituted: `${num(m.Fy)} MPa × ${num(s.A)} mm²`, result: `${num(Pny)} kN`, value: Pny });
+    const Pny = Fy * p.A * p.k;
+    steps.push(stressArea('AISC 360-16 D2(a)', 'Tensile yielding in the gross section', 'Pn = Fy·Ag', Fy, p.A));
     factor(Pny, 0.9, 1.67, 'AISC 360-16 D2(a)', 'Tensile yielding: available strength');
-    const Ae = s.An * s.U;
-    steps.push({ clause: 'AISC 360-16 D3', title: 'Effective net area', formula: 'Ae = An·U', substituted: `${num(s.An)} mm² × ${num(s.U)}`, result: `${num(Ae)} mm²`, value: Ae });
-    const Pnr = (m.Fu * Ae) / 1000;
-    steps.push({ clause: 'AISC 360-16 D2(b)', title: 'Tensile rupture in the net section', formula: 'Pn = Fu·Ae', substituted: `${num(m.Fu)} MPa × ${num(Ae)} mm²`, result: `${num(Pnr)} kN`, value: Pnr });
+    const Ae = p.An * p.U;
+    steps.push(carriedStep({ clause: 'AISC 360-16 D3', title: 'Effective net area', formula: 'Ae = An·U', ops: [p.An, p.U], text: ([an, uu]) => `${an} ${u.area} × ${uu}`, redo: ([an, uu]) => an * uu, value: Ae, unit: u.area }));
+    const Pnr = Fu * Ae * p.k;
+    steps.push(stressArea('AISC 360-16 D2(b)', 'Tensile rupture in the net section', 'Pn = Fu·Ae', Fu, Ae));
     factor(Pnr, 0.75, 2.0, 'AISC 360-16 D2(b)', 'Tensile rupture: available strength');
-    const sl = slenderStep('AISC 360-16 D1 (user note)', 'Slenderness of a tension member (preferably ≤ 300; held as a limit here)', d, false, 300, s.rx, s.ry, 'L/r');
+    const sl = slenderStep('AISC 360-16 D1 (user note)', 'Slenderness of a tension member (preferably ≤ 300; held as a limit here)', d, p, false, 300, p.rx, p.ry, ['rx', 'ry'], 'L/r');
     steps.push(sl.step);
     limits.push({ clause: 'AISC 360-16 D1', title: 'Slenderness L/r ≤ 300', slenderness: { value: sl.value, limit: 300 } });
   } else {
-    const sl = slenderStep('AISC 360-16 E2 (user note)', 'Slenderness of a compression member (preferably ≤ 200; held as a limit here)', d, true, 200, s.rx, s.ry, 'Lc/r');
+    const sl = slenderStep('AISC 360-16 E2 (user note)', 'Slenderness of a compression member (preferably ≤ 200; held as a limit here)', d, p, true, 200, p.rx, p.ry, ['rx', 'ry'], 'Lc/r');
     steps.push(sl.step);
     limits.push({ clause: 'AISC 360-16 E2', title: 'Slenderness Lc/r ≤ 200', slenderness: { value: sl.value, limit: 200 } });
     const lr = sl.value;
-    const Fe = (Math.PI ** 2 * m.E) / lr ** 2;
-    steps.push({ clause: 'AISC 360-16 E3 (E3-4)', title: 'Elastic buckling stress', formula: 'Fe = π²E/(Lc/r)²', substituted: `π² × ${num(m.E)} / ${num(lr, 4)}²`, result: `${num(Fe)} MPa`, value: Fe });
-    const lim = 4.71 * Math.sqrt(m.E / m.Fy);
+    const Fe = (Math.PI ** 2 * E) / lr ** 2;
+    steps.push(carriedStep({ clause: 'AISC 360-16 E3 (E3-4)', title: 'Elastic buckling stress', formula: 'Fe = π²E/(Lc/r)²', ops: [E, lr], text: ([e, l]) => `π² × ${e} ${u.stress} / ${l}²`, redo: ([e, l]) => (Math.PI ** 2 * e) / l ** 2, value: Fe, unit: u.stress }));
+    const lim = 4.71 * Math.sqrt(E / Fy);
     const inelastic = lr <= lim;
-    steps.push({ clause: 'AISC 360-16 E3', title: 'Inelastic or elastic buckling', formula: 'Lc/r ≤ 4.71·√(E/Fy) ?', substituted: `${num(lr, 4)} ${inelastic ? '≤' : '>'} 4.71 × √(${num(m.E)}/${num(m.Fy)}) = ${num(lim, 4)}`, result: inelastic ? 'inelastic: (E3-2)' : 'elastic: (E3-3)', value: lim });
-    const Fcr = inelastic ? 0.658 ** (m.Fy / Fe) * m.Fy : 0.877 * Fe;
-    steps.push({
-      clause: inelastic ? 'AISC 360-16 E3 (E3-2)' : 'AISC 360-16 E3 (E3-3)',
-      title: 'Critical stress',
-      formula: inelastic ? 'Fcr = 0.658^(Fy/Fe)·Fy' : 'Fcr = 0.877·Fe',
-      substituted: inelastic ? `0.658^(${num(m.Fy)}/${num(Fe)}) × ${num(m.Fy)}` : `0.877 × ${num(Fe)}`,
-      result: `${num(Fcr)} MPa`,
-      value: Fcr,
-    });
-    const Pn = (Fcr * s.A) / 1000;
-    steps.push({ clause: 'AISC 360-16 E3 (E3-1)', title: 'Nominal compressive strength', formula: 'Pn = Fcr·Ag', substituted: `${num(Fcr)} MPa × ${num(s.A)} mm²`, result: `${num(Pn)} kN`, value: Pn });
+    const limT = num(lim, 4);
+    const limSig = operandSig([E, Fy], ([e, f]) => 4.71 * Math.sqrt(e / f), limT);
+    steps.push({ clause: 'AISC 360-16 E3', title: 'Inelastic or elastic buckling', formula: 'Lc/r ≤ 4.71·√(E/Fy) ?', substituted: `${num(lr, 4)} ${inelastic ? '≤' : '>'} 4.71 × √(${num(E, limSig)}/${num(Fy, limSig)}) = ${limT}`, result: inelastic ? 'inelastic: (E3-2)' : 'elastic: (E3-3)', value: lim });
+    const Fcr = inelastic ? 0.658 ** (Fy / Fe) * Fy : 0.877 * Fe;
+    steps.push(
+      carriedStep({
+        clause: inelastic ? 'AISC 360-16 E3 (E3-2)' : 'AISC 360-16 E3 (E3-3)',
+        title: 'Critical stress',
+        formula: inelastic ? 'Fcr = 0.658^(Fy/Fe)·Fy' : 'Fcr = 0.877·Fe',
+        ops: [Fy, Fe],
+        text: ([fy, fe]) => (inelastic ? `0.658^(${fy}/${fe}) × ${fy} ${u.stress}` : `0.877 × ${fe} ${u.stress}`),
+        redo: ([fy, fe]) => (inelastic ? 0.658 ** (fy / fe) * fy : 0.877 * fe),
+        value: Fcr,
+        unit: u.stress,
+      }),
+    );
+    const Pn = Fcr * p.A * p.k;
+    steps.push(stressArea('AISC 360-16 E3 (E3-1)', 'Nominal compressive strength', 'Pn = Fcr·Ag', Fcr, p.A));
     factor(Pn, 0.9, 1.67, 'AISC 360-16 E1', 'Flexural buckling: available strength');
     steps.push({ clause: 'AISC 360-16 B4.1', title: 'Elements taken as nonslender', formula: 'b/t ≤ λr (Table B4.1a)', substituted: 'to be confirmed by the engineer for the chosen section', result: 'assumed nonslender (E7 not applied)', value: 0 });
   }
@@ -140,35 +187,44 @@ export function enChi(lambdaBar: number, alpha: number): { Phi: number; chi: num
 }
 
 /** EN 1993-1-1 §6.2.3 (tension), §6.2.4 and §6.3.1 (flexural buckling), class 1–3 sections. */
-function en(sense: SenseCheck['sense'], d: MemberDesign, m: SteelMaterial, f: EnFactors): SenseCheck {
-  const s = d.section;
+function en(sense: SenseCheck['sense'], d: MemberDesign, m: SteelMaterial, f: EnFactors, u: DesignUnitSet): SenseCheck {
+  const p = printedOf(d, u);
+  const fy = stressOut(m.Fy, u);
+  const fu = stressOut(m.Fu, u);
+  const E = stressOut(m.E, u);
   const steps: DesignStep[] = [];
   const limits: DesignLimit[] = [];
-  const Npl = (s.A * m.Fy) / f.gammaM0 / 1000;
+  const Npl = (p.A * fy * p.k) / f.gammaM0;
+  const npl = (clause: string, title: string, formula: string) =>
+    carriedStep({ clause, title, formula, ops: [p.A, fy, f.gammaM0], text: ([a, s, g]) => `${a} ${u.area} × ${s} ${u.stress} / ${g}`, redo: ([a, s, g]) => (a * s * p.k) / g, value: Npl, unit: u.force });
   if (sense === 'tension') {
-    steps.push({ clause: 'EN 1993-1-1 6.2.3 (6.6)', title: 'Plastic resistance of the gross section', formula: 'Npl,Rd = A·fy/γM0', substituted: `${num(s.A)} × ${num(m.Fy)} / ${num(f.gammaM0)}`, result: `${num(Npl)} kN`, value: Npl });
-    limits.push({ clause: 'EN 1993-1-1 6.2.3 (6.6)', title: 'Npl,Rd', capacity: Npl });
-    const Nu = (0.9 * s.An * m.Fu) / f.gammaM2 / 1000;
-    steps.push({ clause: 'EN 1993-1-1 6.2.3 (6.7)', title: 'Ultimate resistance of the net section', formula: 'Nu,Rd = 0.9·Anet·fu/γM2', substituted: `0.9 × ${num(s.An)} × ${num(m.Fu)} / ${num(f.gammaM2)}`, result: `${num(Nu)} kN`, value: Nu });
-    limits.push({ clause: 'EN 1993-1-1 6.2.3 (6.7)', title: 'Nu,Rd', capacity: Nu });
+    steps.push(npl('EN 1993-1-1 6.2.3 (6.6)', 'Plastic resistance of the gross section', 'Npl,Rd = A·fy/γM0'));
+    limits.push({ clause: 'EN 1993-1-1 6.2.3 (6.6)', title: 'Npl,Rd', capacity: forceIn(Npl, u) });
+    const Nu = (0.9 * p.An * fu * p.k) / f.gammaM2;
+    steps.push(carriedStep({ clause: 'EN 1993-1-1 6.2.3 (6.7)', title: 'Ultimate resistance of the net section', formula: 'Nu,Rd = 0.9·Anet·fu/γM2', ops: [p.An, fu, f.gammaM2], text: ([a, s, g]) => `0.9 × ${a} ${u.area} × ${s} ${u.stress} / ${g}`, redo: ([a, s, g]) => (0.9 * a * s * p.k) / g, value: Nu, unit: u.force }));
+    limits.push({ clause: 'EN 1993-1-1 6.2.3 (6.7)', title: 'Nu,Rd', capacity: forceIn(Nu, u) });
   } else {
     const curve = d.curve ?? 'd';
     const alpha = IMPERFECTION[curve];
-    steps.push({ clause: 'EN 1993-1-1 6.2.4 (6.10)', title: 'Cross-section resistance (class 1, 2 or 3 assumed)', formula: 'Nc,Rd = A·fy/γM0', substituted: `${num(s.A)} × ${num(m.Fy)} / ${num(f.gammaM0)}`, result: `${num(Npl)} kN`, value: Npl });
-    limits.push({ clause: 'EN 1993-1-1 6.2.4 (6.10)', title: 'Nc,Rd', capacity: Npl });
-    const lambda1 = Math.PI * Math.sqrt(m.E / m.Fy);
-    steps.push({ clause: 'EN 1993-1-1 6.3.1.3', title: 'Reference slenderness', formula: 'λ1 = π·√(E/fy)', substituted: `π × √(${num(m.E)}/${num(m.Fy)})`, result: num(lambda1), value: lambda1 });
-    const sl = slenderStep('EN 1993-1-1 6.3.1.3', 'Slenderness Lcr/i (no limit in EN 1993-1-1)', d, true, null, s.rx, s.ry, 'Lcr/i');
+    steps.push(npl('EN 1993-1-1 6.2.4 (6.10)', 'Cross-section resistance (class 1, 2 or 3 assumed)', 'Nc,Rd = A·fy/γM0'));
+    limits.push({ clause: 'EN 1993-1-1 6.2.4 (6.10)', title: 'Nc,Rd', capacity: forceIn(Npl, u) });
+    const lambda1 = Math.PI * Math.sqrt(E / fy);
+    steps.push(carriedStep({ clause: 'EN 1993-1-1 6.3.1.3', title: 'Reference slenderness', formula: 'λ1 = π·√(E/fy)', ops: [E, fy], text: ([e, s]) => `π × √(${e}/${s})`, redo: ([e, s]) => Math.PI * Math.sqrt(e / s), value: lambda1 }));
+    const sl = slenderStep('EN 1993-1-1 6.3.1.3', 'Slenderness Lcr/i (no limit in EN 1993-1-1)', d, p, true, null, p.rx, p.ry, ['ix', 'iy'], 'Lcr/i');
     steps.push(sl.step);
     const lb = sl.value / lambda1;
-    steps.push({ clause: 'EN 1993-1-1 6.3.1.3 (6.50)', title: 'Non-dimensional slenderness', formula: 'λ̄ = (Lcr/i)/λ1', substituted: `${num(sl.value, 4)} / ${num(lambda1)}`, result: num(lb), value: lb });
+    steps.push(carriedStep({ clause: 'EN 1993-1-1 6.3.1.3 (6.50)', title: 'Non-dimensional slenderness', formula: 'λ̄ = (Lcr/i)/λ1', ops: [sl.value, lambda1], text: ([s, l]) => `${s} / ${l}`, redo: ([s, l]) => s / l, value: lb }));
     const { Phi, chi } = enChi(lb, alpha);
     steps.push({ clause: 'EN 1993-1-1 6.3.1.2 Table 6.1', title: `Imperfection factor, curve ${curve}${d.curve ? '' : ' (no curve given: the most severe taken)'}`, formula: `α (curve ${curve})`, substituted: `Table 6.1`, result: num(alpha), value: alpha });
-    steps.push({ clause: 'EN 1993-1-1 6.3.1.2 (6.49)', title: 'Φ', formula: 'Φ = 0.5·[1 + α(λ̄ − 0.2) + λ̄²]', substituted: `0.5 × [1 + ${num(alpha)} × (${num(lb)} − 0.2) + ${num(lb)}²]`, result: num(Phi), value: Phi });
-    steps.push({ clause: 'EN 1993-1-1 6.3.1.2 (6.49)', title: 'Reduction factor', formula: lb <= 0.2 ? 'λ̄ ≤ 0.2: χ = 1 (6.3.1.2(4))' : 'χ = 1/(Φ + √(Φ² − λ̄²)) ≤ 1', substituted: lb <= 0.2 ? `${num(lb)} ≤ 0.2` : `1/(${num(Phi)} + √(${num(Phi)}² − ${num(lb)}²))`, result: num(chi), value: chi });
-    const Nb = (chi * s.A * m.Fy) / f.gammaM1 / 1000;
-    steps.push({ clause: 'EN 1993-1-1 6.3.1.1 (6.47)', title: 'Buckling resistance', formula: 'Nb,Rd = χ·A·fy/γM1', substituted: `${num(chi)} × ${num(s.A)} × ${num(m.Fy)} / ${num(f.gammaM1)}`, result: `${num(Nb)} kN`, value: Nb });
-    limits.push({ clause: 'EN 1993-1-1 6.3.1.1 (6.46)', title: 'Nb,Rd', capacity: Nb });
+    steps.push(carriedStep({ clause: 'EN 1993-1-1 6.3.1.2 (6.49)', title: 'Φ', formula: 'Φ = 0.5·[1 + α(λ̄ − 0.2) + λ̄²]', ops: [lb], text: ([l]) => `0.5 × [1 + ${num(alpha)} × (${l} − 0.2) + ${l}²]`, redo: ([l]) => 0.5 * (1 + alpha * (l - 0.2) + l * l), value: Phi }));
+    steps.push(
+      lb <= 0.2
+        ? { clause: 'EN 1993-1-1 6.3.1.2 (6.49)', title: 'Reduction factor', formula: 'λ̄ ≤ 0.2: χ = 1 (6.3.1.2(4))', substituted: `${num(lb)} ≤ 0.2`, result: num(chi), value: chi }
+        : carriedStep({ clause: 'EN 1993-1-1 6.3.1.2 (6.49)', title: 'Reduction factor', formula: 'χ = 1/(Φ + √(Φ² − λ̄²)) ≤ 1', ops: [Phi, lb], text: ([ph, l]) => `1/(${ph} + √(${ph}² − ${l}²))`, redo: ([ph, l]) => Math.min(1, 1 / (ph + Math.sqrt(ph * ph - l * l))), value: chi }),
+    );
+    const Nb = (chi * p.A * fy * p.k) / f.gammaM1;
+    steps.push(carriedStep({ clause: 'EN 1993-1-1 6.3.1.1 (6.47)', title: 'Buckling resistance', formula: 'Nb,Rd = χ·A·fy/γM1', ops: [chi, p.A, fy, f.gammaM1], text: ([c, a, s, g]) => `${c} × ${a} ${u.area} × ${s} ${u.stress} / ${g}`, redo: ([c, a, s, g]) => (c * a * s * p.k) / g, value: Nb, unit: u.force }));
+    limits.push({ clause: 'EN 1993-1-1 6.3.1.1 (6.46)', title: 'Nb,Rd', capacity: forceIn(Nb, u) });
   }
   return { sense, steps, limits, capacity: capacityOf(limits) };
 }
@@ -180,35 +236,47 @@ export function ndsCp(ratio: number, c: number): number {
 }
 
 /** NDS 2018 §3.8 tension parallel to grain and §3.6/§3.7 compression with Cp (3.7-1), ASD. */
-function nds(sense: SenseCheck['sense'], d: MemberDesign, m: TimberMaterial): SenseCheck {
-  const s = d.section;
+function nds(sense: SenseCheck['sense'], d: MemberDesign, m: TimberMaterial, u: DesignUnitSet): SenseCheck {
+  const p = printedOf(d, u);
+  const Ft = stressOut(m.Ft, u);
+  const Fc = stressOut(m.Fc, u);
+  const Emin = stressOut(m.Emin, u);
   const steps: DesignStep[] = [];
   const limits: DesignLimit[] = [];
   if (sense === 'tension') {
-    const T = (m.Ft * s.An) / 1000;
-    steps.push({ clause: 'NDS 2018 3.8.1', title: 'Allowable tension on the net section', formula: "T′ = Ft′·An", substituted: `${num(m.Ft)} MPa × ${num(s.An)} mm²`, result: `${num(T)} kN`, value: T });
-    limits.push({ clause: 'NDS 2018 3.8.1', title: "T′ = Ft′·An", capacity: T });
+    const T = Ft * p.An * p.k;
+    steps.push(carriedStep({ clause: 'NDS 2018 3.8.1', title: 'Allowable tension on the net section', formula: 'T′ = Ft′·An', ops: [Ft, p.An], text: ([f, a]) => `${f} ${u.stress} × ${a} ${u.area}`, redo: ([f, a]) => f * a * p.k, value: T, unit: u.force }));
+    limits.push({ clause: 'NDS 2018 3.8.1', title: 'T′ = Ft′·An', capacity: forceIn(T, u) });
   } else {
-    const sx = (d.Kx * d.Lx) / s.dx;
-    const sy = (d.Ky * d.Ly) / s.dy;
+    const sx = (d.Kx * p.Lx) / p.dx;
+    const sy = (d.Ky * p.Ly) / p.dy;
     const r = Math.max(sx, sy);
-    steps.push({ clause: 'NDS 2018 3.7.1.4', title: 'Slenderness ratio', formula: 'ℓe/d = max(Ke·Lx/dx, Ke·Ly/dy) ≤ 50', substituted: `max(${num(d.Kx)} × ${num(d.Lx)}/${num(s.dx)}, ${num(d.Ky)} × ${num(d.Ly)}/${num(s.dy)})`, result: `${num(r, 4)}${r <= 50 ? ' ≤ 50' : ' > 50: fails'}`, value: r });
+    const sxT = num(sx, 4);
+    const syT = num(sy, 4);
+    const sig = Math.max(operandSig([d.Kx, p.Lx, p.dx], ([k, l, dd]) => (k * l) / dd, sxT), operandSig([d.Ky, p.Ly, p.dy], ([k, l, dd]) => (k * l) / dd, syT));
+    const t = [d.Kx, p.Lx, p.dx, d.Ky, p.Ly, p.dy].map((x) => num(x, sig));
+    const L = u.length;
+    steps.push({ clause: 'NDS 2018 3.7.1.4', title: 'Slenderness ratio', formula: 'ℓe/d = max(Ke·Lx/dx, Ke·Ly/dy) ≤ 50', substituted: `max(${t[0]} × ${t[1]} ${L}/${t[2]} ${L}, ${t[3]} × ${t[4]} ${L}/${t[5]} ${L}) = max(${sxT}, ${syT})`, result: `${Number(sxT) >= Number(syT) ? sxT : syT}${r <= 50 ? ' ≤ 50' : ' > 50: fails'}`, value: r });
     limits.push({ clause: 'NDS 2018 3.7.1.4', title: 'ℓe/d ≤ 50', slenderness: { value: r, limit: 50 } });
-    const FcE = (0.822 * m.Emin) / r ** 2;
-    steps.push({ clause: 'NDS 2018 3.7.1', title: 'Critical buckling design value', formula: "FcE = 0.822·E′min/(ℓe/d)²", substituted: `0.822 × ${num(m.Emin)} / ${num(r, 4)}²`, result: `${num(FcE)} MPa`, value: FcE });
-    const ratio = FcE / m.Fc;
+    const FcE = (0.822 * Emin) / r ** 2;
+    steps.push(carriedStep({ clause: 'NDS 2018 3.7.1', title: 'Critical buckling design value', formula: 'FcE = 0.822·E′min/(ℓe/d)²', ops: [Emin, r], text: ([e, l]) => `0.822 × ${e} ${u.stress} / ${l}²`, redo: ([e, l]) => (0.822 * e) / l ** 2, value: FcE, unit: u.stress }));
+    const ratio = FcE / Fc;
+    steps.push(carriedStep({ clause: 'NDS 2018 3.7.1', title: 'Ratio of the buckling value to Fc*', formula: 'FcE/Fc*', ops: [FcE, Fc], text: ([a, b]) => `${a} ${u.stress} / ${b} ${u.stress}`, redo: ([a, b]) => a / b, value: ratio }));
     const Cp = ndsCp(ratio, m.c);
-    steps.push({
-      clause: 'NDS 2018 3.7.1 (3.7-1)',
-      title: 'Column stability factor',
-      formula: 'Cp = (1 + FcE/Fc*)/(2c) − √{[(1 + FcE/Fc*)/(2c)]² − (FcE/Fc*)/c}',
-      substituted: `FcE/Fc* = ${num(FcE)}/${num(m.Fc)} = ${num(ratio)}, c = ${num(m.c)}`,
-      result: num(Cp),
-      value: Cp,
-    });
-    const P = (m.Fc * Cp * s.A) / 1000;
-    steps.push({ clause: 'NDS 2018 3.6.3', title: 'Allowable compression', formula: "P′ = Fc*·Cp·A", substituted: `${num(m.Fc)} × ${num(Cp)} × ${num(s.A)}`, result: `${num(P)} kN`, value: P });
-    limits.push({ clause: 'NDS 2018 3.6.3', title: "P′ = Fc′·A", capacity: P });
+    steps.push(
+      carriedStep({
+        clause: 'NDS 2018 3.7.1 (3.7-1)',
+        title: 'Column stability factor',
+        formula: 'Cp = (1 + FcE/Fc*)/(2c) − √{[(1 + FcE/Fc*)/(2c)]² − (FcE/Fc*)/c}',
+        ops: [ratio, m.c],
+        text: ([q, c]) => `(1 + ${q})/(2 × ${c}) − √([(1 + ${q})/(2 × ${c})]² − ${q}/${c})`,
+        redo: ([q, c]) => ndsCp(q, c),
+        value: Cp,
+      }),
+    );
+    const P = Fc * Cp * p.A * p.k;
+    steps.push(carriedStep({ clause: 'NDS 2018 3.6.3', title: 'Allowable compression', formula: 'P′ = Fc*·Cp·A', ops: [Fc, Cp, p.A], text: ([f, c, a]) => `${f} ${u.stress} × ${c} × ${a} ${u.area}`, redo: ([f, c, a]) => f * c * a * p.k, value: P, unit: u.force }));
+    limits.push({ clause: 'NDS 2018 3.6.3', title: 'P′ = Fc′·A', capacity: forceIn(P, u) });
   }
   return { sense, steps, limits, capacity: capacityOf(limits) };
 }
@@ -216,15 +284,16 @@ function nds(sense: SenseCheck['sense'], d: MemberDesign, m: TimberMaterial): Se
 /**
  * The steps and limits of one member in one sense by the design basis. Capacities do not depend
  * on the force (no use is made of the EN 6.3.1.2(4) N_Ed/N_cr ≤ 0.04 exemption), so one check
- * per sense serves every combination.
+ * per sense serves every combination. Capacities are in kN whatever `units` the steps are
+ * printed in (SI by default; US customary: ksi, in², in, kip, each step computed in those units).
  */
-export function senseCheck(standard: DesignStandard, sense: SenseCheck['sense'], d: MemberDesign, en1993: EnFactors = EN_RECOMMENDED): SenseCheck {
+export function senseCheck(standard: DesignStandard, sense: SenseCheck['sense'], d: MemberDesign, en1993: EnFactors = EN_RECOMMENDED, units: DesignUnitSet = DESIGN_UNITS.si): SenseCheck {
   const m = d.material;
   if (standard === 'nds-2018-asd') {
     if (m.kind !== 'timber') throw new Error('NDS checks need a timber material');
-    return nds(sense, d, m);
+    return nds(sense, d, m, units);
   }
   if (!isSteel(m)) throw new Error('Steel checks need a steel material');
-  if (standard === 'en1993-1-1') return en(sense, d, m, en1993);
-  return aisc(sense, standard === 'aisc360-16-asd', d, m);
+  if (standard === 'en1993-1-1') return en(sense, d, m, en1993, units);
+  return aisc(sense, standard === 'aisc360-16-asd', d, m, units);
 }

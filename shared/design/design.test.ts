@@ -41,8 +41,9 @@ describe('designCheck over a truss and its combinations', () => {
     expect(ac.compression!.combination).toBe('C1');
     expect(ac.tension!.force).toBeCloseTo(-(0.9 * 100 - 200) * (5 / 6), 9);
     expect(ac.tension!.combination).toBe('C2');
-    // AISC 360-16 E3 by hand: Lc/r = 5000/40 = 125 > 4.71√(200 000/345) = 113.4 → Fcr = 0.877·Fe.
-    const Fe = (Math.PI ** 2 * 200_000) / 125 ** 2;
+    // AISC 360-16 E3 by hand: Lc/r = 5000/40 = 125 > 4.71√(29 000/50) = 113.4 → Fcr = 0.877·Fe
+    // (A992 preset: E = 29 000 ksi; MPa per ksi = 4448.2216152605 N / 645.16 mm², NIST SP 811).
+    const Fe = (Math.PI ** 2 * 29_000 * (4448.2216152605 / 645.16)) / 125 ** 2;
     const phiPn = (0.9 * 0.877 * Fe * 2000) / 1000;
     expect(ac.compression!.capacity).toBeCloseTo(phiPn, 9);
     expect(ac.checks.find((c) => c.clause === 'AISC 360-16 E1')!.ratio).toBeCloseTo((1.4 * 500) / 6 / phiPn, 9);

@@ -1,3 +1,4 @@
+import { unitConvert } from '@shared/units';
 import { DesignError } from './errors';
 
 /**
@@ -40,11 +41,20 @@ export interface TimberMaterial {
 
 export type Material = SteelMaterial | TimberMaterial;
 
-/** Preset steel grades: minimum Fy and Fu for the thinnest product range of each standard. */
+/** ksi → MPa with the exact factor (1 lbf = 4.4482216152605 N, 1 in = 25.4 mm; shared/units). */
+const ksi = (v: number): number => unitConvert(v, 'ksi', 'MPa');
+
+/**
+ * Preset steel grades: minimum Fy and Fu for the thinnest product range of each standard. The
+ * ASTM grades are specified in ksi and used with AISC 360-16, whose E is 29 000 ksi: they are
+ * held as those ksi values converted exactly (A992: Fy = 50 ksi = 344.74 MPa, not the rounded
+ * 345 MPa of the metric edition — the lower, conservative reading, and the value a US project
+ * prints as 50 ksi). The EN grades are specified in MPa.
+ */
 export const STEEL_GRADES: Record<string, SteelMaterial> = {
-  A36: { kind: 'steel', grade: 'A36', Fy: 250, Fu: 400, E: 200_000, source: 'ASTM A36: Fy 36 ksi (250 MPa), Fu 58 ksi (400 MPa); E 29 000 ksi (200 000 MPa) per AISC 360-16 §B4 symbols list (from memory)' },
-  A992: { kind: 'steel', grade: 'A992', Fy: 345, Fu: 450, E: 200_000, source: 'ASTM A992: Fy 50 ksi (345 MPa), Fu 65 ksi (450 MPa) (from memory; AISC Manual Table 2-4)' },
-  'A500-C': { kind: 'steel', grade: 'A500 Gr C', Fy: 317, Fu: 427, E: 200_000, source: 'ASTM A500 Grade C round HSS: Fy 46 ksi (317 MPa), Fu 62 ksi (427 MPa) (from memory; AISC Manual Table 2-4); rectangular HSS to A500-18 have Fy 50 ksi — enter Fy for those' },
+  A36: { kind: 'steel', grade: 'A36', Fy: ksi(36), Fu: ksi(58), E: ksi(29_000), source: 'ASTM A36: Fy 36 ksi, Fu 58 ksi; E 29 000 ksi per AISC 360-16 symbols list (from memory)' },
+  A992: { kind: 'steel', grade: 'A992', Fy: ksi(50), Fu: ksi(65), E: ksi(29_000), source: 'ASTM A992: Fy 50 ksi, Fu 65 ksi (from memory; AISC Manual Table 2-4); E 29 000 ksi' },
+  'A500-C': { kind: 'steel', grade: 'A500 Gr C', Fy: ksi(46), Fu: ksi(62), E: ksi(29_000), source: 'ASTM A500 Grade C round HSS: Fy 46 ksi, Fu 62 ksi (from memory; AISC Manual Table 2-4); rectangular HSS to A500-18 have Fy 50 ksi — enter Fy for those; E 29 000 ksi' },
   S235: { kind: 'steel', grade: 'S235', Fy: 235, Fu: 360, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 235 MPa, fu 360 MPa; E 210 000 MPa (§3.2.6) (from memory)' },
   S275: { kind: 'steel', grade: 'S275', Fy: 275, Fu: 430, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 275 MPa, fu 430 MPa; E 210 000 MPa (§3.2.6) (from memory)' },
   S355: { kind: 'steel', grade: 'S355', Fy: 355, Fu: 490, E: 210_000, source: 'EN 10025-2 via EN 1993-1-1 Table 3.1, t ≤ 40 mm: fy 355 MPa, fu 490 MPa; E 210 000 MPa (§3.2.6) (from memory)' },

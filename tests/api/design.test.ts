@@ -86,8 +86,10 @@ async function runToEnd(): Promise<RunView> {
   throw new Error('run did not finish');
 }
 
+/** MPa per ksi from the exact pound-force and inch (NIST SP 811): A992 is 50 ksi, E 29 000 ksi. */
+const KSI = 4448.2216152605 / 645.16;
 /** AISC 360-16 E3 (E3-1 to E3-4), φc = 0.90 (E1), written out here from the standard's text. */
-function aiscPhiPn(A: number, r: number, L: number, Fy = 345, E = 200_000): number {
+function aiscPhiPn(A: number, r: number, L: number, Fy = 50 * KSI, E = 29_000 * KSI): number {
   const lr = L / r;
   const Fe = (Math.PI ** 2 * E) / lr ** 2;
   const Fcr = lr <= 4.71 * Math.sqrt(E / Fy) ? 0.658 ** (Fy / Fe) * Fy : 0.877 * Fe;
@@ -182,9 +184,9 @@ describe('design checks with each run', () => {
     expect(lt.utilisation).toBeCloseTo(ratio, 9);
     expect(lt.governing).toBe('1.4D');
     expect(lt.group).toBe('Chords');
-    // Tie LM: +1.4 × 20/3 kN; yielding φ·Fy·A = 0.9 × 345 × A (AISC 360-16 D2(a)) vs the D1 slenderness L/r / 300.
+    // Tie LM: +1.4 × 20/3 kN; yielding φ·Fy·A = 0.9 × 50 ksi × A (AISC 360-16 D2(a)) vs the D1 slenderness L/r / 300.
     const lm = byTag.get(MB.LM.tag)!;
-    expect(lm.utilisation).toBeCloseTo(Math.max((1.4 * 20) / 3 / ((0.9 * 345 * A) / 1000), 4000 / r / 300), 9);
+    expect(lm.utilisation).toBeCloseTo(Math.max((1.4 * 20) / 3 / ((0.9 * 50 * KSI * A) / 1000), 4000 / r / 300), 9);
     // The post is the web group's round hollow section.
     expect(byTag.get(MB.MT.tag)!.group).toBe('Post');
     expect(run.design).toMatchObject({ members: 5, failing: 0 });

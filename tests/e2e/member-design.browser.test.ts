@@ -121,4 +121,38 @@ describe('member design in the workspace', () => {
     await drawing.scrollIntoViewIfNeeded();
     await drawing.screenshot({ path: path.join(shots, 'member-design-deflected-shape.png') });
   }, 120_000);
+
+  it('on a US customary project the design tab and the results show ksi, in, in², kip and in, never MPa', async () => {
+    const csrf = ((await (await page.request.get(`${running.baseUrl}/api/session`)).json()) as { csrfToken: string }).csrfToken;
+    const projects = (await (await page.request.get(`${running.baseUrl}/api/projects`)).json()) as { id: number; jobNumber: string }[];
+    const project = projects.find((p) => p.jobNumber === 'HV-2417')!;
+    const patched = await page.request.patch(`${running.baseUrl}/api/projects/${project.id}`, { headers: { 'X-CSRF-Token': csrf }, data: { unitSystem: 'US' } });
+    expect(patched.status()).toBe(200);
+    await page.reload();
+    await page.getByRole('tab', { name: 'Member design' }).click();
+    // The saved section (100 × 100 × 6 mm) is shown in inches: 100 / 25.4 = 3.93701 (6 figures).
+    await expect.poll(() => page.getByLabel('Section B').inputValue()).toBe('3.93701');
+    expect(await page.getByText('B (in)').count()).toBe(1);
+    // Steel values entered: the A992 values appear as 50 / 65 / 29 000 ksi.
+    await page.getByLabel('Steel').selectOption('values');
+    expect(await page.getByLabel('Steel Fy').inputValue()).toBe('50');
+    expect(await page.getByLabel('Steel E').inputValue()).toBe('29000');
+    expect(await page.getByText('Fy (ksi)').count()).toBe(1);
+
+    await page.getByRole('tab', { name: 'Runs & results' }).click();
+    const steps = page.getByLabel(/^Design steps of /);
+    await steps.waitFor({ timeout: 30_000 });
+    const text = (await steps.textContent()) ?? '';
+    expect(text).toMatch(/ksi/);
+    expect(text).toMatch(/in²/);
+    expect(text).toMatch(/\d kip/);
+    expect(text).not.toMatch(/MPa|mm²|kN/);
+    const table = page.getByRole('table', { name: 'Member design checks' });
+    expect(await table.locator('thead').textContent()).toMatch(/Tension \(kip\)/);
+    const deflections = page.getByRole('table', { name: 'Deflections' });
+    expect(await deflections.locator('thead').textContent()).toMatch(/δy \(in\)/);
+    expect(await page.getByTestId('shape-caption').textContent()).toMatch(/Largest movement \d+\.\d{3} in at /);
+    await steps.scrollIntoViewIfNeeded();
+    await steps.screenshot({ path: path.join(shots, 'member-design-us-steps.png') });
+  }, 120_000);
 });

@@ -47,7 +47,7 @@ function TrussRouteLoaded({ trussId }: { trussId: number }) {
     },
     // Engineers edit the model and run it; everyone else reads (the server enforces both).
     { id: 'model', label: 'Model & loads', content: <ModelWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} /> },
-    { id: 'design', label: 'Member design', content: <DesignWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} /> },
+    { id: 'design', label: 'Member design', content: <DesignWorkspace trussId={trussId} mayEdit={user.role === 'engineer'} unitSystem={project.data?.unitSystem === 'US' ? 'us' : 'si'} /> },
     {
       id: 'runs',
       label: 'Runs & results',

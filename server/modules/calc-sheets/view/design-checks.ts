@@ -1,5 +1,6 @@
-import { BUILT_UP_REFUSED } from '@shared/design/basis';
-import { num } from '@shared/design/steps';
+import { BUILT_UP_REFUSED, memberStepsIn } from '@shared/design/basis';
+import { carriedStep, num } from '@shared/design/steps';
+import { areaOut, DESIGN_UNITS, forceOut, lengthOut, spanOut, stressOut, type DesignUnitSet } from '@shared/design/units';
 import type { SheetSection } from './context';
 import type { DesignGroupView, TableRow } from './types';
 
@@ -16,7 +17,18 @@ export const NOT_APPLIED = [
 ];
 
 const ratio = (r: number) => num(r, 3);
-const kN = (v: number) => `${v < 0 ? '\u2212' : ''}${Math.abs(v).toFixed(2)}`;
+/** A force (kN) in the sheet's force unit, two decimals, true minus sign. */
+const force = (kN: number, u: DesignUnitSet) => {
+  const v = forceOut(kN, u);
+  return `${v < 0 && Math.abs(v) >= 0.005 ? '\u2212' : ''}${Math.abs(v).toFixed(2)}`;
+};
+
+/** The units line of the design pages: what the steps are worked in on this project. */
+export function designUnitsLine(u: DesignUnitSet): string {
+  return u.system === 'us'
+    ? 'Forces in kip, lengths and radii of gyration in in, areas in in², stresses in ksi: each step is worked in these units, from the design values converted with the exact inch and pound-force (NIST SP 811), so its printed numbers multiply out.'
+    : 'Forces in kN, lengths and radii of gyration in mm, areas in mm², stresses in MPa, as the standards’ formulas are written.';
+}
 
 /**
  * Member design pages, one per design group: the basis of the group, the governing member's
@@ -24,11 +36,14 @@ const kN = (v: number) => `${v < 0 ? '\u2212' : ''}${Math.abs(v).toFixed(2)}`;
  * members in a table with their governing combination and utilisation.
  */
 export const designChecksSection: SheetSection<'designChecks'> = {
-  build({ input, unstable }) {
+  build({ input, unstable, system, model }) {
     const d = input.design;
+    const u = DESIGN_UNITS[system];
+    const units = { force: u.force, line: designUnitsLine(u) };
     if (!d || unstable) {
-      return { view: { designChecks: { present: false, standard: '', caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: null, groups: [] } } };
+      return { view: { designChecks: { present: false, standard: '', caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: null, groups: [], units } } };
     }
+    const S = (mpa: number) => `${num(stressOut(mpa, u))} ${u.stress}`;
     const groups: DesignGroupView[] = d.groups.map((g, i) => {
       const members = d.members.filter((m) => m.group === g.name);
       const gov = members.reduce<(typeof members)[number] | null>((a, m) => (!a || (!m.pass && a.pass) || (m.pass === a.pass && m.utilisation > a.utilisation) ? m : a), null);
@@ -38,27 +53,35 @@ export const designChecksSection: SheetSection<'designChecks'> = {
           label: 'Material',
           value:
             mat.kind === 'steel'
-              ? `${mat.grade ? `${mat.grade}: ` : ''}Fy = ${num(mat.Fy)} MPa, Fu = ${num(mat.Fu)} MPa, E = ${num(mat.E)} MPa${mat.source ? ` (${mat.source})` : ' (entered by the engineer)'}`
-              : `Timber${mat.name ? ` ${mat.name}` : ''}: Ft′ = ${num(mat.Ft)} MPa, Fc* = ${num(mat.Fc)} MPa, E′min = ${num(mat.Emin)} MPa, E = ${num(mat.E)} MPa, c = ${num(mat.c)} (adjusted design values entered by the engineer)`,
+              ? `${mat.grade ? `${mat.grade}: ` : ''}Fy = ${S(mat.Fy)}, Fu = ${S(mat.Fu)}, E = ${S(mat.E)}${mat.source ? ` (${mat.source})` : ' (entered by the engineer)'}`
+              : `Timber${mat.name ? ` ${mat.name}` : ''}: Ft′ = ${S(mat.Ft)}, Fc* = ${S(mat.Fc)}, E′min = ${S(mat.Emin)}, E = ${S(mat.E)}, c = ${num(mat.c)} (adjusted design values entered by the engineer)`,
         },
-        { label: 'Section', value: `${g.section.shape}: A = ${num(g.section.A)} mm², rx = ${num(g.section.rx)} mm (in plane), ry = ${num(g.section.ry)} mm (out of plane), An = ${num(g.section.An)} mm², U = ${num(g.section.U)}` },
+        {
+          label: 'Section',
+          value: `${g.section.shape}: A = ${num(areaOut(g.section.A, u))} ${u.area}, rx = ${num(lengthOut(g.section.rx, u))} ${u.length} (in plane), ry = ${num(lengthOut(g.section.ry, u))} ${u.length} (out of plane), An = ${num(areaOut(g.section.An, u))} ${u.area}, U = ${num(g.section.U)}`,
+        },
         {
           label: 'Lengths',
-          value: `Kx = ${num(g.Kx)}, Ky = ${num(g.Ky)}; Lx ${g.Lx === null ? '= member length' : `= ${num(g.Lx)} m`}, Ly ${g.Ly === null ? '= member length' : `= ${num(g.Ly)} m (brace or purlin spacing)`}${g.curve ? `; buckling curve ${g.curve}` : ''}`,
+          value: `Kx = ${num(g.Kx)}, Ky = ${num(g.Ky)}; Lx ${g.Lx === null ? '= member length' : `= ${num(spanOut(g.Lx, u))} ${u.span}`}, Ly ${g.Ly === null ? '= member length' : `= ${num(spanOut(g.Ly, u))} ${u.span} (brace or purlin spacing)`}${g.curve ? `; buckling curve ${g.curve}` : ''}`,
         },
         { label: 'Members', value: `${g.selection} (${g.memberCount})` },
       ];
       const steps: TableRow[] = [];
       if (gov) {
-        for (const sc of [gov.tension, gov.compression]) {
+        const shown = memberStepsIn(model, d, gov, u);
+        for (const sc of [shown.tension, shown.compression]) {
           if (!sc) continue;
-          steps.push({ cells: [`${sc.sense === 'tension' ? 'Tension' : 'Compression'}: ${sc.combination}, N = ${kN(sc.force)} kN`, '', '', '', ''], cls: 'step-head' });
+          steps.push({ cells: [`${sc.sense === 'tension' ? 'Tension' : 'Compression'}: ${sc.combination}, N = ${force(sc.force, u)} ${u.force}`, '', '', '', ''], cls: 'step-head' });
           for (const st of sc.steps) steps.push({ cells: [st.clause, st.title, st.formula, st.substituted, st.result] });
           for (const l of sc.limits) {
             const r = l.capacity !== undefined ? Math.abs(sc.force) / l.capacity : l.slenderness!.value / l.slenderness!.limit;
-            steps.push({
-              cells: [l.clause, `Ratio: ${l.title}`, l.capacity !== undefined ? '|N| / capacity' : 'slenderness / limit', l.capacity !== undefined ? `${kN(Math.abs(sc.force))} / ${num(l.capacity)}` : `${num(l.slenderness!.value, 4)} / ${l.slenderness!.limit}`, `${ratio(r)}${r <= 1 ? ' ≤ 1.0' : ' > 1.0: fails'}`],
-            });
+            const verdict = `${r <= 1 ? ' ≤ 1.0' : ' > 1.0: fails'}`;
+            // |N| and the capacity printed with the figures that make the ratio multiply out.
+            const line =
+              l.capacity !== undefined
+                ? carriedStep({ clause: l.clause, title: `Ratio: ${l.title}`, formula: '|N| / capacity', ops: [Math.abs(forceOut(sc.force, u)), forceOut(l.capacity, u)], text: ([n, c]) => `${n} ${u.force} / ${c} ${u.force}`, redo: ([n, c]) => n / c, value: r, sig: 3 })
+                : carriedStep({ clause: l.clause, title: `Ratio: ${l.title}`, formula: 'slenderness / limit', ops: [l.slenderness!.value], text: ([s]) => `${s} / ${l.slenderness!.limit}`, redo: ([s]) => s / l.slenderness!.limit, value: r, sig: 3 });
+            steps.push({ cells: [line.clause, line.title, line.formula, line.substituted, `${line.result}${verdict}`] });
           }
         }
       }
@@ -67,8 +90,8 @@ export const designChecksSection: SheetSection<'designChecks'> = {
         return {
           cells: [
             m.tag,
-            m.tension ? kN(m.tension.force) : '—',
-            m.compression ? kN(m.compression.force) : '—',
+            m.tension ? force(m.tension.force, u) : '—',
+            m.compression ? force(m.compression.force, u) : '—',
             m.governing ?? '—',
             m.refused ? 'E6 / 6.4 not applied' : top ? `${top.clause}` : '—',
             m.refused ? 'not checked' : ratio(m.utilisation),
@@ -96,7 +119,7 @@ export const designChecksSection: SheetSection<'designChecks'> = {
     const failing = d.members.filter((m) => !m.pass).length;
     const worst = d.members.reduce<(typeof d.members)[number] | null>((a, m) => (!a || m.utilisation > a.utilisation ? m : a), null);
     return {
-      view: { designChecks: { present: true, standard: d.standardName, caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: d.error?.message ?? null, groups } },
+      view: { designChecks: { present: true, standard: d.standardName, caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: d.error?.message ?? null, groups, units } },
       contents: d.error ? [{ anchor: 'design-checks', title: 'Member design' }] : groups.map((g) => ({ anchor: g.anchor, title: g.title })),
       summary: d.error
         ? [{ label: 'Member design', value: `not checked: ${d.error.message}` }]

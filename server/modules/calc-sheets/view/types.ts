@@ -184,6 +184,8 @@ export interface CalcSheetView {
     notApplied: string[];
     error: string | null;
     groups: DesignGroupView[];
+    /** The project's design units: the force unit of the tables' headings and the line saying what the steps are worked in. */
+    units: { force: string; line: string };
   };
   /** Joint deflections by the unit-load method, after the member forces. */
   deflection: {
@@ -194,6 +196,8 @@ export interface CalcSheetView {
     /** The deflected shape per service combination, exaggerated with its scale written; a sentence when not drawn. */
     shapes: { title: string; svg: string }[];
     shapesNote: string | null;
+    /** Units of the tables' headings: deflection and lengths (mm or in), force, area, stress. */
+    units: { length: string; force: string; area: string; stress: string };
   };
   generatedAt: string;
 }

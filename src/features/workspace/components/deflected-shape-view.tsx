@@ -2,6 +2,8 @@ import { useState } from 'react';
 import type { DeflectedShape } from '@shared/design/deflected-shape';
 import { SHAPE_JOINT_LIMIT } from '@shared/design/deflected-shape';
 import type { TrussModel } from '@shared/model/truss';
+import { DESIGN_UNITS, lengthOut } from '@shared/design/units';
+import type { UnitSystemId } from '@shared/units';
 import { TrussSvg } from './truss-svg';
 
 const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
@@ -11,7 +13,8 @@ const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[
  * the truss as drawn dashed under it, the joint that moves most named. `shapes` null: too many
  * joints to draw; undefined: a run made before shapes were worked out.
  */
-export function DeflectedShapeView({ model, shapes }: { model: TrussModel; shapes: DeflectedShape[] | null | undefined }) {
+export function DeflectedShapeView({ model, shapes, unitSystem = 'si' }: { model: TrussModel; shapes: DeflectedShape[] | null | undefined; unitSystem?: UnitSystemId }) {
+  const u = DESIGN_UNITS[unitSystem];
   const [pick, setPick] = useState(0);
   if (shapes === null) return <p className="text-xs text-ink-faint">The deflected shape is not drawn for a truss of more than {SHAPE_JOINT_LIMIT} joints; the deflections above are complete.</p>;
   if (shapes === undefined) return <p className="text-xs text-ink-faint">This run was made before deflected shapes were drawn; run the truss again to see it.</p>;
@@ -62,7 +65,7 @@ export function DeflectedShapeView({ model, shapes }: { model: TrussModel; shape
         )}
       />
       <p className="mt-1 text-xs text-ink-soft" data-testid="shape-caption">
-        Under {shape.combination}: movements drawn {shape.scale > 1 ? `${shape.scale} × their size` : 'true to size'}; the truss as drawn is dashed. Largest movement {shape.maxMm.toFixed(2)} mm at {shape.maxTag} (direct stiffness method, same A and E as the table).
+        Under {shape.combination}: movements drawn {shape.scale > 1 ? `${shape.scale} × their size` : 'true to size'}; the truss as drawn is dashed. Largest movement {lengthOut(shape.maxMm, u).toFixed(unitSystem === 'us' ? 3 : 2)} {u.length} at {shape.maxTag} (direct stiffness method, same A and E as the table).
       </p>
     </div>
   );

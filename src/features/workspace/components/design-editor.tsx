@@ -1,6 +1,8 @@
 import { useState } from 'react';
 import { STEEL_GRADES } from '@shared/design/materials';
 import { COMMON_DEFLECTION_LIMITS } from '@shared/design/deflection';
+import { areaIn, areaOut, DESIGN_UNITS, lengthIn, lengthOut, spanIn, spanOut, stressIn, stressOut, type DesignUnitSet } from '@shared/design/units';
+import type { UnitSystemId } from '@shared/units';
 import { designInputSchema, type DesignGroupInput, type DesignInput } from '@shared/model/design-input';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import { Button } from '@/components/ui/button';
@@ -20,7 +22,7 @@ const SHAPE_FIELDS: Record<DesignGroupInput['section']['shape'], string[]> = {
   'double-angle': ['b', 'd', 't', 's'],
 };
 const SHAPE_NAMES: Record<DesignGroupInput['section']['shape'], string> = {
-  properties: 'By properties (A mm², rx, ry mm)',
+  properties: 'By properties (A, rx, ry)',
   rectangle: 'Solid rectangle',
   'round-hollow': 'Round hollow',
   'rect-hollow': 'Rectangular hollow',
@@ -42,14 +44,19 @@ const newGroup = (standard: DesignInput['standard'], n: number): DesignGroupInpu
 });
 
 /** The "Member design" tab: design basis, groups with material and section, deflection request. */
-export function DesignWorkspace({ trussId, mayEdit }: { trussId: number; mayEdit: boolean }) {
+export function DesignWorkspace({ trussId, mayEdit, unitSystem = 'si' }: { trussId: number; mayEdit: boolean; unitSystem?: UnitSystemId }) {
   const model = useTrussModel(trussId);
   if (model.isPending) return <LoadingState label="Loading the model…" />;
   if (model.isError) return <ErrorState title="The model could not be loaded" error={model.error} onRetry={() => void model.refetch()} />;
-  return <DesignEditor key={model.data.version} view={model.data} mayEdit={mayEdit} />;
+  return <DesignEditor key={`${model.data.version}-${unitSystem}`} view={model.data} mayEdit={mayEdit} u={DESIGN_UNITS[unitSystem]} />;
 }
 
-function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolean }) {
+/**
+ * Values are stored in SI (MPa, mm, mm², m) whatever the project's units; a US customary project
+ * enters and sees them in ksi, in, in² and ft, converted here at the edge (shared/design/units).
+ */
+function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boolean; u: DesignUnitSet }) {
+  const section = (f: string) => (f === 'A' || f === 'An' ? { out: (v: number) => areaOut(v, u), in: (v: number) => areaIn(v, u), unit: u.area } : { out: (v: number) => lengthOut(v, u), in: (v: number) => lengthIn(v, u), unit: u.length });
   const save = useSaveDesign();
   const [draft, setDraft] = useState<DesignInput>(view.model.design ?? { standard: 'aisc360-16-lrfd', groups: [newGroup('aisc360-16-lrfd', 0)] });
   const [error, setError] = useState<string | null>(null);
@@ -125,10 +132,11 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
                 (['Ft', 'Fc', 'Emin', 'E', 'c'] as const).map((k) => (
                   <label key={k} className="flex items-center gap-1">
                     {k}
+                    {k === 'c' ? '' : ` (${u.stress})`}
                     <NumberField
                       label={`Timber ${k}`}
-                      value={g.material.kind === 'timber' ? g.material[k] : 0}
-                      onChange={(v) => setGroup(i, { ...g, material: { ...(g.material.kind === 'timber' ? g.material : { kind: 'timber', Ft: 0, Fc: 0, Emin: 0, E: 0, c: 0.8 }), [k]: v } })}
+                      value={g.material.kind === 'timber' ? (k === 'c' ? g.material[k] : stressOut(g.material[k], u)) : 0}
+                      onChange={(v) => setGroup(i, { ...g, material: { ...(g.material.kind === 'timber' ? g.material : { kind: 'timber', Ft: 0, Fc: 0, Emin: 0, E: 0, c: 0.8 }), [k]: v === null || k === 'c' ? v : stressIn(v, u) } })}
                     />
                   </label>
                 ))
@@ -138,7 +146,7 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
                     aria-label="Steel"
                     className={FIELD}
                     value={g.material.kind === 'grade' ? g.material.grade : 'values'}
-                    onChange={(e) => setGroup(i, { ...g, material: e.target.value === 'values' ? { kind: 'steel', Fy: 345, Fu: 450, E: 200_000 } : { kind: 'grade', grade: e.target.value } })}
+                    onChange={(e) => setGroup(i, { ...g, material: e.target.value === 'values' ? { kind: 'steel', Fy: STEEL_GRADES.A992.Fy, Fu: STEEL_GRADES.A992.Fu, E: STEEL_GRADES.A992.E } : { kind: 'grade', grade: e.target.value } })}
                   >
                     {Object.entries(STEEL_GRADES).map(([k, m]) => (
                       <option key={k} value={k} title={m.source}>
@@ -150,8 +158,8 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
                   {g.material.kind === 'steel' &&
                     (['Fy', 'Fu', 'E'] as const).map((k) => (
                       <label key={k} className="flex items-center gap-1">
-                        {k} (MPa)
-                        <NumberField label={`Steel ${k}`} value={g.material.kind === 'steel' ? g.material[k] : 0} onChange={(v) => g.material.kind === 'steel' && setGroup(i, { ...g, material: { ...g.material, [k]: v } })} />
+                        {k} ({u.stress})
+                        <NumberField label={`Steel ${k}`} value={g.material.kind === 'steel' ? stressOut(g.material[k], u) : 0} onChange={(v) => g.material.kind === 'steel' && setGroup(i, { ...g, material: { ...g.material, [k]: v === null ? v : stressIn(v, u) } })} />
                       </label>
                     ))}
                   {g.material.kind === 'grade' && <span className="text-xs text-ink-faint">{STEEL_GRADES[g.material.grade]?.source}</span>}
@@ -165,7 +173,7 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
                 value={g.section.shape}
                 onChange={(e) => {
                   const shape = e.target.value as DesignGroupInput['section']['shape'];
-                  setGroup(i, { ...g, section: Object.fromEntries([['shape', shape], ...SHAPE_FIELDS[shape].map((f) => [f, f === 's' ? 10 : 50])]) as DesignGroupInput['section'] });
+                  setGroup(i, { ...g, section: Object.fromEntries([['shape', shape], ...SHAPE_FIELDS[shape].map((f) => [f, f === 's' ? 10 : 50])]) as DesignGroupInput['section'] }); // mm, mm²
                 }}
               >
                 {Object.entries(SHAPE_NAMES).map(([k, l]) => (
@@ -176,8 +184,12 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
               </select>
               {SHAPE_FIELDS[g.section.shape].map((f) => (
                 <label key={f} className="flex items-center gap-1">
-                  {f} ({f === 'A' ? 'mm²' : 'mm'})
-                  <NumberField label={`Section ${f}`} value={(g.section as unknown as Record<string, number>)[f] ?? 0} onChange={(v) => setGroup(i, { ...g, section: { ...g.section, [f]: v } as DesignGroupInput['section'] })} />
+                  {f} ({section(f).unit})
+                  <NumberField
+                    label={`Section ${f}`}
+                    value={section(f).out((g.section as unknown as Record<string, number>)[f] ?? 0)}
+                    onChange={(v) => setGroup(i, { ...g, section: { ...g.section, [f]: v === null ? v : section(f).in(v) } as DesignGroupInput['section'] })}
+                  />
                 </label>
               ))}
               <label className="flex items-center gap-1">
@@ -185,8 +197,8 @@ function DesignEditor({ view, mayEdit }: { view: TrussModelView; mayEdit: boolea
                 <NumberField label="K" value={g.Kx ?? 1} onChange={(v) => setGroup(i, { ...g, Kx: v ?? undefined, Ky: v ?? undefined })} />
               </label>
               <label className="flex items-center gap-1" title="Out-of-plane unbraced length: purlin or brace spacing; empty for the member length">
-                Ly (m)
-                <NumberField label="Out-of-plane length Ly" value={g.Ly ?? null} onChange={(v) => setGroup(i, { ...g, Ly: v ?? undefined })} optional />
+                Ly ({u.span})
+                <NumberField label="Out-of-plane length Ly" value={g.Ly === undefined ? null : spanOut(g.Ly, u)} onChange={(v) => setGroup(i, { ...g, Ly: v === null ? undefined : spanIn(v, u) })} optional />
               </label>
             </div>
           </div>
@@ -260,9 +272,11 @@ function NumberField({ label, value, onChange, optional = false }: { label: stri
       aria-label={label}
       className={`${FIELD} w-24 text-right`}
       inputMode="decimal"
-      defaultValue={value === null ? '' : String(value)}
+      defaultValue={value === null ? '' : String(Number(value.toPrecision(6)))}
       onBlur={(e) => {
         const t = e.target.value.trim();
+        // Left as shown: keep the stored value (the field shows it to 6 figures in the project's units).
+        if (t === e.target.defaultValue) return;
         if (t === '' && optional) return onChange(null);
         onChange(Number(t));
       }}

@@ -1,5 +1,6 @@
 import { useMemo, useState } from 'react';
-import type { RunMemberDesign } from '@shared/design/basis';
+import { memberStepsIn, type RunDesign, type RunMemberDesign } from '@shared/design/basis';
+import { DESIGN_UNITS, forceOut, lengthOut } from '@shared/design/units';
 import type { RunView } from '@shared/schemas/run.schema';
 import type { UnitSystemId } from '@shared/units';
 import { Button } from '@/components/ui/button';
@@ -140,9 +141,9 @@ export function DesignResults({ run, unitSystem, mayRun }: { run: RunView; unitS
             />
             <ScaleLegend />
             <DesignTable rows={rows} unitSystem={unitSystem} picked={shown?.member ?? null} onPick={setPicked} />
-            {shown && <MemberSteps member={shown} />}
-            {design.deflection.length > 0 && <Deflections run={run} />}
-            {design.deflection.length > 0 && <DeflectedShapeView model={model} shapes={design.shapes} />}
+            {shown && <MemberSteps member={shown} design={design} model={model} unitSystem={unitSystem} />}
+            {design.deflection.length > 0 && <Deflections run={run} unitSystem={unitSystem} />}
+            {design.deflection.length > 0 && <DeflectedShapeView model={model} shapes={design.shapes} unitSystem={unitSystem} />}
           </>
         )}
       </div>
@@ -222,18 +223,21 @@ function DesignTable({ rows, unitSystem, picked, onPick }: { rows: RunMemberDesi
   );
 }
 
-function MemberSteps({ member }: { member: RunMemberDesign }) {
+function MemberSteps({ member, design, model, unitSystem }: { member: RunMemberDesign; design: RunDesign; model: RunView['model']; unitSystem: UnitSystemId }) {
+  // The run keeps its steps in SI; a US customary project sees them worked again in ksi, in², in, kip.
+  const u = DESIGN_UNITS[unitSystem];
+  const shown = memberStepsIn(model, design, member, u);
   return (
     <div aria-label={`Design steps of ${member.tag}`}>
       <h3 className="mb-2 text-sm font-semibold text-ink">
         Steps of {member.tag} ({member.group}){member.governing ? `, governing combination ${member.governing}` : ''}
       </h3>
       {member.refused && <p className="mb-2 text-sm font-medium text-danger">{member.refused}</p>}
-      {[member.tension, member.compression].map((sc) =>
+      {[shown.tension, shown.compression].map((sc) =>
         sc ? (
           <div key={sc.sense} className="mb-3">
             <p className="text-xs font-semibold tracking-wide text-ink-soft uppercase">
-              {sc.sense} — {sc.combination}, {sc.force.toFixed(2)} kN
+              {sc.sense} — {sc.combination}, {forceOut(sc.force, u).toFixed(2)} {u.force}
             </p>
             <ol className="mt-1 flex flex-col gap-1 text-[13px]">
               {sc.steps.map((st, i) => (
@@ -254,8 +258,11 @@ function MemberSteps({ member }: { member: RunMemberDesign }) {
   );
 }
 
-function Deflections({ run }: { run: RunView }) {
+function Deflections({ run, unitSystem }: { run: RunView; unitSystem: UnitSystemId }) {
   const d = run.analysis!.design!.deflection;
+  const u = DESIGN_UNITS[unitSystem];
+  const dec = unitSystem === 'us' ? 3 : 2;
+  const len = (mm: number) => lengthOut(mm, u).toFixed(dec);
   return (
     <div>
       <h3 className="mb-2 text-sm font-semibold text-ink">Deflection (unit-load method)</h3>
@@ -264,9 +271,9 @@ function Deflections({ run }: { run: RunView }) {
           <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
             <th className="px-2 py-1.5 text-left">Joint</th>
             <th className="px-2 py-1.5 text-left">Combination</th>
-            <th className="px-2 py-1.5 text-right">δx (mm)</th>
-            <th className="px-2 py-1.5 text-right">δy (mm)</th>
-            <th className="px-2 py-1.5 text-right">Allowed (mm)</th>
+            <th className="px-2 py-1.5 text-right">δx ({u.length})</th>
+            <th className="px-2 py-1.5 text-right">δy ({u.length})</th>
+            <th className="px-2 py-1.5 text-right">Allowed ({u.length})</th>
             <th className="px-2 py-1.5 text-right">Ratio</th>
             <th className="px-2 py-1.5 text-left">Result</th>
           </tr>
@@ -276,10 +283,10 @@ function Deflections({ run }: { run: RunView }) {
             <tr key={`${r.joint}-${r.combination}`} className="border-b border-paper-line/60">
               <td className="px-2 py-1 font-medium">{r.tag}</td>
               <td className="px-2 py-1">{r.combination}</td>
-              <td className="px-2 py-1 text-right">{r.dx.toFixed(2)}</td>
-              <td className="px-2 py-1 text-right">{r.dy.toFixed(2)}</td>
+              <td className="px-2 py-1 text-right">{len(r.dx)}</td>
+              <td className="px-2 py-1 text-right">{len(r.dy)}</td>
               <td className="px-2 py-1 text-right">
-                {fin(r.allowed) ? r.allowed.toFixed(1) : '—'} (span/{r.limit})
+                {fin(r.allowed) ? len(r.allowed) : '—'} (span/{r.limit})
               </td>
               <td className="px-2 py-1 text-right">{fin(r.ratio) ? r.ratio.toFixed(2) : '—'}</td>
               <td className={`px-2 py-1 ${r.pass ? 'text-ink-soft' : 'font-semibold text-danger'}`}>{r.pass ? 'passes' : 'fails'}</td>
