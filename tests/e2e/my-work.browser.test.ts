@@ -23,6 +23,7 @@ let browser: Browser;
 let engineer: Page;
 let reviewer: Page;
 let sheetId = 0;
+let runId = 0;
 
 beforeAll(async () => {
   buildClientIfNeeded();
@@ -74,7 +75,7 @@ async function draftFromApi(page: Page): Promise<number> {
     },
   });
   expect(saved.status()).toBe(200);
-  const runId = ((await (await api.post(url('/api/trusses/1/runs'), { ...w, data: {} })).json()) as { id: number }).id;
+  runId = ((await (await api.post(url('/api/trusses/1/runs'), { ...w, data: {} })).json()) as { id: number }).id;
   for (let i = 0; i < 400; i++) {
     const run = (await (await api.get(url(`/api/runs/${runId}`))).json()) as { status: string };
     if (run.status === 'solved') break;
@@ -140,5 +141,24 @@ describe('choosing the checker and My work, in Chromium', () => {
     await engineer.getByRole('navigation', { name: 'Main' }).getByTestId('my-work-count').filter({ hasText: /^1$/ }).waitFor({ timeout: 15_000 });
     expect(await engineer.getByRole('region', { name: 'Checked, ready to issue' }).getByText('None of your revisions is checked and waiting to be issued.').count()).toBe(1);
     await shot(engineer, 'my-work-3-engineer.png');
+  }, 60_000);
+
+  it('when the engineer starts revision B, then A reads "Returned — replaced by revision B" in the truss’s sheet list and on its page, and leaves Returned to me', async () => {
+    await engineer.goto(`${running.baseUrl}/trusses/1?tab=sheets`);
+    const start = engineer.getByRole('button', { name: /^New revision from Run \d+$/ });
+    await start.waitFor({ timeout: 15_000 });
+    await start.click();
+    await engineer.getByRole('heading', { name: /Calc sheet, revision B\s*Draft/ }).waitFor({ timeout: 15_000 });
+
+    await engineer.goto(`${running.baseUrl}/trusses/1?tab=sheets`);
+    const rowA = engineer.locator('tr', { has: engineer.getByRole('link', { name: 'A', exact: true }) });
+    await rowA.getByText('Returned — replaced by revision B').waitFor({ timeout: 15_000 });
+    await engineer.goto(`${running.baseUrl}/sheets/${sheetId}`);
+    await engineer.getByRole('heading', { name: /Calc sheet, revision A\s*Returned — replaced by revision B/ }).waitFor({ timeout: 15_000 });
+    await shot(engineer, 'my-work-4-replaced.png');
+
+    await engineer.goto(`${running.baseUrl}/my-work`);
+    await engineer.getByRole('region', { name: 'Returned to me' }).getByText('None of your revisions is waiting on you after a return.').waitFor({ timeout: 15_000 });
+    expect(await engineer.getByTestId('my-work-count').count()).toBe(0);
   }, 60_000);
 });
