@@ -225,6 +225,9 @@ describe('an admin hands a revision to another checker', () => {
       note: 'Checker changed from Rosa Quint to Priya Okafor. Rosa is away this week.',
     });
     expect(await mailsSince(mails)).toEqual([{ to: ['second.reviewer@demo.panelpoint.test'], subject: expect.stringContaining('submitted for check') }]);
+    const text = (await OutboxMessage.findOne({ order: [['id', 'DESC']] }))!.text;
+    expect(text).toContain('Eli Marsh submitted the calc sheet');
+    expect(text).toContain('Note: Ada Fenn handed this revision to you to check. Rosa is away this week.');
     expect((await work(tab.reviewer)).toCheck).toEqual([]);
     expect((await work(tab.reviewer2)).toCheck.map((r: { id: number }) => r.id)).toEqual([c]);
     expect((await post(tab.reviewer, `/api/sheets/${c}/check`)).body.error.code).toBe('not-checker');

@@ -252,7 +252,10 @@ export async function reassignChecker(id: number, checkerId: number, note: strin
   const before = row.checkerId === null ? 'every reviewer' : ((await repo.userNames([row.checkerId])).get(row.checkerId) ?? 'the earlier checker');
   const moved = await repo.checkerChange(row.id, row.checkerId, checker.id, actor.id, `Checker changed from ${before} to ${checker.name}.${note ? ` ${note}` : ''}`);
   if (!moved) throw statusConflict(await revisionOr404(id), 'check');
-  await notify('submitted', { ...row, checkerId: checker.id }, actor, note, deps);
+  // The e-mail reads as the preparer's submission (it is theirs), with a line saying who handed it over.
+  const preparer = row.preparedByName ?? (await repo.userNames([row.preparedById])).get(row.preparedById) ?? 'The preparer';
+  const handed = `${actor.name} handed this revision to you to check.${note ? ` ${note}` : ''}`;
+  await notify('submitted', { ...row, checkerId: checker.id }, { ...actor, name: preparer }, handed, deps);
   return getRevision(id, deps);
 }
 
