@@ -227,6 +227,7 @@ describe('an admin hands a revision to another checker', () => {
     expect(await mailsSince(mails)).toEqual([{ to: ['second.reviewer@demo.panelpoint.test'], subject: expect.stringContaining('submitted for check') }]);
     const text = (await OutboxMessage.findOne({ order: [['id', 'DESC']] }))!.text;
     expect(text).toContain('Eli Marsh submitted the calc sheet');
+    expect(text).toContain('You are its checker: only you can return it or mark it checked.');
     expect(text).toContain('Note: Ada Fenn handed this revision to you to check. Rosa is away this week.');
     expect((await work(tab.reviewer)).toCheck).toEqual([]);
     expect((await work(tab.reviewer2)).toCheck.map((r: { id: number }) => r.id)).toEqual([c]);

@@ -350,6 +350,7 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
       openComments: comments?.length,
       comments,
       sha256,
+      toChecker: kind === 'submitted' && row.checkerId !== null,
     });
   } catch (err) {
     deps.log(`Review e-mail (${kind}) for sheet revision ${row.id} was not sent`, err);
