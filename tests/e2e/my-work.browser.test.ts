@@ -2,7 +2,9 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
+import bcrypt from 'bcryptjs';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
+import { User } from '../../server/db/models';
 import { buildClientIfNeeded, launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
 
 /**
@@ -160,5 +162,40 @@ describe('choosing the checker and My work, in Chromium', () => {
     await engineer.goto(`${running.baseUrl}/my-work`);
     await engineer.getByRole('region', { name: 'Returned to me' }).getByText('None of your revisions is waiting on you after a return.').waitFor({ timeout: 15_000 });
     expect(await engineer.getByTestId('my-work-count').count()).toBe(0);
+  }, 60_000);
+
+  it('when an admin hands B (sent to Rosa) to a second reviewer, then the sheet names the new checker and the audit log says the checker changed', async () => {
+    await User.create({ email: 'second.reviewer@demo.panelpoint.test', name: 'Priya Okafor', role: 'reviewer', passwordHash: await bcrypt.hash(PASSWORD, 4) });
+    // The engineer opens B (a draft) from the truss's sheet list and submits it to Rosa.
+    await engineer.goto(`${running.baseUrl}/trusses/1?tab=sheets`);
+    await engineer.getByRole('link', { name: 'B', exact: true }).click();
+    await engineer.getByRole('heading', { name: /Calc sheet, revision B\s*Draft/ }).waitFor({ timeout: 15_000 });
+    await engineer.getByRole('button', { name: 'Submit for check', exact: true }).first().click();
+    await engineer.getByLabel('Checker').selectOption({ label: `Rosa Quint (${REVIEWER})` });
+    await engineer.getByRole('button', { name: 'Submit for check', exact: true }).last().click();
+    await engineer.getByRole('heading', { name: /Calc sheet, revision B\s*In check/ }).waitFor({ timeout: 15_000 });
+
+    const admin = await (await browser.newContext({ viewport: { width: 1360, height: 900 } })).newPage();
+    const keyErrors: string[] = [];
+    admin.on('console', (m) => {
+      if (m.type() === 'error' && m.text().includes('two children with the same key')) keyErrors.push(m.text());
+    });
+    await signIn(admin, 'admin@demo.panelpoint.test');
+    await admin.goto(engineer.url());
+    await admin.getByRole('button', { name: 'Change the checker' }).click();
+    // Neither the preparer nor the current checker is offered.
+    const choice = admin.getByLabel('New checker');
+    await choice.locator('option', { hasText: 'Priya Okafor' }).waitFor({ state: 'attached', timeout: 15_000 });
+    expect(await choice.locator('option', { hasText: 'Rosa Quint' }).count()).toBe(0);
+    await choice.selectOption({ label: 'Priya Okafor (second.reviewer@demo.panelpoint.test)' });
+    await admin.getByRole('button', { name: 'Hand it over' }).click();
+    await admin.getByText('changed the checker (still in check)').waitFor({ timeout: 15_000 });
+    expect(await admin.getByText('“Checker changed from Rosa Quint to Priya Okafor.”').count()).toBe(1);
+    await admin.getByText(/^Checker:\s*Priya Okafor/).waitFor({ timeout: 15_000 });
+    // The form closes once handed over.
+    await admin.getByLabel('New checker').waitFor({ state: 'detached', timeout: 15_000 });
+    // The hand-over control once sat beside the review panel under the same React key, which left the form on the page.
+    expect(keyErrors).toEqual([]);
+    await shot(admin, 'my-work-5-handover.png');
   }, 60_000);
 });

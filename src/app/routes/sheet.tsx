@@ -93,7 +93,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
           . Its comments carry over to the new revision.
         </NoteLine>
       )}
-      {s.status === 'in-check' && isAdmin(user.role) && <SheetCheckerChange key={s.id} sheet={s} />}
+      {s.status === 'in-check' && isAdmin(user.role) && <SheetCheckerChange key={`checker-${s.id}`} sheet={s} />}
 
       {s.supersededBy && (
         <NoteLine className="mb-4">
