@@ -48,7 +48,8 @@ async function main(args: string[]): Promise<void> {
     model,
     analysis,
     design,
-    ...(takeoff ? { takeoffSteps: computeTakeoff(saved, takeoff).steps } : {}),
+    // As the app's run: the roof loading's steps are printed when some case holds its loads (is marked).
+    ...(takeoff && saved.loadCases.some((c) => c.source === 'roof-loading') ? { takeoffSteps: computeTakeoff(saved, takeoff).steps } : {}),
     preparedBy: { name: 'Panelpoint sheet command' },
     runLabel: path.basename(jobPath),
     generatedAt: new Date(),
