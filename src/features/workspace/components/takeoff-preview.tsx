@@ -7,8 +7,12 @@ import { TH, TH_RIGHT } from './supports-table';
 const f = (v: number, d: number) => numberFormat(v, d);
 const ordinal = (n: number) => `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n % 10 === 2 && n % 100 !== 12 ? 'nd' : n % 10 === 3 && n % 100 !== 13 ? 'rd' : 'th'}`;
 
-/** The takeoff as the server computed it: widths, line loads, and the purlin reactions both ways. */
-export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string> }) {
+/**
+ * The takeoff as the server computed it: widths, line loads, and the purlin reactions both ways.
+ * `loadLetter` is the truss's load letter (loadLetterOf in @shared/solver, the sheet's rule): P,
+ * unless a tag of this truss could be read as P.
+ */
+export function TakeoffPreview({ result, caseNames, loadLetter }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string>; loadLetter: string }) {
   const equalSpans = result.spans.every((s) => Math.abs(s - result.spans[0]!) < 1e-9);
   return (
     <div className="flex flex-col gap-4" aria-label="Takeoff preview">
@@ -121,7 +125,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
           {result.steps.map((s) => (
             <li key={s.id}>
               <p className="text-xs font-semibold text-ink-soft">{s.title}</p>
-              <Tex source={takeoffStepKatex(s)} />
+              <Tex source={takeoffStepKatex(s, { loadLetter })} />
             </li>
           ))}
         </ol>
