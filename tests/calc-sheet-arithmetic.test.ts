@@ -7,7 +7,7 @@ import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
 import { demoTruss, kTruss, withTakeoff } from './support/sheet-samples';
 import { roofTakeoff, type TakeoffMethod } from '@shared/takeoff';
-import { buildCalcSheetView, katexHtml, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
+import { buildCalcSheetView, equationHtml, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
 
 /**
  * A checker redoes every printed equation of a calc sheet by hand, from the printed numbers.
@@ -304,7 +304,8 @@ function resultRead(seg: string): { printed: Printed; unit: string | null; perce
 
 function takeoffCheck(sheet: string, step: StepView, bad: Mismatch[]): number {
   let checked = 0;
-  const tex = step.tex[0].replace('\\begin{aligned}', '').replace('\\end{aligned}', '');
+  // Each row of a takeoff step is one equation of the step (the sheet splits its aligned block).
+  const tex = step.tex.join(' \\\\\n');
   const printedR = new Map<string, Printed>();
   for (const raw of tex.split(/\\\\\n?/)) {
     const line = raw.trim().replace(/^&/, '').replace(/\s*\\quad\s*\\text\{[^}]*\}\s*$/, '');
@@ -348,7 +349,7 @@ function sheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number
   // The printed source is what was typeset.
   for (const s of steps) {
     expect(s.tex.length).toBe(s.lines.length);
-    if (view.takeoff.includes(s)) expect(s.lines[0]).toBe(katexHtml(s.tex[0]));
+    if (view.takeoff.includes(s)) s.tex.forEach((t, k) => expect(s.lines[k]).toBe(equationHtml(t)));
   }
   for (const s of view.takeoff) checked += takeoffCheck(sheet, s, bad);
 

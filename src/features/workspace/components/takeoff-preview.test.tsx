@@ -4,7 +4,7 @@ import { cleanup, render } from '@testing-library/react';
 import { loadLetterOf } from '@shared/solver';
 import { modelFromSketch } from '@shared/solver/test-trusses';
 import { roofTakeoff, takeoffStepKatex } from '@shared/takeoff';
-import { breakableTex } from '@shared/text/breakable-tex';
+import { alignedRows, breakableTex } from '@shared/text/breakable-tex';
 import type { TrussModel } from '@shared/model/truss';
 import { TakeoffPreview } from './takeoff-preview';
 
@@ -51,7 +51,7 @@ describe('roof loading preview: load letter', () => {
     expect(loads.length).toBeGreaterThan(0);
     expect(sources.join(' ')).not.toMatch(/(^|[^a-zA-Z\\])P_\{/);
     // The sheet's takeoff section writes each step with takeoffStepKatex and loadLetterOf(model): the same sources.
-    const sheet = result.steps.map((s) => takeoffStepKatex(s, { loadLetter: loadLetterOf(model) }));
+    const sheet = result.steps.flatMap((s) => alignedRows(takeoffStepKatex(s, { loadLetter: loadLetterOf(model) })));
     const typeset = (tex: string) => `\\displaystyle ${breakableTex(tex)}`.replace(/\s+/g, '');
     expect(sources.map((s) => s.replace(/\s+/g, ''))).toEqual(sheet.map(typeset));
   });

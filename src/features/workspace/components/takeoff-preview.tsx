@@ -1,6 +1,7 @@
 import type { RoofTakeoffResult } from '@shared/takeoff';
 import { takeoffStepKatex } from '@shared/takeoff';
 import { numberFormat } from '@shared/units';
+import { alignedRows } from '@shared/text/breakable-tex';
 import { Tex } from './tex';
 import { TH, TH_RIGHT } from './supports-table';
 
@@ -125,7 +126,10 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
           {result.steps.map((s) => (
             <li key={s.id}>
               <p className="text-xs font-semibold text-ink-soft">{s.title}</p>
-              <Tex source={takeoffStepKatex(s, { loadLetter })} />
+              {/* Each row its own equation, as on the sheet, so a long row wraps inside the card. */}
+              {alignedRows(takeoffStepKatex(s, { loadLetter })).map((row, k) => (
+                <Tex key={k} source={row} />
+              ))}
             </li>
           ))}
         </ol>
