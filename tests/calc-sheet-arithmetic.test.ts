@@ -5,8 +5,7 @@ import type { DesignInput } from '@shared/model/design-input';
 import { runDesign } from '@shared/design/basis';
 import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
-import { demoTruss, kTruss, withTakeoff } from './support/sheet-samples';
-import { roofTakeoff, type TakeoffMethod } from '@shared/takeoff';
+import { demoTruss, kTruss, withTakeoff, withWindAndPatterns } from './support/sheet-samples';
 import { buildCalcSheetView, equationHtml, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
 
 /**
@@ -32,29 +31,6 @@ math.createUnit('kipf', '1000 lbf');
 // Sheets to read
 
 /** The demo truss with snow checked for span patterns and wind normal to both slopes (invented values). */
-function withWindAndPatterns(model: TrussModel, method: TakeoffMethod, spacing: number | number[], trussIndex: number) {
-  const topChord = ['L0', 'U1', 'U2', 'U3', 'U4', 'U5', 'L6'];
-  const takeoff = roofTakeoff({
-    joints: model.joints,
-    topChordJoints: topChord,
-    areaLoads: [
-      { caseId: 'D', q: 0.87, basis: 'slope', category: 'dead' },
-      { caseId: 'S', q: 1.13, basis: 'plan', category: 'snow', patterns: true },
-    ],
-    wind: { caseId: 'W', category: 'wind', q: 0.737, windward: 'left', cWindward: -0.37, cLeeward: -0.53 },
-    spacing,
-    trussCount: Array.isArray(spacing) ? spacing.length + 1 : 6,
-    trussIndex,
-    method,
-  });
-  model.loadCases = [
-    { id: 'D', name: 'Roofing, purlins and ceiling', category: 'dead', loads: takeoff.caseLoads.D },
-    { id: 'S', name: 'Snow, unfavourable spans', category: 'snow', loads: takeoff.caseLoads.S },
-    { id: 'W', name: 'Wind across the ridge', category: 'wind', loads: takeoff.caseLoads.W },
-  ];
-  return { model, takeoffSteps: takeoff.steps };
-}
-
 function input(model: TrussModel, extra: Partial<CalcSheetInput> = {}, unitSystem: 'SI' | 'US' = 'SI'): CalcSheetInput {
   return {
     firm: { name: 'Hollin Bank Structures (test)', address: '4 Quarry Lane', paperSize: 'A4' },
