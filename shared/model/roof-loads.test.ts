@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { roofLoadsChanges, roofLoadsProblem, roofLoadsResolve, sameJointLoads } from './roof-loads';
+import { roofLoadsChanges, roofLoadsProblem, roofLoadsResolve, roofLoadsSteps, sameJointLoads } from './roof-loads';
 import type { LoadCase } from './truss';
 
 const snow = (loads: LoadCase['loads'], marked = true): LoadCase => ({ id: 'S', name: 'Snow', category: 'snow', loads, ...(marked ? { source: 'roof-loading' as const } : {}) });
@@ -56,5 +56,13 @@ describe('the one rule for roof-loading loads (app runs, job file, command line,
     expect(roofLoadsResolve([snow([])], { D: computed.D }).problem).toEqual({ code: 'roof-loads-not-written', caseId: 'S' });
     expect(roofLoadsResolve([snow([])], null).problem).toEqual({ code: 'roof-loads-without-takeoff', caseId: 'S' });
     expect(roofLoadsResolve([dead([])], null).problem).toBeNull();
+  });
+});
+
+describe('the roof loading steps a sheet prints', () => {
+  it('when a case the roof loading writes is detached, then its steps are left out; shared steps and marked cases\' steps stay, in order', () => {
+    const steps = [{ id: 'w', caseId: '' }, { id: 'd1', caseId: 'D' }, { id: 's1', caseId: 'S' }, { id: 'd2', caseId: 'D' }, { id: 's2', caseId: 'S' }];
+    const cases = [{ id: 'D' }, { id: 'S', source: 'roof-loading' as const }];
+    expect(roofLoadsSteps(steps, cases).map((s) => s.id)).toEqual(['w', 's1', 's2']);
   });
 });

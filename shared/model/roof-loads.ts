@@ -133,3 +133,15 @@ export function roofLoadsResolve<C extends Pick<LoadCase, 'id' | 'loads' | 'sour
   }
   return { cases: out, problem: null };
 }
+
+/**
+ * The roof loading's steps a sheet prints for a model: the steps shared by every case (widths,
+ * the continuous purlin; caseId '') and those of the cases marked as holding its loads. A case
+ * the roof loading writes but whose loads were detached solves its hand loads, so its takeoff
+ * steps (which end in loads it does not carry) are left out, as roofLoadsResolve leaves them out
+ * of the loads. Steps come back in their order.
+ */
+export function roofLoadsSteps<S extends { caseId: string }>(steps: readonly S[], cases: readonly Pick<LoadCase, 'id' | 'source'>[]): S[] {
+  const marked = new Set(cases.filter((c) => c.source === 'roof-loading').map((c) => c.id));
+  return steps.filter((s) => s.caseId === '' || marked.has(s.caseId));
+}

@@ -133,6 +133,17 @@ describe('job file with a roof loading: the app, the command line and the import
     expect(d.reactions.map((r) => r.ry)).toEqual([expect.closeTo(4.5, 12), expect.closeTo(4.5, 12)]);
   });
 
+  it('when the run\'s calc sheet is built, then it prints the roof loading\'s steps of the marked cases (S, W) and none of the detached case D', async () => {
+    const run = await runOf();
+    const html = (await engineer.agent.get(`/api/runs/${run.id}/sheet`).expect(200)).text;
+    const ids = [...html.matchAll(/<article class="step[^"]*" id="(takeoff\/[^"]+)"/g)].map((m) => m[1]);
+    expect(ids.some((id) => id.startsWith('takeoff/S/'))).toBe(true);
+    expect(ids.some((id) => id.startsWith('takeoff/W/'))).toBe(true);
+    expect(ids.filter((id) => id.startsWith('takeoff/D/'))).toEqual([]);
+    // The steps every case shares (the purlins' widths) stay.
+    expect(ids.some((id) => /^takeoff\/purlin-[^/]+\/width$/.test(id))).toBe(true);
+  });
+
   it('when the exported file is imported back, then the model is the same (marks, loads and roof loading) and only its version moves on', async () => {
     const before = await current();
     const text = (await engineer.agent.get(`/api/trusses/${trussId}/job-file`).expect(200)).text;
