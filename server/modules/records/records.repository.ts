@@ -1,4 +1,5 @@
-import { QueryTypes, type WhereOptions } from 'sequelize';
+import type { WhereOptions } from 'sequelize';
+import { readRows } from '../../db/read-rows';
 import type { SheetStatus } from '@shared/schemas/review.schema';
 import { Project, SheetRevision, SheetRevisionEvent, Truss } from '../../db/models';
 import { sqlDate } from '../../db/sql-dates';
@@ -145,7 +146,8 @@ export const recordsRepository = {
       jobNumber: string;
       supersededByNumber: number | null;
     };
-    const rows = await SheetRevision.sequelize!.query<Raw>(
+    const rows = await readRows<Raw>(
+      SheetRevision.sequelize!,
       `SELECT r."id", r."trussId", r."number", r."status", r."issuedAt", r."sha256", r."pdfSize", r."supersededById",
               r."preparedById", r."preparedByName", r."submittedAt", r."checkedById", r."checkedByName", r."checkedAt",
               r."issuedById", r."issuedByName",
@@ -156,7 +158,7 @@ export const recordsRepository = {
          JOIN "projects" p ON p."id" = t."projectId"
          LEFT JOIN "sheet_revisions" s ON s."id" = r."supersededById"
         WHERE r."status" IN (:statuses)${where.trussIds ? ' AND r."trussId" IN (:trussIds)' : ''}`,
-      { type: QueryTypes.SELECT, replacements: { statuses: where.statuses, trussIds: where.trussIds ?? [] }, raw: true },
+      where.trussIds ? { statuses: where.statuses, trussIds: where.trussIds } : { statuses: where.statuses },
     );
     return rows.map((r) => ({
       row: {
