@@ -76,7 +76,7 @@ function bound(sql: string, replacements: Record<string, unknown>): { text: stri
     if (!(name in replacements)) throw new Error(`readRows: no value for :${name}.`);
     const v = replacements[name];
     if (Array.isArray(v)) {
-      // Sequelize writes an empty list as NULL (IN (NULL) matches nothing); so does this.
+      // Sequelize writes an empty list as NULL on SQLite (IN (NULL) matches nothing); so does this.
       text += v.length === 0 ? 'NULL' : v.map(() => '?').join(', ');
       values.push(...v.map(sqliteValue));
     } else {
