@@ -21,8 +21,12 @@ export async function readRows<T extends object>(sequelize: Sequelize, sql: stri
   }
   const { text, values } = bound(sql, replacements);
   const db = await sqliteConnection(sequelize);
+  // Serialised, as Sequelize runs every statement on this connection (conn.serialize): in the
+  // driver's parallel mode fifty overlapping reads kept the thread pool busy on the connection's
+  // lock and two engineers' model saves fell from some 3 a second to 0.4 (bench:api, writers).
+
   try {
-    return await new Promise<T[]>((resolve, reject) => db.all(text, values, (err, rows) => (err ? reject(err) : resolve(rows as T[]))));
+    return await new Promise<T[]>((resolve, reject) => db.serialize(() => db.all(text, values, (err, rows) => (err ? reject(err) : resolve(rows as T[])))));
   } catch (err) {
     // A busy database (a checkpoint, a recovery) is retried by Sequelize's own path, which
     // waits and tries again (sequelize.ts: retry on SQLITE_BUSY).
@@ -32,6 +36,7 @@ export async function readRows<T extends object>(sequelize: Sequelize, sql: stri
 }
 
 interface SqliteDb {
+  serialize(fn: () => void): void;
   all(sql: string, params: unknown[], cb: (err: Error | null, rows: unknown[]) => void): void;
 }
 
