@@ -175,7 +175,63 @@ export async function pgBossQueueOpen(url: string, options: { log?: (m: string, 
     throw err;
   }
   const running = new Set<Promise<void>>();
+  const loops: Promise<void>[] = [];
   let closed = false;
+  const sleepers = new Set<() => void>();
+  const poll = (options.pollingIntervalSeconds ?? 1) * 1000;
+  const pause = (ms: number) =>
+    new Promise<void>((resolve) => {
+      const wake = () => {
+        clearTimeout(t);
+        sleepers.delete(wake);
+        resolve();
+      };
+      const t = setTimeout(wake, ms);
+      sleepers.add(wake);
+    });
+
+  /**
+   * One taker: fetches one job (pg-boss marks it active, highest priority first, then oldest),
+   * runs the handler within the job's time limit, and completes or fails it (a failed job is
+   * retried by pg-boss up to its retryLimit, then moved to the dead-letter queue). After a job
+   * it fetches again at once; with the queue empty it looks again every `poll` ms. (pg-boss's own
+   * `work` waits the polling interval after every job, which caps a taker at one job a second.)
+   */
+  async function takeLoop(name: string, run: (job: PgBoss.JobWithMetadata<JobData>) => Promise<void>): Promise<void> {
+    while (!closed) {
+      let job: PgBoss.JobWithMetadata<JobData> | undefined;
+      try {
+        [job] = await boss.fetch<JobData>(name, { includeMetadata: true, batchSize: 1 });
+      } catch (err) {
+        if (closed) return;
+        log(`The job queue could not be read (${name}); trying again`, err);
+        await pause(poll * 5);
+        continue;
+      }
+      if (!job) {
+        await pause(poll);
+        continue;
+      }
+      const done = (async () => {
+        let timer: NodeJS.Timeout | undefined;
+        try {
+          const limit = new Promise<never>((_, reject) => {
+            timer = setTimeout(() => reject(new Error(`the job ran past its time limit of ${job.expireInSeconds} s`)), job.expireInSeconds * 1000);
+          });
+          await Promise.race([run(job), limit]);
+          await boss.complete(name, job.id);
+        } catch (err) {
+          await boss.fail(name, job.id, { message: err instanceof Error ? err.message : String(err) }).catch((e) => log(`The job queue could not record a failed ${name} job`, e));
+        } finally {
+          clearTimeout(timer);
+        }
+      })();
+      running.add(done);
+      await done;
+      running.delete(done);
+    }
+  }
+
   return {
     kind: 'pg-boss',
     durable: true,
@@ -184,33 +240,24 @@ export async function pgBossQueueOpen(url: string, options: { log?: (m: string, 
     },
     async work(name, handler, givenUp) {
       const p = QUEUE_POLICY[name];
-      if (givenUp) {
-        await boss.work<JobData>(givenUpQueue(name), { batchSize: 1, pollingIntervalSeconds: 5 }, async ([job]) => {
-          await givenUp(job.data);
-        });
-      }
+      if (givenUp) loops.push(takeLoop(givenUpQueue(name), async (job) => givenUp(job.data)));
       for (let i = 0; i < p.concurrency; i++) {
-        await boss.work<JobData>(name, { includeMetadata: true, batchSize: 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 1 }, async ([job]) => {
-          if (closed) throw new Error('This process is stopping; the job is left to another.');
-          const attempt = { attempt: job.retryCount + 1, last: job.retryCount >= job.retryLimit };
-          const done = handler(job.data, attempt);
-          running.add(done);
-          try {
-            await done;
-          } finally {
-            running.delete(done);
-          }
-        });
+        loops.push(
+          takeLoop(name, (job) => handler(job.data, { attempt: job.retryCount + 1, last: job.retryCount >= job.retryLimit })),
+        );
       }
     },
     async idle() {
       await Promise.all([...running]);
     },
     async close() {
+      if (closed) return;
       closed = true;
-      // Graceful: pg-boss stops fetching and waits (up to the timeout) for jobs running here;
-      // a job still running then is retried elsewhere when its time limit runs out.
-      await boss.stop({ graceful: true, wait: true, timeout: 10_000, close: true }).catch((err) => log('The job queue did not stop cleanly', err));
+      for (const wake of [...sleepers]) wake();
+      // The jobs running here get up to 10 s to finish; one still running then is left active
+      // and pg-boss retries it in another process when its time limit runs out.
+      await Promise.race([Promise.all(loops), new Promise((r) => setTimeout(r, 10_000).unref())]);
+      await boss.stop({ graceful: false, wait: true, close: true }).catch((err) => log('The job queue did not stop cleanly', err));
     },
   };
 }
