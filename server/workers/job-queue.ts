@@ -139,7 +139,17 @@ export const PG_BOSS_SCHEMA = 'pgboss';
  * with their retry and time-limit policy. A server that cannot be reached fails here with one
  * sentence naming DATABASE_URL.
  */
-export async function pgBossQueueOpen(url: string, options: { log?: (m: string, e?: unknown) => void; pollingIntervalSeconds?: number; application?: string } = {}): Promise<JobQueue> {
+export async function pgBossQueueOpen(
+  url: string,
+  options: {
+    log?: (m: string, e?: unknown) => void;
+    pollingIntervalSeconds?: number;
+    application?: string;
+    /** Tests only: other limits than QUEUE_POLICY's (short time limits, no retry delay). */
+    policy?: Partial<Record<QueueName, Partial<(typeof QUEUE_POLICY)[QueueName]>>>;
+  } = {},
+): Promise<JobQueue> {
+  const policyOf = (name: QueueName) => ({ ...QUEUE_POLICY[name], ...options.policy?.[name] });
   const log = options.log ?? ((m, e) => console.error(m, e));
   const boss = new PgBoss({
     connectionString: url,
@@ -162,7 +172,7 @@ export async function pgBossQueueOpen(url: string, options: { log?: (m: string, 
   }
   try {
     for (const name of Object.keys(QUEUE_POLICY) as QueueName[]) {
-      const p = QUEUE_POLICY[name];
+      const p = policyOf(name);
       const deadLetter = givenUpQueue(name);
       const policy = { retryLimit: p.retryLimit, retryDelay: p.retryDelay, expireInSeconds: p.expireInSeconds };
       // createQueue keeps an existing queue (and its policy): updateQueue applies this release's limits.
@@ -239,7 +249,7 @@ export async function pgBossQueueOpen(url: string, options: { log?: (m: string, 
       await boss.send(name, data, { priority: PRIORITY_NUMBER[opts.priority ?? 'background'] });
     },
     async work(name, handler, givenUp) {
-      const p = QUEUE_POLICY[name];
+      const p = policyOf(name);
       if (givenUp) loops.push(takeLoop(givenUpQueue(name), async (job) => givenUp(job.data)));
       for (let i = 0; i < p.concurrency; i++) {
         loops.push(
