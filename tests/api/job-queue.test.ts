@@ -67,7 +67,7 @@ describe.skipIf(!on)('the pg-boss queue (PostgreSQL)', () => {
     await pgTestDatabasesDrop();
   }, 60_000);
 
-  const open = async (url: string, policy?: Parameters<typeof pgBossQueueOpen>[1]['policy']) => {
+  const open = async (url: string, policy?: NonNullable<Parameters<typeof pgBossQueueOpen>[1]>['policy']) => {
     const q = await pgBossQueueOpen(url, { log: () => {}, pollingIntervalSeconds: 0.5, policy });
     opened.push(q);
     return q;

@@ -90,11 +90,19 @@ function startChild(name: string, script: string, env: Record<string, string>, r
   });
 }
 
-/** A browser-like client of one app: the session cookie is set by hand so the same one can go to the other app. */
+/** A browser-like client of one app: its cookies are kept by hand so the same ones can go to the other app. */
 class Client {
-  constructor(public base: string, public cookie = '', public csrf = '') {}
+  constructor(
+    public base: string,
+    public jar = new Map<string, string>(),
+    public csrf = '',
+  ) {}
+  get cookie() {
+    return [...this.jar.values()].join('; ');
+  }
+  /** The same cookies and token, sent to the other app (they share one address behind a proxy). */
   to(base: string) {
-    return new Client(base, this.cookie, this.csrf);
+    return new Client(base, this.jar, this.csrf);
   }
   async call(method: string, url: string, body?: object | FormData): Promise<{ status: number; json: any; bytes: Buffer; headers: Headers }> {
     const headers: Record<string, string> = {};
@@ -107,8 +115,10 @@ class Client {
       payload = JSON.stringify(body);
     }
     const res = await fetch(`${this.base}${url}`, { method, headers, body: payload });
-    const set = res.headers.getSetCookie().find((c) => c.startsWith('panelpoint.sid='));
-    if (set) this.cookie = set.split(';')[0];
+    for (const set of res.headers.getSetCookie()) {
+      const pair = set.split(';')[0];
+      this.jar.set(pair.split('=')[0], pair);
+    }
     const bytes = Buffer.from(await res.arrayBuffer());
     let json: any = null;
     if ((res.headers.get('content-type') ?? '').includes('json')) json = JSON.parse(bytes.toString('utf8'));
