@@ -2,6 +2,8 @@ import pg from 'pg';
 import { afterAll, describe, expect, it } from 'vitest';
 import { inProcessQueueCreate, pgBossQueueOpen, type JobAttempt, type JobQueue } from '../../server/workers/job-queue';
 import { pgTestDatabaseCreate, pgTestDatabasesDrop, pgTestsOn } from '../support/pg';
+import { demoEmail, signIn, startTestServices } from '../support/test-services';
+import { solvedDemoRun } from '../support/fixtures';
 
 /**
  * The job queue's two implementations behind one interface: the in-process queue (SQLite) and
@@ -149,4 +151,25 @@ describe.skipIf(!on)('the pg-boss queue (PostgreSQL)', () => {
     expect(starts[1] - starts[0]).toBeLessThan(2_900);
     expect(starts[1] - starts[0]).toBeGreaterThanOrEqual(900);
   }, 60_000);
+});
+
+describe.skipIf(!on)('one app process on PostgreSQL with the pg-boss queue and no worker (WORKERS_IN_APP left at true)', () => {
+  it('when the engineer runs the demo truss, then the app takes the job from pg-boss itself and the run is solved with the closed-form forces', async () => {
+    const services = await startTestServices({ jobQueue: 'pg-boss' });
+    try {
+      expect(services.queue.kind).toBe('pg-boss');
+      expect(services.config.workersInApp).toBe(true);
+      const engineer = await signIn(services.app, demoEmail('engineer'));
+      const run = await solvedDemoRun(engineer);
+      // Closed form (method of joints, from memory; see loadDemoTruss): the end bottom chord +2R = +50 kN.
+      const full = (await engineer.agent.get(`/api/runs/${run.id}`).expect(200)).body;
+      const at = (x: number, y: number) => full.model.joints.find((j: { x: number; y: number }) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6).id;
+      const chord = full.model.members.find((m: { from: string; to: string }) => [m.from, m.to].sort().join() === [at(0, 0), at(2, 0)].sort().join()).id;
+      expect(full.analysis.cases[0].forces[chord]).toBeCloseTo(50, 6);
+      const [rows] = await services.sequelize.query(`SELECT state, data FROM pgboss.job WHERE name = 'solve-run'`);
+      expect(rows).toEqual([{ state: 'completed', data: { id: run.id } }]);
+    } finally {
+      await services.shutdown();
+    }
+  }, 90_000);
 });
