@@ -28,6 +28,7 @@ import type { FileStores } from './storage/stores';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
 import { sheetBuildPoolCreate } from './modules/calc-sheets/sheet-build-pool';
+import { previewHoldsInProcess, previewHoldsPostgres } from './modules/calc-sheets/preview-holds';
 import { JOB_TRIES, printJobsCreate } from './modules/calc-sheets/print-jobs.service';
 import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
 import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
@@ -179,7 +180,9 @@ export function createApp(deps: AppDeps): CreatedApp {
     },
     (err) => log('Print jobs could not be resumed', err),
   );
-  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs }));
+  // Quick draft PDFs per person, counted in PostgreSQL's lock table when app processes share a database.
+  const holds = deps.queue.kind === 'pg-boss' && config.databaseUrl ? previewHoldsPostgres(config.databaseUrl) : previewHoldsInProcess();
+  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs, holds }));
   const issuedSheets = deps.stores.sheets;
   app.use(
     '/api',
@@ -219,6 +222,7 @@ export function createApp(deps: AppDeps): CreatedApp {
       (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
       await printJobs.close();
       await (await workers)?.close();
+      await holds.close();
       await importPool.close();
       await sheetBuilder.close();
       if (!deps.printer) await printer.close();
