@@ -4,7 +4,8 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import ConnectSessionSequelize from 'connect-session-sequelize';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
+import { readRows } from './db/read-rows';
 import type { Config } from './config';
 import type { Mailer } from './mail/mailer';
 import type { RouteSpec } from './middleware/access';
@@ -81,6 +82,12 @@ export function createApp(deps: AppDeps): CreatedApp {
   const registry: RouteSpec[] = [];
   const app = express();
   app.disable('x-powered-by');
+  // No ETag on API answers: express hashes every body it sends (SHA-1 of the whole JSON). A
+  // browser revalidating with If-None-Match gets a 304 instead of a few kB on the office network,
+  // but the server has built, read and serialised the whole answer by then, so it saves no work
+  // here; the hash is pure cost per request (bench:api). Static files keep theirs (serve-static
+  // and sendFile make their own from size and time).
+  app.set('etag', false);
   // X-Forwarded-For is believed only when the operator says a proxy sits in front (TRUST_PROXY):
   // otherwise anyone on the machine could claim any address to the sign-in limiter.
   app.set('trust proxy', config.trustProxy ?? false);
@@ -111,13 +118,12 @@ export function createApp(deps: AppDeps): CreatedApp {
   (store as unknown as { touch: (sid: string, sess: unknown, cb?: () => void) => void }).touch = (_sid, _sess, cb) => cb?.();
   // Every request reads its session: the data column in one hand-written query, not a model
   // finder (which builds the query, clones its options and, on SQLite, first asks the table's
-  // column types in a second round trip; bench:api, CPU per request).
+  // column types in a second round trip), and on SQLite past Sequelize's query path (readRows;
+  // bench:api, CPU per request).
   const sessionTable = (store as unknown as { sessionModel: import('sequelize').ModelStatic<import('sequelize').Model> }).sessionModel.getTableName() as string;
   const sessionSql = `SELECT "data" FROM "${sessionTable}" WHERE "sid" = :sid`;
   (store as unknown as { get: (sid: string, cb: (err: unknown, s?: unknown) => void) => void }).get = (sid, cb) => {
-    deps.sequelize
-      .query<{ data: string }>(sessionSql, { type: QueryTypes.SELECT, replacements: { sid }, raw: true })
-      .then((rows) => cb(null, rows[0] ? JSON.parse(rows[0].data) : null), (err) => cb(err));
+    readRows<{ data: string }>(deps.sequelize, sessionSql, { sid }).then((rows) => cb(null, rows[0] ? JSON.parse(rows[0].data) : null), (err) => cb(err));
   };
   const secure = overHttps;
   app.use(
@@ -133,7 +139,8 @@ export function createApp(deps: AppDeps): CreatedApp {
     }),
   );
   const passport = createPassport();
-  app.use('/api', passport.initialize(), passport.session());
+  // compat: false skips req._passport, which only strategies written for passport 0.4 read.
+  app.use('/api', passport.initialize({ compat: false }), passport.session());
   app.use('/api', extendSignedInSession);
   const csrf = createCsrf(deps.sessionSecret, secure);
   app.use('/api', csrf.protection);

@@ -29,7 +29,7 @@ const PREVIEW_STYLE = `
   [data-pp-threads][data-pp-open] { box-shadow: -5px 0 0 -1px #a33a2b; }
   [data-pp-threads]::after {
     content: attr(data-pp-threads); position: absolute; top: 0; right: calc(100% + 9px); padding: 1px 5px; white-space: nowrap;
-    font: 600 10px/1.4 Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans KR', 'Noto Sans Thai', system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
+    font: 600 10px/1.4 Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans JP', 'Noto Sans KR', 'Noto Sans TC', 'Noto Sans Thai', system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
   }
   [data-pp-threads][data-pp-open]::after { color: #a33a2b; background: #faeeec; }
   [data-pp-selected] { outline: 2px solid #12605a !important; outline-offset: 3px; background-color: rgba(217, 235, 232, 0.35); }
