@@ -156,6 +156,19 @@ describe('GET /api/sheets/:id/compare', () => {
     expect(back.diff.loadCases.changed[0]!.loads[0]!.dfy).toBe(6);
   });
 
+  it('when revision B is previewed, then its cover carries the revision table: A first, B with the changed load and forces in one line per kind', async () => {
+    const res = await reviewer.agent.get(`/api/sheets/${sheetB}/preview`);
+    expect(res.status).toBe(200);
+    const table = /<table class="signoff revision-table"[\s\S]*?<\/table>/.exec(res.text)?.[0] ?? '';
+    expect(table).toMatch(/<th>A<\/th><td class="num">\d{4}-\d\d-\d\d<\/td><td>draft<\/td><td><div class="rev-line">First revision of this truss.<\/div>/);
+    expect(table).toContain('<div class="rev-line">Loads: case D changed at 1 joint (total Fy −6.00 kN).</div>');
+    expect(table).toMatch(/Forces and reactions: forces of \d+ members changed, by up to 6\.71 kN \(case D\); reactions changed\./);
+    expect(table).not.toContain('Geometry:');
+    // Revision A's own sheet lists only itself.
+    const a = await reviewer.agent.get(`/api/sheets/${sheetA}/preview`);
+    expect(a.text.match(/<th>[A-Z]<\/th><td class="num">/g)).toEqual(['<th>A</th><td class="num">']);
+  });
+
   it('when the input is bad, then one sentence each and nothing written', async () => {
     const before = await counts();
     const refused = [

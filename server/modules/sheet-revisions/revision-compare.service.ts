@@ -146,7 +146,17 @@ export async function revisionHistoryOf(id: number, options: { issuedAt?: string
       continue;
     }
     const previous = revisions[i - 1]!;
-    const diff = revisionDiff(sideOf(await runOf(previous.runId)), sideOf(await runOf(r.runId)));
+    let diff;
+    try {
+      diff = revisionDiff(sideOf(await runOf(previous.runId)), sideOf(await runOf(r.runId)));
+    } catch (err) {
+      // A run that cannot be read (none of a revision's is, but a table row must not stop the sheet).
+      if (err instanceof AppError || err instanceof SyntaxError || err instanceof TypeError) {
+        out.push({ revision: sheetRevisionLabel(r.number), date, status, lines: [`Not compared with revision ${sheetRevisionLabel(previous.number)}: a run of the two cannot be read.`] });
+        continue;
+      }
+      throw err;
+    }
     const changed = revisionDiffLines(diff).filter((l) => l.changed);
     out.push({
       revision: sheetRevisionLabel(r.number),
