@@ -98,7 +98,7 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
     ...diff.combinations.added.map((c) => [c.name, '—', 'added']),
     ...diff.combinations.removed.map((c) => [c.name, 'removed', '—']),
   ];
-  const stepLabel = (s: { number: string | null; title: string; caseId: string }) => `${s.number ?? '—'} ${s.title}${s.caseId && !s.title.includes(s.caseId) ? ` (case ${s.caseId})` : ''}`;
+  const stepLabel = (s: { number: string | null; title: string; caseId: string }) => `${s.number ?? '—'} ${s.title}${s.caseId && !s.title.includes(`case ${s.caseId}`) ? ` (case ${s.caseId})` : ''}`;
 
   return (
     <section className="rounded-lg border border-accent/40 bg-paper-raised px-5 py-4" aria-label={`Changes since revision ${against.label}`}>
