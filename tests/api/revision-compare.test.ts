@@ -1,3 +1,7 @@
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunView } from '@shared/schemas/run.schema';
@@ -5,7 +9,7 @@ import type { RevisionCompareView } from '@shared/schemas/revision-compare.schem
 import { trussSolve } from '@shared/solver';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent } from '../../server/db/models';
-import { fixtureRun, runToEnd } from '../support/fixtures';
+import { binaryBody, fixtureRun, runToEnd } from '../support/fixtures';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
@@ -168,6 +172,26 @@ describe('GET /api/sheets/:id/compare', () => {
     const a = await reviewer.agent.get(`/api/sheets/${sheetA}/preview`);
     expect(a.text.match(/<th>[A-Z]<\/th><td class="num">/g)).toEqual(['<th>A</th><td class="num">']);
   });
+
+  it('when revision B is issued, then the issued PDF prints the revision table with B dated as issued and the load line', async () => {
+    const post = (t: Tab, url: string) => t.agent.post(url).set('X-CSRF-Token', t.csrf).send({});
+    await post(engineer, `/api/sheets/${sheetB}/submit`).expect(200);
+    await post(reviewer, `/api/sheets/${sheetB}/check`).expect(200);
+    const issued = await post(engineer, `/api/sheets/${sheetB}/issue`);
+    expect(issued.status).toBe(200);
+    const pdf = (await binaryBody(reviewer.agent.get(`/api/sheets/${sheetB}/pdf`))).body as Buffer;
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-compare-'));
+    try {
+      fs.writeFileSync(path.join(dir, 'b.pdf'), pdf);
+      const text = execFileSync('pdftotext', ['-f', '1', '-l', '3', path.join(dir, 'b.pdf'), '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+      expect(text).toContain('Revisions');
+      expect(text).toContain('First revision of this truss.');
+      expect(text).toMatch(new RegExp(`B ${issued.body.issue.issuedAt.slice(0, 10)} issued`));
+      expect(text).toContain('Loads: case D changed at 1 joint (total Fy −6.00 kN).');
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  }, 120_000);
 
   it('when the input is bad, then one sentence each and nothing written', async () => {
     const before = await counts();
