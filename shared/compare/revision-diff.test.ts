@@ -56,9 +56,13 @@ describe('revisionDiff (hand-worked cases)', () => {
     ]);
     expect(r.largestForceDifference).toBeCloseTo(2.5 * Math.SQRT2, 9);
     const lines = Object.fromEntries(revisionDiffLines(diff).map((l) => [l.kind, l.text]));
-    expect(lines.loads).toBe('case D changed at 1 joint (total Fy \u22125.00 kN)');
+    expect(lines.loads).toBe('case D changed at 1 joint (total Fy \u22125.00\u202fkN)');
     expect(lines.geometry).toBe('no change');
-    expect(lines.results).toBe('forces of 3 members changed, by up to 3.54 kN (case D); reactions changed');
+    expect(lines.results).toBe('forces of 3 members changed, by up to 3.54\u202fkN (case D); reactions changed');
+    // A US project's lines in kip: 5 kN / 4.4482 kN per kip (1 lbf = 4.4482216152605 N, NIST SP 811) = 1.12 kip; 3.5355 kN = 0.79 kip.
+    const us = Object.fromEntries(revisionDiffLines(diff, 'us').map((l) => [l.kind, l.text]));
+    expect(us.loads).toBe('case D changed at 1 joint (total Fy \u22121.12\u202fkip)');
+    expect(us.results).toBe('forces of 3 members changed, by up to 0.79\u202fkip (case D); reactions changed');
   });
 
   it('a moved joint: C from (2, 2) to (2, 3) m; reactions stay P/2, the forces follow θ', () => {
@@ -140,7 +144,7 @@ describe('revisionDiff (hand-worked cases)', () => {
     expect(lines.geometry).toBe('member BD removed');
     expect(lines.supports).toBe('B roller → roller (90° → 80°)');
     expect(lines.combinations).toBe('C1 factors changed');
-    expect(lines.results).toBe('stability indeterminate → determinate; forces of 1 member changed, by up to 1.00 kN (case D1)');
+    expect(lines.results).toBe('stability indeterminate → determinate; forces of 1 member changed, by up to 1.00\u202fkN (case D1)');
   });
 
   it('nothing changed when only the ids are new (a re-imported drawing): things are matched by tag', () => {

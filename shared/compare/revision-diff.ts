@@ -1,5 +1,6 @@
 import type { Combination, JointLoad, LoadCase, Member, Support, TrussModel } from '../model/truss';
 import type { DeterminacyKind } from '../solver/types';
+import { quantityFormat, type UnitSystemId } from '../units';
 
 /**
  * What changed between two sheet revisions of one truss: the model snapshots and the solved
@@ -449,10 +450,10 @@ const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? o
 /**
  * One line per kind of change, in plain words, for the sheet's revision table and the app's
  * summary: "joint C moved; member CD added", "case L changed at 2 joints (total Fy −5.00 kN)".
- * Forces in kN with two decimals (the sheet's force digits in SI).
+ * Forces in the project's unit system (kN or kip) with the sheet's digits for that unit.
  */
-export function revisionDiffLines(diff: RevisionDiff): DiffLine[] {
-  const kn = (v: number) => `${v < 0 ? '\u2212' : v > 0 ? '+' : ''}${Math.abs(v).toFixed(2)} kN`;
+export function revisionDiffLines(diff: RevisionDiff, system: UnitSystemId = 'si'): DiffLine[] {
+  const kn = (v: number) => quantityFormat(v, 'force', system, { signed: true });
   const g = diff.geometry;
   const geometry = [
     g.jointsMoved.length ? `${g.jointsMoved.length === 1 ? 'joint' : 'joints'} ${list(g.jointsMoved.map((j) => j.tag))} moved` : '',
@@ -497,7 +498,7 @@ export function revisionDiffLines(diff: RevisionDiff): DiffLine[] {
     const worst = compared.reduce((w, r) => (r.largestForceDifference > w.largestForceDifference ? r : w), compared[0]!);
     const reactionsChanged = compared.some((r) => r.reactions.length > 0);
     results.push(
-      `${members.size ? `forces of ${plural(members.size, 'member')} changed, by up to ${kn(worst.largestForceDifference).replace('+', '')} (${worst.kind} ${worst.name})` : 'member forces unchanged'}${reactionsChanged ? '; reactions changed' : ''}`,
+      `${members.size ? `forces of ${plural(members.size, 'member')} changed, by up to ${quantityFormat(worst.largestForceDifference, 'force', system)} (${worst.kind} ${worst.name})` : 'member forces unchanged'}${reactionsChanged ? '; reactions changed' : ''}`,
     );
   }
   const addedSources = diff.results.filter((r) => r.presence === 'added').map((r) => `${r.kind} ${r.name}`);

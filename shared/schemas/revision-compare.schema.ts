@@ -1,5 +1,6 @@
 import type { DiffLine, RevisionDiff, RevisionDiffTolerances } from '../compare/revision-diff';
 import type { StepsDiff } from '../compare/step-diff';
+import type { UnitSystemId } from '../units';
 
 /** One side of GET /api/sheets/:id/compare: a revision and the run its sheet was made from. */
 export interface ComparedRevisionRef {
@@ -21,6 +22,8 @@ export interface RevisionCompareView {
   /** The tolerances in one sentence. */
   toleranceNote: string;
   diff: RevisionDiff;
+  /** The project's units: the lines are written in them and the app shows the tables in them (the diff itself is in kN and m). */
+  unitSystem: UnitSystemId;
   /** One line per kind of change (the sheet's revision table says the same). */
   lines: DiffLine[];
   /** The worked steps of `revision`'s sheet against `against`'s, by the numbers `revision`'s sheet prints. */

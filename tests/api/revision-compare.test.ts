@@ -136,7 +136,7 @@ describe('GET /api/sheets/:id/compare', () => {
     }
 
     const lines = Object.fromEntries(view.lines.map((l) => [l.kind, l.text]));
-    expect(lines.loads).toBe('case D changed at 1 joint (total Fy \u22126.00 kN)');
+    expect(lines.loads).toBe('case D changed at 1 joint (total Fy \u22126.00\u202fkN)');
     expect(lines.geometry).toBe('no change');
     expect(view.toleranceNote).toMatch(/0\.01 % of the larger value/);
 
@@ -165,8 +165,8 @@ describe('GET /api/sheets/:id/compare', () => {
     expect(res.status).toBe(200);
     const table = /<table class="signoff revision-table"[\s\S]*?<\/table>/.exec(res.text)?.[0] ?? '';
     expect(table).toMatch(/<th>A<\/th><td class="num">\d{4}-\d\d-\d\d<\/td><td>draft<\/td><td><div class="rev-line">First revision of this truss.<\/div>/);
-    expect(table).toContain('<div class="rev-line">Loads: case D changed at 1 joint (total Fy −6.00 kN).</div>');
-    expect(table).toMatch(/Forces and reactions: forces of \d+ members changed, by up to 6\.71 kN \(case D\); reactions changed\./);
+    expect(table).toContain('<div class="rev-line">Loads: case D changed at 1 joint (total Fy \u22126.00\u202fkN).</div>');
+    expect(table).toMatch(/Forces and reactions: forces of \d+ members changed, by up to 6\.71\u202fkN \(case D\); reactions changed\./);
     expect(table).not.toContain('Geometry:');
     // Revision A's own sheet lists only itself.
     const a = await reviewer.agent.get(`/api/sheets/${sheetA}/preview`);

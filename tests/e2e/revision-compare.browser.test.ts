@@ -91,7 +91,7 @@ describe('revision comparison on the sheet page, in Chromium', () => {
     await reviewer.goto(`${running.baseUrl}/sheets/${sheetB}`);
     const panel = reviewer.getByRole('region', { name: 'Changes since revision A' });
     await panel.waitFor({ timeout: 30_000 });
-    await expect(panel.getByRole('list', { name: 'What changed, by kind' }).textContent()).resolves.toContain('case D changed at 1 joint (total Fy \u22126.00 kN)');
+    await expect(panel.getByRole('list', { name: 'What changed, by kind' }).textContent()).resolves.toContain('case D changed at 1 joint (total Fy \u22126.00\u202fkN)');
     const loads = panel.getByRole('table', { name: 'Load changes' });
     const apex = compare.diff.loadCases.changed[0]!.loads[0]!.joint;
     await expect(loads.getByRole('row', { name: `D · ${apex}` }).textContent()).resolves.toBe(`D · ${apex}0.00 / \u221210.000.00 / \u221216.000.00 / \u22126.00`);

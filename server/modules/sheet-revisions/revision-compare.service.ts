@@ -3,6 +3,7 @@ import { stepsDiff, type ComparedStep, type StepsDiff } from '@shared/compare/st
 import { sheetRevisionLabel } from '@shared/schemas/review.schema';
 import type { ComparedRevisionRef, RevisionCompareView, RevisionHistoryRow } from '@shared/schemas/revision-compare.schema';
 import { runName } from '@shared/text/citations';
+import type { UnitSystemId } from '@shared/units';
 import { AppError, notFound } from '../../errors/app-error';
 import { buildCalcSheetView, type CalcSheetView, type StepView } from '../calc-sheets/calc-sheet-view';
 import { loadRunSheet, type RunSheetInput } from '../calc-sheets/run-sheet.service';
@@ -37,6 +38,8 @@ function refOf(r: RevisionRow, run: RunSheetInput): ComparedRevisionRef {
     date: dateOf(r),
   };
 }
+
+const systemOf = (run: RunSheetInput): UnitSystemId => (run.project.unitSystem === 'US' ? 'us' : 'si');
 
 const sideOf = (run: RunSheetInput): RevisionSide => ({ model: run.model, analysis: run.analysis });
 
@@ -121,7 +124,8 @@ export async function compareRevisions(id: number, withId?: number): Promise<Rev
     tolerances: REVISION_DIFF_TOLERANCES,
     toleranceNote: toleranceSentence(),
     diff,
-    lines: revisionDiffLines(diff),
+    lines: revisionDiffLines(diff, systemOf(after)),
+    unitSystem: systemOf(after),
     steps: { ...steps, total: stepsAfter.total },
   };
 }
@@ -157,7 +161,7 @@ export async function revisionHistoryOf(id: number, options: { issuedAt?: string
       }
       throw err;
     }
-    const changed = revisionDiffLines(diff).filter((l) => l.changed);
+    const changed = revisionDiffLines(diff, systemOf(await runOf(r.runId))).filter((l) => l.changed);
     out.push({
       revision: sheetRevisionLabel(r.number),
       date,

@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import type { RevisionCompareView } from '@shared/schemas/revision-compare.schema';
 import type { ValueChange } from '@shared/compare/revision-diff';
+import { UNIT_SYSTEMS, unitFromBase } from '@shared/units';
 
 const MINUS = '\u2212';
 /** kN or m with fixed decimals and a true minus sign; '—' where a side has no value. */
@@ -50,7 +51,14 @@ function Group({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-const valueRow = (v: ValueChange) => [v.at, fixed(v.before), fixed(v.after), v.difference === null ? (v.before === null ? 'new' : 'gone') : fixed(v.difference, 2, true)];
+/** The project's force and length units: the API's kN and m converted for a US project. */
+function unitsOf(system: RevisionCompareView['unitSystem']) {
+  const force = UNIT_SYSTEMS[system].force;
+  const length = UNIT_SYSTEMS[system].length;
+  const f = (v: number | null | undefined) => (v === null || v === undefined ? v : unitFromBase(v, force));
+  const l = (v: number) => unitFromBase(v, length);
+  return { force, length, f, l };
+}
 
 interface RevisionChangesProps {
   compare: RevisionCompareView;
@@ -70,11 +78,19 @@ interface RevisionChangesProps {
  */
 export function RevisionChanges({ compare, others, withId, onWith, folded, onFolded, onFocusStep }: RevisionChangesProps) {
   const { diff, steps, against } = compare;
+  const u = unitsOf(compare.unitSystem ?? 'si');
+  const at = (x: number, y: number) => `(${fixed(u.l(x), 3)}, ${fixed(u.l(y), 3)})`;
+  const valueRow = (v: ValueChange) => [
+    v.at,
+    fixed(u.f(v.before)),
+    fixed(u.f(v.after)),
+    v.difference === null ? (v.before === null ? 'new' : 'gone') : fixed(u.f(v.difference), 2, true),
+  ];
   const g = diff.geometry;
   const geometryRows: ReactNode[][] = [
-    ...g.jointsMoved.map((j) => [`Joint ${j.tag}`, 'moved', `(${fixed(j.before.x, 3)}, ${fixed(j.before.y, 3)})`, `(${fixed(j.after.x, 3)}, ${fixed(j.after.y, 3)})`]),
-    ...g.jointsAdded.map((j) => [`Joint ${j.tag}`, 'added', '—', `(${fixed(j.x, 3)}, ${fixed(j.y, 3)})`]),
-    ...g.jointsRemoved.map((j) => [`Joint ${j.tag}`, 'removed', `(${fixed(j.x, 3)}, ${fixed(j.y, 3)})`, '—']),
+    ...g.jointsMoved.map((j) => [`Joint ${j.tag}`, 'moved', at(j.before.x, j.before.y), at(j.after.x, j.after.y)]),
+    ...g.jointsAdded.map((j) => [`Joint ${j.tag}`, 'added', '—', at(j.x, j.y)]),
+    ...g.jointsRemoved.map((j) => [`Joint ${j.tag}`, 'removed', at(j.x, j.y), '—']),
     ...g.membersAdded.map((m) => [`Member ${m.tag}`, 'added', '—', `${m.from}–${m.to}`]),
     ...g.membersRemoved.map((m) => [`Member ${m.tag}`, 'removed', `${m.from}–${m.to}`, '—']),
     ...g.membersReconnected.map((m) => [`Member ${m.tag}`, 'reconnected', `${m.before.from}–${m.before.to}`, `${m.after.from}–${m.after.to}`]),
@@ -88,10 +104,15 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
   ];
   const loadRows: ReactNode[][] = [
     ...diff.loadCases.changed.flatMap((c) =>
-      c.loads.map((l) => [`${c.id} · ${l.joint}`, `${fixed(l.before?.fx)} / ${fixed(l.before?.fy)}`, `${fixed(l.after?.fx)} / ${fixed(l.after?.fy)}`, `${fixed(l.dfx, 2, true)} / ${fixed(l.dfy, 2, true)}`]),
+      c.loads.map((l) => [
+        `${c.id} · ${l.joint}`,
+        `${fixed(u.f(l.before?.fx))} / ${fixed(u.f(l.before?.fy))}`,
+        `${fixed(u.f(l.after?.fx))} / ${fixed(u.f(l.after?.fy))}`,
+        `${fixed(u.f(l.dfx), 2, true)} / ${fixed(u.f(l.dfy), 2, true)}`,
+      ]),
     ),
-    ...diff.loadCases.added.map((c) => [`${c.id} (${c.name})`, 'new case', `${c.loadCount} loads, ΣFy ${fixed(c.totalFy)}`, '']),
-    ...diff.loadCases.removed.map((c) => [`${c.id} (${c.name})`, `${c.loadCount} loads, ΣFy ${fixed(c.totalFy)}`, 'case removed', '']),
+    ...diff.loadCases.added.map((c) => [`${c.id} (${c.name})`, 'new case', `${c.loadCount} loads, ΣFy ${fixed(u.f(c.totalFy))}`, '']),
+    ...diff.loadCases.removed.map((c) => [`${c.id} (${c.name})`, `${c.loadCount} loads, ΣFy ${fixed(u.f(c.totalFy))}`, 'case removed', '']),
   ];
   const comboRows: ReactNode[][] = [
     ...diff.combinations.changed.flatMap((c) => c.factors.map((f) => [`${c.name} · ${f.caseId}`, fixed(f.before), fixed(f.after)])),
@@ -122,7 +143,7 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
         </label>
       </div>
       <p className="mt-0.5 text-xs text-ink-soft">
-        Revision {against.label} ({against.run}, {against.status}, {against.date}) → revision {compare.revision.label} ({compare.revision.run}). Forces in kN, coordinates in m; differences
+        Revision {against.label} ({against.run}, {against.status}, {against.date}) → revision {compare.revision.label} ({compare.revision.run}). Forces in {u.force}, coordinates in {u.length}; differences
         are this revision less revision {against.label}.
       </p>
 
@@ -184,7 +205,7 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
           )}
           {loadRows.length > 0 && (
             <Group title="Loads per case">
-              <Table label="Load changes" head={['Case · joint', 'Before Fx / Fy, kN', 'After Fx / Fy, kN', 'Change, kN']} rows={loadRows} />
+              <Table label="Load changes" head={['Case · joint', `Before Fx / Fy, ${u.force}`, `After Fx / Fy, ${u.force}`, `Change, ${u.force}`]} rows={loadRows} />
             </Group>
           )}
           {comboRows.length > 0 && (
@@ -194,10 +215,10 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
           )}
           {diff.results.map((r) => (
             <Group key={`${r.kind}-${r.name}`} title={`${r.kind === 'case' ? 'Load case' : 'Combination'} ${r.name}${r.presence === 'added' ? ' (new)' : r.presence === 'removed' ? ' (gone)' : ''}`}>
-              <Table label={`Member forces, ${r.kind} ${r.name}`} head={['Member', 'Before, kN', 'After, kN', 'Difference, kN']} rows={r.forces.map(valueRow)} />
+              <Table label={`Member forces, ${r.kind} ${r.name}`} head={['Member', `Before, ${u.force}`, `After, ${u.force}`, `Difference, ${u.force}`]} rows={r.forces.map(valueRow)} />
               <Table
                 label={`Reactions, ${r.kind} ${r.name}`}
-                head={['Support', 'Before, kN', 'After, kN', 'Difference, kN']}
+                head={['Support', `Before, ${u.force}`, `After, ${u.force}`, `Difference, ${u.force}`]}
                 rows={r.reactions.map((v) => valueRow({ ...v, at: `${v.at} ${v.component === 'rx' ? 'Rx' : 'Ry'}` }))}
               />
             </Group>
