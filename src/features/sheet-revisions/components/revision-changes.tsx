@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { RevisionCompareView } from '@shared/schemas/revision-compare.schema';
 import type { ValueChange } from '@shared/compare/revision-diff';
 import { UNIT_SYSTEMS, unitFromBase } from '@shared/units';
@@ -12,8 +12,13 @@ export function fixed(v: number | null | undefined, decimals = 2, signed = false
   return r < 0 ? `${MINUS}${text}` : signed && r > 0 ? `+${text}` : text;
 }
 
-function Table({ label, head, rows }: { label: string; head: string[]; rows: ReactNode[][] }) {
-  if (rows.length === 0) return null;
+/** Rows shown before "Show all": a long truss's forces would push the sheet far down the page. */
+const ROWS_SHOWN = 12;
+
+function Table({ label, head, rows: all }: { label: string; head: string[]; rows: ReactNode[][] }) {
+  const [open, setOpen] = useState(false);
+  if (all.length === 0) return null;
+  const rows = open ? all : all.slice(0, ROWS_SHOWN);
   return (
     <div className="overflow-x-auto border-y border-ink-soft bg-paper-raised">
       <table aria-label={label} className="w-full border-collapse text-[12.5px] leading-[18px] tabular-nums">
@@ -38,9 +43,18 @@ function Table({ label, head, rows }: { label: string; head: string[]; rows: Rea
           ))}
         </tbody>
       </table>
+      {all.length > ROWS_SHOWN && (
+        <button type="button" onClick={() => setOpen(!open)} className="w-full border-t border-paper-line px-2 py-1 text-left text-[11.5px] font-medium text-accent hover:underline">
+          {open ? 'Show the largest only' : `Show all ${all.length} rows (the ${ROWS_SHOWN} largest differences are shown)`}
+        </button>
+      )}
     </div>
   );
 }
+
+/** Largest |difference| first; rows of a member or support found on one side only lead. */
+const sizeOf = (v: ValueChange) => (v.difference === null ? Infinity : Math.abs(v.difference));
+const byDifference = (a: ValueChange, b: ValueChange) => (sizeOf(a) === sizeOf(b) ? 0 : sizeOf(a) > sizeOf(b) ? -1 : 1);
 
 function Group({ title, children }: { title: string; children: ReactNode }) {
   return (
@@ -215,7 +229,7 @@ export function RevisionChanges({ compare, others, withId, onWith, folded, onFol
           )}
           {diff.results.map((r) => (
             <Group key={`${r.kind}-${r.name}`} title={`${r.kind === 'case' ? 'Load case' : 'Combination'} ${r.name}${r.presence === 'added' ? ' (new)' : r.presence === 'removed' ? ' (gone)' : ''}`}>
-              <Table label={`Member forces, ${r.kind} ${r.name}`} head={['Member', `Before, ${u.force}`, `After, ${u.force}`, `Difference, ${u.force}`]} rows={r.forces.map(valueRow)} />
+              <Table label={`Member forces, ${r.kind} ${r.name}`} head={['Member', `Before, ${u.force}`, `After, ${u.force}`, `Difference, ${u.force}`]} rows={[...r.forces].sort(byDifference).map(valueRow)} />
               <Table
                 label={`Reactions, ${r.kind} ${r.name}`}
                 head={['Support', `Before, ${u.force}`, `After, ${u.force}`, `Difference, ${u.force}`]}
