@@ -193,6 +193,19 @@ describe('GET /api/sheets/:id/compare', () => {
     }
   }, 120_000);
 
+  it('when revision C is started from the same run as B, then nothing differs, every step is unchanged and the table says so', async () => {
+    const sheetC = await newSheet(1, runB.id);
+    const view = (await reviewer.agent.get(`/api/sheets/${sheetC}/compare`).expect(200)).body as RevisionCompareView;
+    expect(view.against.label).toBe('B');
+    expect(view.diff.unchanged).toBe(true);
+    expect(view.diff.results).toEqual([]);
+    expect(view.lines.every((l) => !l.changed && l.text === 'no change')).toBe(true);
+    expect(view.steps.changed).toEqual([]);
+    expect(view.steps.unchanged).toHaveLength(view.steps.total);
+    const preview = await reviewer.agent.get(`/api/sheets/${sheetC}/preview`).expect(200);
+    expect(preview.text).toContain('No change to the model or results since revision B.');
+  });
+
   it('when the input is bad, then one sentence each and nothing written', async () => {
     const before = await counts();
     const refused = [
