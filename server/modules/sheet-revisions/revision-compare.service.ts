@@ -64,7 +64,8 @@ export function sheetStepsOf(view: CalcSheetView): ComparedStep[] {
 }
 
 function stepsOfRun(runId: number, run: RunSheetInput): { steps: ComparedStep[]; total: number } {
-  const key = String(runId);
+  // A run is frozen, but the project's unit system is read fresh and a step's note may depend on it.
+  const key = `${runId}:${run.project.unitSystem}`;
   const hit = stepCache.get(key);
   if (hit) return remember(stepCache, key, hit);
   const view = buildCalcSheetView({ ...run, revision: '', generatedAt: new Date(0) });
