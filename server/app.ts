@@ -25,13 +25,12 @@ import { modelsRoutes } from './modules/models/models.routes';
 import { jobFilesRoutes } from './modules/job-files/job-files.routes';
 import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
-import { solvePoolCreate } from './modules/runs/solve-pool';
 import { importPoolCreate } from './modules/drawings/import-pool';
 import type { FileStores } from './storage/stores';
-import { localFileStore } from './storage/file-store';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
 import { sheetBuildPoolCreate } from './modules/calc-sheets/sheet-build-pool';
+import { previewHoldsInProcess, previewHoldsPostgres } from './modules/calc-sheets/preview-holds';
 import { JOB_TRIES, printJobsCreate } from './modules/calc-sheets/print-jobs.service';
 import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
 import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
@@ -39,6 +38,8 @@ import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules
 import { calcSheetRenderer } from './modules/sheet-revisions/calc-sheet-renderer';
 import { recordsRoutes } from './modules/records/records.routes';
 import type { SigningKeys } from './modules/records/signing-keys';
+import type { JobQueue } from './workers/job-queue';
+import { jobWorkersStart, type JobWorkers } from './job-workers';
 
 export interface AppDeps {
   config: Config;
@@ -47,8 +48,10 @@ export interface AppDeps {
   sessionSecret: string;
   /** The firm's signing keys, opened at start (bootstrap.ts: signingKeysOpen). */
   signingKeys: SigningKeys;
-  /** Where drawings and issued sheets are kept (bootstrap.ts: fileStoresOpen, as STORAGE_URL says). */
-  stores: Pick<FileStores, 'drawings' | 'sheets'>;
+  /** Where drawings, issued sheets and print jobs' PDFs are kept (bootstrap.ts: fileStoresOpen, as STORAGE_URL says). */
+  stores: Pick<FileStores, 'drawings' | 'sheets' | 'printJobs'>;
+  /** Where analysis runs and print jobs are queued (bootstrap.ts: in this process, or pg-boss with DATABASE_URL). */
+  queue: JobQueue;
   /** Where the built client lives; served when present. */
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
@@ -164,27 +167,31 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', modelsRoutes(registry));
   app.use('/api', jobFilesRoutes(registry));
   app.use('/api', takeoffRoutes(registry));
-  const solvePool = solvePoolCreate();
-  app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
+  app.use('/api', runsRoutes(registry, { queue: deps.queue, log }));
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
   // Calc sheet HTML is built in a worker thread (seconds for a large sheet), never on this one.
   const sheetBuilder = sheetBuildPoolCreate();
-  // Draft PDFs as background print jobs, stored like issued sheets (a file store in the data folder).
-  const printJobs = printJobsCreate({
-    sequelize: deps.sequelize,
-    printer,
-    builder: sheetBuilder,
-    files: localFileStore(path.join(config.dataDir, 'print-jobs')),
-    log,
-  });
+  // Draft PDFs as background print jobs, stored like issued sheets (the print-jobs store).
+  const printJobs = printJobsCreate({ sequelize: deps.sequelize, queue: deps.queue, files: deps.stores.printJobs, log });
+  // This process solves runs and prints jobs: always with the in-process queue; with pg-boss
+  // unless WORKERS_IN_APP=false leaves it to `npm run worker` processes.
+  const workers: Promise<JobWorkers | null> =
+    deps.queue.kind === 'in-process' || config.workersInApp
+      ? jobWorkersStart({ queue: deps.queue, printJobs, printer, builder: sheetBuilder, chromiumPath: config.chromiumPath, log }).catch((err) => {
+          log('This process could not start taking runs and print jobs from the queue', err);
+          return null;
+        })
+      : Promise.resolve(null);
   printJobs.resume().then(
     ({ requeued, failed }) => {
       if (requeued || failed) log(`Print jobs left unfinished by the last stop: ${requeued} queued again, ${failed} failed after ${JOB_TRIES} tries.`);
     },
     (err) => log('Print jobs could not be resumed', err),
   );
-  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs }));
+  // Quick draft PDFs per person, counted in PostgreSQL's lock table when app processes share a database.
+  const holds = deps.queue.kind === 'pg-boss' && config.databaseUrl ? previewHoldsPostgres(config.databaseUrl) : previewHoldsInProcess();
+  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs, holds }));
   const issuedSheets = deps.stores.sheets;
   app.use(
     '/api',
@@ -223,7 +230,8 @@ export function createApp(deps: AppDeps): CreatedApp {
     async close() {
       (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
       await printJobs.close();
-      await solvePool.close();
+      await (await workers)?.close();
+      await holds.close();
       await importPool.close();
       await sheetBuilder.close();
       if (!deps.printer) await printer.close();

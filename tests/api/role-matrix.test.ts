@@ -53,6 +53,7 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'POST /api/trusses/:id/sheets': ['engineer'],
   'GET /api/sheets/:id': ALL,
   'GET /api/checkers': ['engineer', 'admin'],
+  'GET /api/sheets/:id/compare': ALL,
   'POST /api/sheets/:id/submit': ['engineer'],
   'POST /api/sheets/:id/checker': ['admin'],
   'POST /api/sheets/:id/return': ['reviewer'],
