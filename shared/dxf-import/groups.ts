@@ -1,5 +1,5 @@
 import type { Joint, Member, MemberGroup } from '@shared/model/truss';
-import { chordSideByOutline, membersGroupByOutline } from '@shared/model/outline-groups';
+import { membersGroupByOutline } from '@shared/model/outline-groups';
 
 /**
  * What a layer's name says about the members drawn on it: a chord (top or bottom, or either),
@@ -50,7 +50,8 @@ export type GroupSource = 'layer' | 'layer-and-outline' | 'outline';
 
 /**
  * Member groups for an imported drawing: from the layer names where they say (rules above),
- * with the outline choosing top or bottom for a layer that only says "chord"; from the outline
+ * with the outline choosing top or bottom for a layer that only says "chord" (along the upper
+ * edge of the outline: top chord; otherwise bottom chord); from the outline
  * (lower edge bottom chord, upper edge top chord, the rest webs) for the other members.
  */
 export function memberGroupsSuggest(
@@ -60,7 +61,6 @@ export function memberGroupsSuggest(
   const hints = new Map<string, LayerGroupHint>();
   for (const m of members) if (!hints.has(m.layer)) hints.set(m.layer, layerGroupHint(m.layer));
   const outline = membersGroupByOutline(joints, members);
-  let side: ((m: Member) => MemberGroup | null) | null = null;
   const groups = new Map<string, MemberGroup>();
   const source = new Map<string, GroupSource>();
   for (const m of members) {
@@ -70,12 +70,10 @@ export function memberGroupsSuggest(
       groups.set(m.id, hint);
       source.set(m.id, 'layer');
     } else if (hint === 'chord') {
-      let g: MemberGroup | null | undefined = fromOutline === 'top-chord' || fromOutline === 'bottom-chord' ? fromOutline : null;
-      if (!g) g = (side ??= chordSideByOutline(joints, members))(m);
-      if (g) {
-        groups.set(m.id, g);
-        source.set(m.id, 'layer-and-outline');
-      }
+      // A chord along the upper edge of the outline is the top chord; any other chord is the
+      // bottom chord (also a scissor truss's raised one, which the outline alone calls a web).
+      groups.set(m.id, fromOutline === 'top-chord' ? 'top-chord' : 'bottom-chord');
+      source.set(m.id, 'layer-and-outline');
     } else if (fromOutline) {
       groups.set(m.id, fromOutline);
       source.set(m.id, 'outline');

@@ -90,37 +90,3 @@ export function membersGroupByOutline(joints: readonly Joint[], members: readonl
   }
   return groups;
 }
-
-/**
- * Which of the two outline chains a member lies nearer to, measured at its mid-point: the
- * top chord's or the bottom chord's. For members a layer calls "chord" that do not lie on the
- * outline (a scissor truss's raised bottom chord). Null for a truss without two chains.
- */
-export function chordSideByOutline(joints: readonly Joint[], members: readonly Member[]): (m: Member) => MemberGroup | null {
-  const byId = new Map(joints.map((j) => [j.id, j]));
-  const usedIds = new Set<string>();
-  for (const m of members) {
-    usedIds.add(m.from);
-    usedIds.add(m.to);
-  }
-  const { lower, upper } = hullChains(joints.filter((j) => usedIds.has(j.id)));
-  const heightAt = (chain: Point[], x: number): number | null => {
-    for (let i = 1; i < chain.length; i++) {
-      const s = chain[i - 1]!;
-      const e = chain[i]!;
-      if (x >= s.x && x <= e.x) return e.x === s.x ? Math.max(s.y, e.y) : s.y + ((x - s.x) / (e.x - s.x)) * (e.y - s.y);
-    }
-    return null;
-  };
-  return (m) => {
-    const a = byId.get(m.from);
-    const b = byId.get(m.to);
-    if (!a || !b) return null;
-    const mx = (a.x + b.x) / 2;
-    const my = (a.y + b.y) / 2;
-    const top = heightAt(upper, mx);
-    const bottom = heightAt(lower, mx);
-    if (top === null || bottom === null || top === bottom) return null;
-    return Math.abs(top - my) <= Math.abs(my - bottom) ? 'top-chord' : 'bottom-chord';
-  };
-}
