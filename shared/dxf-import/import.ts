@@ -774,10 +774,7 @@ export function dxfHandover(result: DxfImportResult): DxfImportResult {
       severity: found.severity,
       count: found.severity === 'warning' ? 1 : 0,
       message: found.message,
-      points: found.joints.slice(0, DXF_REPORT_MAX_LOCATIONS).flatMap((id) => {
-        const jt = joints[Number(id.slice(1)) - 1];
-        return jt && jt.id === id ? [{ x: jt.x, y: jt.y }] : [];
-      }),
+      points: [], // its places are joints and members
       joints: found.joints.slice(0, DXF_REPORT_MAX_LOCATIONS),
       members: found.members,
     });
