@@ -110,7 +110,7 @@ for (const [panels, style] of cases) {
     const [result, i, iCpu] = time(() => dxfImportGeometry(parsed));
     const [made, o] = time(() => dxfModelOf(result.geometry));
     const { geometry: _g, ...facts } = result;
-    const [, hv] = time(() => dxfHandover({ ...made, ...facts }));
+    const [, hv] = time(() => dxfHandover({ ...made, ...facts }, result.geometry));
     peak = Math.max(peak, process.memoryUsage().rss);
     model = `${made.joints.length} joints, ${made.members.length} members`;
     if (r === -2) cold = i;

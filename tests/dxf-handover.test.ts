@@ -2,7 +2,7 @@
 // flat 3D polylines, "no lines" before units, report lines naming joints and members, a likely
 // mechanism told at import. Fixtures are written by hand with tests/support/hostile-dxf.ts.
 import { describe, expect, it } from 'vitest';
-import { dxfImport, dxfParseBytes, DxfImportError, type DxfImportResult } from '@shared/dxf-import';
+import { dxfImport, dxfParseBytes, DxfImportError, mechanismCheck, MECHANISM_RANK_MAX_JOINTS, type DxfImportResult } from '@shared/dxf-import';
 import { circle, dxf, dxfIn, line, parallelChordTruss, polyline } from './support/hostile-dxf';
 
 const importOf = (bytes: Buffer, options = {}) => dxfImport(dxfParseBytes(bytes), options);
@@ -148,5 +148,20 @@ describe('a likely mechanism at import', () => {
     expect(e.severity).toBe('warning');
     expect(e.message).toMatch(/the count m \+ r = 16 ≥ 2j = 16 is met, but the joint equilibrium equations are dependent \(rank 15 < 16\)/);
     expect([...e.jointTags!].sort()).toEqual(['B', 'C', 'F', 'G']);
+  });
+});
+
+describe('the mechanism check on a large drawing', () => {
+  it(`when a drawing has more than ${MECHANISM_RANK_MAX_JOINTS} joints, then only the count is checked`, () => {
+    // a chain of n + 1 joints and n members: m + r = n + 3 < 2(n + 1) (count rule, from memory)
+    const n = MECHANISM_RANK_MAX_JOINTS + 10;
+    const joints = Array.from({ length: n + 1 }, (_, i) => ({ id: `j${i + 1}`, tag: `J${i + 1}`, x: i, y: 0 }));
+    const members = Array.from({ length: n }, (_, i) => ({ id: `m${i + 1}`, tag: `M${i + 1}`, from: `j${i + 1}`, to: `j${i + 2}` }));
+    const found = mechanismCheck(joints, members)!;
+    expect(found.severity).toBe('warning');
+    expect(found.message).toBe(
+      `likely a mechanism before any load is placed: m + r = ${n} + 3 = ${n + 3} is less than 2j = ${2 * (n + 1)}, taking r = 3 reactions (a pin and a roller, as for a simply supported truss), so it is short of ${n - 1} members; add the missing members (a diagonal in each open panel) or check the supports it will have`,
+    );
+    expect(found.joints).toEqual([]);
   });
 });

@@ -1,5 +1,5 @@
 import type { Joint, Member, MemberGroup } from '@shared/model/truss';
-import { membersGroupByOutline } from '@shared/model/outline-groups';
+import { OUTLINE_BOTTOM, OUTLINE_TOP, OUTLINE_WEB, outlineGroupCodes } from '@shared/model/outline-groups';
 
 /**
  * What a layer's name says about the members drawn on it: a chord (top or bottom, or either),
@@ -48,36 +48,72 @@ export function layerGroupHint(layerName: string): LayerGroupHint {
 /** Where an import's suggested group of a member came from. */
 export type GroupSource = 'layer' | 'layer-and-outline' | 'outline';
 
+const CODE_GROUP: MemberGroup[] = ['other', 'top-chord', 'bottom-chord', 'web'];
+const SOURCE_OF: GroupSource[] = ['outline', 'layer', 'layer-and-outline'];
+
 /**
  * Member groups for an imported drawing: from the layer names where they say (rules above),
  * with the outline choosing top or bottom for a layer that only says "chord" (along the upper
- * edge of the outline: top chord; otherwise bottom chord); from the outline
- * (lower edge bottom chord, upper edge top chord, the rest webs) for the other members.
+ * edge of the outline: top chord; otherwise bottom chord); from the outline (lower edge bottom
+ * chord, upper edge top chord, the rest webs) for the other members. On columns (joint
+ * coordinates, member ends as joint indices, member layer indices): a group code per member
+ * (1 top chord, 2 bottom chord, 3 web) and where it came from (0 outline, 1 layer, 2 layer and outline).
  */
+export function memberGroupCodes(xy: Float64Array, ends: Int32Array, memberLayer: Int32Array, layerNames: readonly string[]): { codes: Uint8Array; source: Uint8Array; hints: LayerGroupHint[] } {
+  const hints = layerNames.map(layerGroupHint);
+  const codes = outlineGroupCodes(xy, ends);
+  const source = new Uint8Array(codes.length);
+  for (let i = 0; i < codes.length; i++) {
+    const hint = hints[memberLayer[i]!];
+    if (hint === 'top-chord') codes[i] = OUTLINE_TOP;
+    else if (hint === 'bottom-chord') codes[i] = OUTLINE_BOTTOM;
+    else if (hint === 'web') codes[i] = OUTLINE_WEB;
+    else if (hint === 'chord') {
+      // A chord along the upper edge of the outline is the top chord; any other chord is the
+      // bottom chord (also a scissor truss's raised one, which the outline alone calls a web).
+      codes[i] = codes[i] === OUTLINE_TOP ? OUTLINE_TOP : OUTLINE_BOTTOM;
+      source[i] = 2;
+      continue;
+    } else continue;
+    source[i] = 1;
+  }
+  return { codes, source, hints };
+}
+
+/** {@link memberGroupCodes} on the model's objects (members carrying their layer). */
 export function memberGroupsSuggest(
   joints: readonly Joint[],
   members: readonly (Member & { layer: string })[],
 ): { groups: Map<string, MemberGroup>; source: Map<string, GroupSource>; hints: Map<string, LayerGroupHint> } {
-  const hints = new Map<string, LayerGroupHint>();
-  for (const m of members) if (!hints.has(m.layer)) hints.set(m.layer, layerGroupHint(m.layer));
-  const outline = membersGroupByOutline(joints, members);
-  const groups = new Map<string, MemberGroup>();
-  const source = new Map<string, GroupSource>();
-  for (const m of members) {
-    const hint = hints.get(m.layer) ?? null;
-    const fromOutline = outline.get(m.id);
-    if (hint === 'top-chord' || hint === 'bottom-chord' || hint === 'web') {
-      groups.set(m.id, hint);
-      source.set(m.id, 'layer');
-    } else if (hint === 'chord') {
-      // A chord along the upper edge of the outline is the top chord; any other chord is the
-      // bottom chord (also a scissor truss's raised one, which the outline alone calls a web).
-      groups.set(m.id, fromOutline === 'top-chord' ? 'top-chord' : 'bottom-chord');
-      source.set(m.id, 'layer-and-outline');
-    } else if (fromOutline) {
-      groups.set(m.id, fromOutline);
-      source.set(m.id, 'outline');
+  const index = new Map<string, number>();
+  const xy = new Float64Array(2 * joints.length);
+  joints.forEach((j, k) => {
+    index.set(j.id, k);
+    xy[2 * k] = j.x;
+    xy[2 * k + 1] = j.y;
+  });
+  const known = members.filter((m) => index.has(m.from) && index.has(m.to));
+  const layerNames: string[] = [];
+  const layerIndex = new Map<string, number>();
+  const ends = new Int32Array(2 * known.length);
+  const memberLayer = new Int32Array(known.length);
+  known.forEach((m, i) => {
+    ends[2 * i] = index.get(m.from)!;
+    ends[2 * i + 1] = index.get(m.to)!;
+    let li = layerIndex.get(m.layer);
+    if (li === undefined) {
+      li = layerNames.length;
+      layerNames.push(m.layer);
+      layerIndex.set(m.layer, li);
     }
-  }
-  return { groups, source, hints };
+    memberLayer[i] = li;
+  });
+  const { codes, source, hints } = memberGroupCodes(xy, ends, memberLayer, layerNames);
+  const groups = new Map<string, MemberGroup>();
+  const sources = new Map<string, GroupSource>();
+  known.forEach((m, i) => {
+    groups.set(m.id, CODE_GROUP[codes[i]!]!);
+    sources.set(m.id, SOURCE_OF[source[i]!]!);
+  });
+  return { groups, source: sources, hints: new Map(layerNames.map((l, li) => [l, hints[li]!])) };
 }

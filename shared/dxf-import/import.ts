@@ -2,7 +2,7 @@ import type { IDxf } from 'dxf-parser';
 import type { Joint, MemberGroup } from '@shared/model/truss';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type DxfExplodeLimits, type ExplodedText } from './explode';
-import { memberGroupsSuggest } from './groups';
+import { memberGroupCodes } from './groups';
 import { healSegments, quickMedian, type HealResult } from './heal';
 import { mechanismCheck } from './mechanism';
 import { dxfOf, LayerTally } from './layers';
@@ -698,7 +698,36 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
 export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}, limits: Partial<DxfExplodeLimits> = {}): DxfImportResult {
   const { geometry, ...rest } = dxfImportGeometry(parsed, options, limits);
   const model = dxfModelOf(geometry);
-  return dxfHandover({ ...model, ...rest });
+  return dxfHandover({ ...model, ...rest }, geometry);
+}
+
+const CODE_GROUPS: MemberGroup[] = ['other', 'top-chord', 'bottom-chord', 'web'];
+
+/** The columns of a result's objects (ids 'j<n>' / 'm<n>' in order, as dxfModelOf makes them). */
+function columnsOf(result: DxfImportResult): Pick<DxfGeometry, 'jointXY' | 'memberEnds' | 'memberLayer' | 'layerNames'> {
+  const { joints, members } = result;
+  const index = new Map(joints.map((j, k) => [j.id, k]));
+  const jointXY = new Float64Array(2 * joints.length);
+  joints.forEach((j, k) => {
+    jointXY[2 * k] = j.x;
+    jointXY[2 * k + 1] = j.y;
+  });
+  const layerNames: string[] = [];
+  const layerIndex = new Map<string, number>();
+  const memberEnds = new Int32Array(2 * members.length);
+  const memberLayer = new Int32Array(members.length);
+  members.forEach((m, i) => {
+    memberEnds[2 * i] = index.get(m.from) ?? 0;
+    memberEnds[2 * i + 1] = index.get(m.to) ?? 0;
+    let li = layerIndex.get(m.layer);
+    if (li === undefined) {
+      li = layerNames.length;
+      layerNames.push(m.layer);
+      layerIndex.set(m.layer, li);
+    }
+    memberLayer[i] = li;
+  });
+  return { jointXY, memberEnds, memberLayer, layerNames };
 }
 
 const GROUP_WORDS: Record<MemberGroup, [string, string]> = {
@@ -723,26 +752,37 @@ export function namesList(names: readonly string[], total = names.length, max = 
  * naming the joints and members it concerns by their tags, and the check for a likely
  * mechanism with the usual supports assumed (mechanism.ts).
  */
-export function dxfHandover(result: DxfImportResult): DxfImportResult {
+export function dxfHandover(result: DxfImportResult, geometry?: DxfGeometry): DxfImportResult {
   const { joints, members, report } = result;
-  // ---- groups
-  const { groups, source, hints } = memberGroupsSuggest(joints, members);
+  // ---- groups, on the geometry's columns (members are in its order, m1 = row 0)
+  const cols = geometry ?? columnsOf(result);
+  const { codes, source, hints } = memberGroupCodes(cols.jointXY, cols.memberEnds, cols.memberLayer, cols.layerNames);
   const byLayer = new Map<string, Map<MemberGroup, number>>();
   let fromOutline = 0;
+  let grouped = 0;
   const outlineCounts = new Map<MemberGroup, number>();
-  for (const mb of members) {
-    const g = groups.get(mb.id);
-    if (!g) continue;
-    mb.group = g;
-    if (source.get(mb.id) === 'outline') {
-      fromOutline++;
-      outlineCounts.set(g, (outlineCounts.get(g) ?? 0) + 1);
-    } else {
-      const per = byLayer.get(mb.layer) ?? new Map<MemberGroup, number>();
-      per.set(g, (per.get(g) ?? 0) + 1);
-      byLayer.set(mb.layer, per);
+  const layerCounts = cols.layerNames.map(() => new Int32Array(4));
+  const outlineCodeCounts = new Int32Array(4);
+  for (let i = 0; i < members.length; i++) {
+    const code = codes[i]!;
+    if (!code) continue;
+    members[i]!.group = CODE_GROUPS[code]!;
+    grouped++;
+    if (source[i] === 0) outlineCodeCounts[code]!++;
+    else layerCounts[cols.memberLayer[i]!]![code]!++;
+  }
+  for (let code = 1; code < 4; code++) {
+    if (outlineCodeCounts[code]) {
+      fromOutline += outlineCodeCounts[code]!;
+      outlineCounts.set(CODE_GROUPS[code]!, outlineCodeCounts[code]!);
     }
   }
+  cols.layerNames.forEach((layer, li) => {
+    const per = new Map<MemberGroup, number>();
+    for (let code = 1; code < 4; code++) if (layerCounts[li]![code]) per.set(CODE_GROUPS[code]!, layerCounts[li]![code]!);
+    if (per.size) byLayer.set(layer, per);
+  });
+  const hintOf = new Map(cols.layerNames.map((l, li) => [l, hints[li]]));
   const countWords = (c: Map<MemberGroup, number>) =>
     (['top-chord', 'bottom-chord', 'web', 'other'] as const)
       .filter((g) => c.get(g))
@@ -750,14 +790,14 @@ export function dxfHandover(result: DxfImportResult): DxfImportResult {
       .join(', ');
   const layerParts = [...byLayer.entries()]
     .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
-    .map(([layer, c]) => `${countWords(c)} from layer ${layer}${hints.get(layer) === 'chord' ? ' (top or bottom by the outline)' : ''}`);
+    .map(([layer, c]) => `${countWords(c)} from layer ${layer}${hintOf.get(layer) === 'chord' ? ' (top or bottom by the outline)' : ''}`);
   const parts = [...layerParts];
   if (fromOutline > 0) parts.push(`${countWords(outlineCounts)} by the outline (lower edge bottom chord, upper edge top chord, the rest webs)`);
   if (parts.length) {
     report.push({
       kind: 'member-groups',
       severity: 'info',
-      count: groups.size,
+      count: grouped,
       message: `grouped the members: ${parts.join('; ')}; the roof loading can start from these, and Members changes them`,
       points: [],
       joints: [],

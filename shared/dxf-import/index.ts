@@ -18,7 +18,7 @@ export { DXF_DEFAULT_LIMITS, MAX_BLOCK_DEPTH, MAX_EXPLODED_SEGMENTS } from './ex
 export type { DxfExplodeLimits } from './explode';
 export { tagOfIndex, jointTagsInOrder } from './tags';
 export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf, dxfHandover, namesList } from './import';
-export { layerGroupHint, memberGroupsSuggest } from './groups';
+export { layerGroupHint, memberGroupsSuggest, memberGroupCodes } from './groups';
 export type { LayerGroupHint, GroupSource } from './groups';
 export { mechanismCheck, MECHANISM_RANK_MAX_JOINTS } from './mechanism';
 export type { MechanismFinding } from './mechanism';

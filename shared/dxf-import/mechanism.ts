@@ -9,7 +9,7 @@ import { equilibriumRank } from '@shared/solver/rank';
  * the cap keeps a 100 000-segment drawing's import within its budget (bench:import). A safety
  * limit, no source.
  */
-export const MECHANISM_RANK_MAX_JOINTS = 20_000;
+export const MECHANISM_RANK_MAX_JOINTS = 5_000;
 
 /** What the import says about a likely mechanism, before anyone places supports or loads. */
 export interface MechanismFinding {

@@ -5,24 +5,7 @@ interface Point {
   y: number;
 }
 
-const cross = (o: Point, a: Point, b: Point) => (a.x - o.x) * (b.y - o.y) - (a.y - o.y) * (b.x - o.x);
-
-/** Lower and upper hull chains, left to right (Andrew's monotone chain; collinear points dropped). */
-function hullChains(points: Point[]): { lower: Point[]; upper: Point[] } {
-  const p = [...points].sort((a, b) => a.x - b.x || a.y - b.y);
-  const lower: Point[] = [];
-  for (const q of p) {
-    while (lower.length >= 2 && cross(lower[lower.length - 2]!, lower[lower.length - 1]!, q) <= 0) lower.pop();
-    lower.push(q);
-  }
-  const upper: Point[] = [];
-  for (let i = p.length - 1; i >= 0; i--) {
-    const q = p[i]!;
-    while (upper.length >= 2 && cross(upper[upper.length - 2]!, upper[upper.length - 1]!, q) <= 0) upper.pop();
-    upper.push(q);
-  }
-  return { lower, upper: upper.reverse() };
-}
+const cross = (o: Point, a: Point, b: Point): number => (a.x - o.x) * (b.y - o.y) - (a.y - o.y) * (b.x - o.x);
 
 function onSegment(q: Point, a: Point, b: Point, tol: number): boolean {
   const dx = b.x - a.x;
@@ -60,6 +43,62 @@ function onChain(a: Point, b: Point, chain: Point[], tol: number): boolean {
   return false;
 }
 
+/** Group codes of {@link outlineGroupCodes}. */
+export const OUTLINE_TOP = 1;
+export const OUTLINE_BOTTOM = 2;
+export const OUTLINE_WEB = 3;
+
+/**
+ * {@link membersGroupByOutline} on columns: joint coordinates interleaved x, y and member ends
+ * interleaved from, to (joint indices); a code per member, 1 top chord, 2 bottom chord, 3 web.
+ * No object per joint or member, for the drawing import's 100 000-member drawings.
+ */
+export function outlineGroupCodes(xy: Float64Array, ends: Int32Array, tol = 1e-6): Uint8Array {
+  const J = xy.length / 2;
+  const M = ends.length / 2;
+  const used = new Uint8Array(J);
+  for (let k = 0; k < ends.length; k++) used[ends[k]!] = 1;
+  let nUsed = 0;
+  let span = 1;
+  for (let j = 0; j < J; j++) {
+    if (!used[j]) continue;
+    nUsed++;
+    span = Math.max(span, Math.abs(xy[2 * j]!), Math.abs(xy[2 * j + 1]!));
+  }
+  const order = new Int32Array(nUsed);
+  for (let j = 0, k = 0; j < J; j++) if (used[j]) order[k++] = j;
+  order.sort((a, b) => xy[2 * a]! - xy[2 * b]! || xy[2 * a + 1]! - xy[2 * b + 1]!);
+  const pt = (j: number): Point => ({ x: xy[2 * j]!, y: xy[2 * j + 1]! });
+  const { lower, upper } = hullChainsSorted(order, xy, pt);
+  const t = tol * span;
+  const codes = new Uint8Array(M);
+  for (let i = 0; i < M; i++) {
+    const a = pt(ends[2 * i]!);
+    const b = pt(ends[2 * i + 1]!);
+    codes[i] = onChain(a, b, lower, t) ? OUTLINE_BOTTOM : onChain(a, b, upper, t) ? OUTLINE_TOP : OUTLINE_WEB;
+  }
+  return codes;
+}
+
+/** Andrew's monotone chain over joints already sorted by x, then y (indices into `xy`). */
+function hullChainsSorted(order: Int32Array, xy: Float64Array, pt: (j: number) => Point): { lower: Point[]; upper: Point[] } {
+  const crossOf = (o: number, a: number, b: number) =>
+    (xy[2 * a]! - xy[2 * o]!) * (xy[2 * b + 1]! - xy[2 * o + 1]!) - (xy[2 * a + 1]! - xy[2 * o + 1]!) * (xy[2 * b]! - xy[2 * o]!);
+  const lower: number[] = [];
+  for (let k = 0; k < order.length; k++) {
+    const q = order[k]!;
+    while (lower.length >= 2 && crossOf(lower[lower.length - 2]!, lower[lower.length - 1]!, q) <= 0) lower.pop();
+    lower.push(q);
+  }
+  const upper: number[] = [];
+  for (let k = order.length - 1; k >= 0; k--) {
+    const q = order[k]!;
+    while (upper.length >= 2 && crossOf(upper[upper.length - 2]!, upper[upper.length - 1]!, q) <= 0) upper.pop();
+    upper.push(q);
+  }
+  return { lower: lower.map(pt), upper: upper.reverse().map(pt) };
+}
+
 /**
  * Guesses member groups from the truss outline: members along the lower edge of the convex
  * outline are bottom chord, along the upper edge top chord, the rest webs. Right for the usual
@@ -68,25 +107,23 @@ function onChain(a: Point, b: Point, chain: Point[], tol: number): boolean {
  * largest coordinate. Time about m log m (the drawing import runs it on every upload).
  */
 export function membersGroupByOutline(joints: readonly Joint[], members: readonly Member[], tol = 1e-6): Map<string, MemberGroup> {
-  const byId = new Map(joints.map((j) => [j.id, j]));
-  const usedIds = new Set<string>();
-  for (const m of members) {
-    usedIds.add(m.from);
-    usedIds.add(m.to);
-  }
-  const used = joints.filter((j) => usedIds.has(j.id));
-  let span = 1;
-  for (const j of used) span = Math.max(span, Math.abs(j.x), Math.abs(j.y));
-  const t = tol * span;
-  const { lower, upper } = hullChains(used);
+  const index = new Map<string, number>();
+  const xy = new Float64Array(2 * joints.length);
+  joints.forEach((j, k) => {
+    index.set(j.id, k);
+    xy[2 * k] = j.x;
+    xy[2 * k + 1] = j.y;
+  });
+  const known = members.filter((m) => index.has(m.from) && index.has(m.to));
+  const ends = new Int32Array(2 * known.length);
+  known.forEach((m, i) => {
+    ends[2 * i] = index.get(m.from)!;
+    ends[2 * i + 1] = index.get(m.to)!;
+  });
+  const codes = outlineGroupCodes(xy, ends, tol);
   const groups = new Map<string, MemberGroup>();
-  for (const m of members) {
-    const a = byId.get(m.from);
-    const b = byId.get(m.to);
-    if (!a || !b) continue;
-    if (onChain(a, b, lower, t)) groups.set(m.id, 'bottom-chord');
-    else if (onChain(a, b, upper, t)) groups.set(m.id, 'top-chord');
-    else groups.set(m.id, 'web');
-  }
+  known.forEach((m, i) => groups.set(m.id, CODE_GROUP[codes[i]!]!));
   return groups;
 }
+
+const CODE_GROUP: Record<number, MemberGroup> = { [OUTLINE_TOP]: 'top-chord', [OUTLINE_BOTTOM]: 'bottom-chord', [OUTLINE_WEB]: 'web' };

@@ -58,7 +58,9 @@ describe('a drawing that hands over cleanly', () => {
     await warning.click();
     expect(await warning.getAttribute('aria-pressed')).toBe('true');
     const drawing = page.getByRole('img', { name: /Truss drawing: 8 joints, 12 members/ });
-    expect(await drawing.locator('circle[stroke-dasharray]').count()).toBeGreaterThanOrEqual(4);
+    // a halo at each of the four joints and the four sides drawn in the accent
+    expect(await drawing.locator('circle[r="10"]').count()).toBe(4);
+    expect(await drawing.locator('line[stroke="#12605a"]').count()).toBe(4);
     await page.screenshot({ path: `${process.env.TMPDIR ?? '/tmp'}/drawing-handover-report.png` });
     await page.close();
   }, 120_000);
