@@ -150,7 +150,12 @@ describe('R2000 three-panel truss with drafting faults, millimetres (hand-writte
 
   it('when the top chord has a bulge, then the arc span is a straight member and reported', () => {
     expect(entry(r, 'ignored-bulge')).toMatchObject({ count: 1, points: [{ x: 2, y: 1.5 }] });
-    expect(memberBetween(r, jointAt(r, 1, 1.5).id, jointAt(r, 3, 1.5).id)).toHaveLength(1);
+    const arc = memberBetween(r, jointAt(r, 1, 1.5).id, jointAt(r, 3, 1.5).id);
+    expect(arc).toHaveLength(1);
+    // the line names the member the arc span became, by id and by tag
+    expect(entry(r, 'ignored-bulge').members).toEqual([arc[0].id]);
+    const tag = arc[0].tag;
+    expect(entry(r, 'ignored-bulge').message).toMatch(new RegExp(`: member ${tag}$`));
   });
 
   it('when an MTEXT with formatting sits over the apex, then it tags that joint and the others follow reading order', () => {

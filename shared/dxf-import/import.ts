@@ -647,7 +647,11 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     if (bulged.length < DXF_REPORT_MAX_LOCATIONS) bulged.push({ x: (seg[4 * i] + seg[4 * i + 2]) / 2, y: (seg[4 * i + 1] + seg[4 * i + 3]) / 2 });
   }
   if (nBulged > 0) {
+    // the members the arc spans became (a member keeps the segment it came from)
+    const bulgedMembers: number[] = [];
+    for (let i = 0; i < M; i++) if (segBulged[h.memberSource[i]]) bulgedMembers.push(i);
     entry({
+      members: memberIdsOf(bulgedMembers),
       kind: 'ignored-bulge',
       severity: 'warning',
       count: nBulged,
