@@ -399,12 +399,14 @@ function sheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number
     }
     // Residual relative to the largest load, each as printed (3 significant figures).
     const [abs, rel] = c.check.tex;
-    const r = /= (\d\.\d\de[-+]\d+)\\ \\mathrm\{kN\}/.exec(abs);
-    const q = /load } (\d+\.\d+)\\ \\mathrm\{kN\}:\\ (\d\.\d\de[-+]\d+)/.exec(rel);
+    // Written m \times 10^{n} (texScientific), never 2.01e-14.
+    const sci = (m: string, e: string) => Number(m) * 10 ** Number(e);
+    const r = /= (\d\.\d\d) \\times 10\^\{(-?\d+)\}\\ \\mathrm\{kN\}/.exec(abs);
+    const q = /load } (\d+\.\d+)\\ \\mathrm\{kN\}:\\ (\d\.\d\d) \\times 10\^\{(-?\d+)\}/.exec(rel);
     if (r && q && Number(q[1]) > 0) {
       checked++;
-      const got = Number(r[1]) / Number(q[1]);
-      const printed = Number(q[2]);
+      const got = sci(r[1], r[2]) / Number(q[1]);
+      const printed = sci(q[2], q[3]);
       if (!(Math.abs(got - printed) <= 0.5 * 10 ** (Math.floor(Math.log10(printed)) - 2) * (1 + 1e-9))) {
         bad.push({ sheet, step: c.check.id, line: rel, got, printed });
       }

@@ -6,6 +6,7 @@ import type {
   SolverStep,
 } from './types';
 import { texText } from '../text/safe-text';
+import { texScientific } from '../units/format';
 import { stepOperandDecimals, stepsOperandDecimals } from './printed-digits';
 
 /** Options for `stepToKatex`. */
@@ -215,12 +216,13 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'check': {
       const at = step.residualJointTag ? `\\ \\text{at joint }${texText(step.residualJointTag)}` : '';
       // The ratio is worked from the residual and the load as printed, so it divides out by hand.
-      const residualShown = step.residual.toExponential(2);
+      // Both written m × 10ⁿ (texScientific), never the computer's 2.01e-14.
+      const residualShown = Number(step.residual.toExponential(2));
       const largestShown = numberFormat(step.largestLoad, d);
-      const ratio = Number(largestShown) > 0 ? Number(residualShown) / Number(largestShown) : 0;
+      const ratio = Number(largestShown) > 0 ? residualShown / Number(largestShown) : 0;
       return [
-        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${residualShown}\\ \\mathrm{kN}${at}`,
-        `\\text{relative to the largest load } ${largestShown}\\ \\mathrm{kN}:\\ ${ratio.toExponential(2)}`,
+        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${texScientific(residualShown, 3)}\\ \\mathrm{kN}${at}`,
+        `\\text{relative to the largest load } ${largestShown}\\ \\mathrm{kN}:\\ ${texScientific(ratio, 3)}`,
       ];
     }
   }

@@ -55,7 +55,7 @@ describe('numbers out of physical sense', () => {
     const m = before.model.members[0].id as string;
     const res = await save({ version: before.version, supports: [], loadCases: [], combinations: [], members: [{ id: m, A: 1e-20 }] });
     expect(res.status).toBe(400);
-    expect(JSON.stringify(res.body.error)).toMatch(/area A is below 1e-8 m²/);
+    expect(JSON.stringify(res.body.error)).toMatch(/area A is below 1 × 10⁻⁸ m²/);
     const top = before.model.joints.map((j: { id: string }) => j.id);
     const preview = await engineer.agent
       .post(`/api/trusses/${trussId}/takeoff/preview`)

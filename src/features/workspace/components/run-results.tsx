@@ -1,7 +1,7 @@
-import { useMemo, useState, type ReactNode } from 'react';
+import { useMemo, useState } from 'react';
 import { caseSteps, reactionEnvelopeOf, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import type { RunView } from '@shared/schemas/run.schema';
-import type { UnitSystemId } from '@shared/units';
+import { readableFormat, type UnitSystemId } from '@shared/units';
 import { Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { formatDateTime } from '@/lib/format';
@@ -29,16 +29,9 @@ import { TrussSvg, type JointArrow } from './truss-svg';
 const LINK = 'inline-flex h-8 items-center rounded-md border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
 const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
 
-/** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000. */
-function smallKn(v: number): ReactNode {
-  if (v === 0) return '0 kN';
-  if (Math.abs(v) >= 0.001) return `${v.toFixed(4)} kN`;
-  const [m, e] = v.toExponential(1).split('e');
-  return (
-    <>
-      {m} × 10<sup>{Number(e).toString().replace('-', '\u2212')}</sup> kN
-    </>
-  );
+/** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000 or 3.6e-15. */
+function smallKn(v: number): string {
+  return `${readableFormat(v, 4, 2)}\u202fkN`;
 }
 
 /** One run: its status, the classification, and for a solved run the forces, diagram and steps. */
