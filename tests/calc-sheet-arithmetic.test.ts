@@ -12,13 +12,13 @@ import { buildCalcSheetView, katexHtml, type CalcSheetInput, type CalcSheetView,
 /**
  * A checker redoes every printed equation of a calc sheet by hand, from the printed numbers.
  * This test does the same: it reads the KaTeX source of every typeset line of several sheets
- * (the demo truss with a roof takeoff by both methods, a K-truss, trusses solved partly by
+ * (the demo truss with a roof loading by both methods, a K-truss, trusses solved partly by
  * simultaneous equations, two stiffness solutions, a long truss with large forces, US units),
  * recomputes each line from its printed operands and compares with its printed result to the
  * printed precision: within half a unit of the result's last printed place.
  *
  * The recomputation is independent of the code under test: linear systems are solved with
- * mathjs (lusolve), and the takeoff's arithmetic with units is evaluated by mathjs's unit
+ * mathjs (lusolve), and the roof loading's arithmetic with units is evaluated by mathjs's unit
  * algebra (1 lbf = 4.4482216152605 N, 1 ft = 0.3048 m, exact by definition, NIST SP 811).
  */
 

@@ -42,7 +42,7 @@ const SECTIONS: { id: Section; label: string }[] = [
   { id: 'loads', label: 'Load cases & loads' },
   { id: 'combinations', label: 'Combinations' },
   { id: 'members', label: 'Members' },
-  { id: 'takeoff', label: 'Roof takeoff' },
+  { id: 'takeoff', label: 'Roof loading' },
 ];
 
 const GROUP_LOOK: Record<MemberGroup, MemberLook> = {
@@ -215,7 +215,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           }
         : { onJointClick: (joint: Joint, at: { x: number; y: number }) => setPopover({ joint, at }) };
 
-  /** Marks (or, with null, unmarks) the draft's cases as holding the roof takeoff's loads. */
+  /** Marks (or, with null, unmarks) the draft's cases as holding the roof loading's loads. */
   const markCases = (ids: ReadonlySet<string> | null) => {
     const cases = form.getValues('loadCases') ?? [];
     cases.forEach((c, i) => {
@@ -399,7 +399,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               joints={joints}
               mayEdit={mayEdit}
               onDetach={(id) => void detachCase(id)}
-              detachBlocked={hasEdits ? 'Save or discard your changes before detaching loads from the roof takeoff.' : save.isPending || detach.isPending ? 'Saving…' : null}
+              detachBlocked={hasEdits ? 'Save or discard your changes before detaching loads from the roof loading.' : save.isPending || detach.isPending ? 'Saving…' : null}
             />
           )}
           {section === 'combinations' && <CombinationsSection form={form} mayEdit={mayEdit} />}
@@ -408,9 +408,9 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           )}
         </fieldset>
         {section === 'takeoff' && pendingUse && (
-          <div role="alertdialog" aria-label="Use the roof takeoff's loads" className="mb-4 rounded-md border border-accent/40 bg-accent-soft/40 px-4 py-3 text-sm">
+          <div role="alertdialog" aria-label="Use the roof loading's loads" className="mb-4 rounded-md border border-accent/40 bg-accent-soft/40 px-4 py-3 text-sm">
             <p className="font-semibold text-ink">Use these loads? This saves the model with these changes:</p>
-            <table className="mt-2 border-collapse text-[13px]" aria-label="What using the takeoff's loads changes">
+            <table className="mt-2 border-collapse text-[13px]" aria-label="What using the roof loading's loads changes">
               <thead>
                 <tr className="border-b border-paper-line text-left text-xs text-ink-soft">
                   <th className="py-1 pr-4">Load case</th>
@@ -435,7 +435,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               </tbody>
             </table>
             <p className="mt-2 text-xs text-ink-soft">
-              These cases are then marked “from the roof takeoff” and read-only in the loads table; any other unsaved edits are saved with them.
+              These cases are then marked “from the roof loading” and read-only in the loads table; any other unsaved edits are saved with them.
             </p>
             <div className="mt-2 flex gap-2">
               <Button size="sm" variant="primary" busy={save.isPending} onClick={confirmUse}>

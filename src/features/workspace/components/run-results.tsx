@@ -50,7 +50,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
           </h2>
           <p className="text-xs text-ink-soft">
             Model save <span className="figures">{r.modelVersion}</span> · run by {r.ranBy} · {formatDateTime(r.createdAt)}
-            {r.usedTakeoff && ' · loads from the roof takeoff'}
+            {r.usedTakeoff && ' · loads from the roof loading'}
           </p>
           {r.stale && (
             <p className="mt-1 text-xs font-medium text-compression">Stale: the model changed after this run. Run the analysis again before using these results.</p>

@@ -11,7 +11,7 @@ const ordinal = (n: number) => `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n 
 export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string> }) {
   const equalSpans = result.spans.every((s) => Math.abs(s - result.spans[0]!) < 1e-9);
   return (
-    <div className="flex flex-col gap-4" aria-label="Takeoff preview">
+    <div className="flex flex-col gap-4" aria-label="Roof loading preview">
       <p className="figures text-sm text-ink">
         Truss {result.trussIndex + 1} of {result.trussCount} ({ordinal(result.trussIndex + 1)} from the end, {result.trussPosition}) · purlin spans{' '}
         {equalSpans ? `${result.spans.length} × ${f(result.spans[0]!, 3)} m` : result.spans.map((s) => f(s, 3)).join(', ') + ' m'} · reaction on this truss per 1 kN/m of purlin load:{' '}
@@ -41,7 +41,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
       </table>
 
       {result.cases.map((c) => (
-        <table key={c.caseId} className="w-full border-collapse text-[13px]" aria-label={`Takeoff of load case ${c.caseId}`}>
+        <table key={c.caseId} className="w-full border-collapse text-[13px]" aria-label={`Roof loading of load case ${c.caseId}`}>
           <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
             {c.caseId} — {caseNames.get(c.caseId) ?? 'new case'}: q = {f(c.q, 3)} kPa on the {c.basis === 'slope' ? 'sloped roof area' : 'horizontal projection'}
             {c.pattern && (
@@ -56,7 +56,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
               <th className={TH}>Purlin at</th>
               <th className={TH_RIGHT}>Width b (m)</th>
               <th className={TH_RIGHT}>w = q·b (kN/m)</th>
-              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, continuous (kN)</th>
+              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, three-moment (kN)</th>
               <th className={`${TH_RIGHT} ${result.method === 'tributary' ? 'text-accent' : ''}`}>Reaction, tributary (kN)</th>
               <th className={TH_RIGHT}>Difference</th>
               <th className={TH_RIGHT}>Joint load Fy (kN)</th>
@@ -112,11 +112,11 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
         </table>
       )}
       <p className="text-xs text-ink-faint">
-        Difference = (tributary − continuous) / continuous. The joint loads use the {result.method === 'exact' ? 'continuous-purlin' : 'tributary-length'} reactions, downward (Fy &lt; 0).
+        Difference = (tributary − three-moment) / three-moment. The joint loads use the {result.method === 'exact' ? 'three-moment (continuous purlin)' : 'tributary-length'} reactions, downward (Fy &lt; 0).
       </p>
 
       <details className="rounded-md border border-paper-line bg-paper px-3 py-2">
-        <summary className="cursor-pointer text-sm font-medium text-ink">Every step of the takeoff ({result.steps.length})</summary>
+        <summary className="cursor-pointer text-sm font-medium text-ink">Every step of the roof loading ({result.steps.length})</summary>
         <ol className="mt-2 flex flex-col gap-2">
           {result.steps.map((s) => (
             <li key={s.id}>

@@ -87,7 +87,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
   };
   const chooseCase = (i: number, value: string) => {
     const category = value.startsWith('new:') ? (value.slice(4) as LoadCategory) : categoryOf(value);
-    const id = value.startsWith('new:') ? actions.addCase(value.slice(4) as LoadCategory, `${CATEGORY_LABELS[value.slice(4) as LoadCategory]} (roof takeoff)`) : value;
+    const id = value.startsWith('new:') ? actions.addCase(value.slice(4) as LoadCategory, `${CATEGORY_LABELS[value.slice(4) as LoadCategory]} (roof loading)`) : value;
     takeoffForm.setValue(`areaLoads.${i}.caseId`, id, { shouldDirty: true });
     // Span patterns are for live, roof live and snow only: leave none ticked on another case.
     if (!category || !PATTERN_CATEGORIES.includes(category)) takeoffForm.setValue(`areaLoads.${i}.patterns`, false, { shouldDirty: true });
@@ -101,14 +101,14 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
       { shouldDirty: true },
     );
   const chooseWindCase = (value: string) => {
-    const id = value === 'new:wind' ? actions.addCase('wind', 'Wind (roof takeoff)') : value;
+    const id = value === 'new:wind' ? actions.addCase('wind', 'Wind (roof loading)') : value;
     takeoffForm.setValue('wind.caseId', id, { shouldDirty: true });
   };
 
   if (topChord.length < 2) {
     return (
       <div className="rounded-md border border-dashed border-paper-line px-4 py-6 text-sm text-ink-soft">
-        The takeoff puts purlins on top-chord joints, and no members are grouped as top chord yet. Open <strong>Members</strong> and use
+        The roof loading puts purlins on top-chord joints, and no members are grouped as top chord yet. Open <strong>Members</strong> and use
         “Suggest groups from the outline”, or select the top-chord members and set their group.
       </div>
     );
@@ -315,7 +315,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
               <legend className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Joint loads from</legend>
               <label className="flex items-center gap-2 text-sm">
                 <input type="radio" value="exact" className="accent-accent" {...takeoffForm.register('method')} />
-                continuous purlin (exact)
+                continuous purlin (three-moment equation)
               </label>
               <label className="flex items-center gap-2 text-sm">
                 <input type="radio" value="tributary" className="accent-accent" {...takeoffForm.register('method')} />
@@ -333,7 +333,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
             {preview.isFetching && <span className="text-xs text-ink-faint">Computing…</span>}
             {mayEdit && hasSaved && (
               <Button size="sm" variant="danger" onClick={onRemove} disabled={busy}>
-                Remove the takeoff
+                Remove the roof loading
               </Button>
             )}
             {mayEdit && (
@@ -358,7 +358,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
             <TakeoffPreview result={(fresh ?? preview.data)!.result} caseNames={caseNames} />
           </div>
         ) : (
-          <p className="text-sm text-ink-soft">Computing the takeoff…</p>
+          <p className="text-sm text-ink-soft">Working out the roof loading…</p>
         )}
       </div>
     </div>

@@ -169,7 +169,7 @@ export const GROUP_LABELS: Record<MemberGroup, string> = {
   other: 'Other',
 };
 
-/** Joints of the members grouped as top chord, in order of x (the takeoff's top-chord list). */
+/** Joints of the members grouped as top chord, in order of x (the roof loading's top-chord list). */
 export function topChordJoints(model: Pick<TrussModel, 'joints' | 'members'>, groups: ReadonlyMap<string, MemberGroup | undefined>): Joint[] {
   const ids = new Set<string>();
   for (const m of model.members) {
