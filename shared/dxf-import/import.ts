@@ -640,7 +640,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     message:
       tagged === 0
         ? `named ${plural(J, 'joint')} A, B, C, … in reading order (top to bottom, left to right)`
-        : `took ${plural(tagged, 'joint tag')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
+        : `took ${plural(tagged, 'joint label')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
     joints: jointIdsOf(tagResult.fromText),
   });
   for (const u of tagResult.unused) ignore(u.text.type, u.reason, u.text.layer, u.text.x, u.text.y);

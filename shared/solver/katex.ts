@@ -151,12 +151,14 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       ];
     }
     case 'zero-force': {
+      // Plain words, not rule numbers: what is seen at the joint that makes the member carry nothing.
       const why =
         step.rule === 1
-          ? ': two non-collinear members, no load, no support'
-          : ': three members, two collinear, no load, no support';
+          ? 'two members not in line meet there, with no load and no support'
+          : 'three members meet there, two of them in line, with no load and no support';
+      const later = step.pass > 1 ? ', once the zero-force members found before are set aside' : '';
       return [
-        `${symbolMember(step.memberTag)} = 0 \\quad \\text{(rule ${step.rule} at joint }${texText(step.jointTag)}\\text{${why}; pass ${step.pass})}`,
+        `${symbolMember(step.memberTag)} = 0 \\quad \\text{(at joint }${texText(step.jointTag)}\\text{: ${why}${later})}`,
       ];
     }
     case 'reaction': {

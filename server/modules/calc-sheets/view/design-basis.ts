@@ -114,7 +114,7 @@ function symbolsOf(model: TrussModel, analysis: TrussAnalysis): { html: string; 
   if (loaded) {
     const t = tagOf(loaded.joint);
     const letter = loadLetterOf(model);
-    add(`${symbolLoad(t, 'x', letter)},\\ ${symbolLoad(t, 'y', letter)}`, `load applied at joint ${t} along x and along y, positive toward +x and +y${letter === 'P' ? '' : ` (written ${letter} here, as a joint tag of this truss starts with P)`}`);
+    add(`${symbolLoad(t, 'x', letter)},\\ ${symbolLoad(t, 'y', letter)}`, `load applied at joint ${t} along x and along y, positive toward +x and +y${letter === 'P' ? '' : ` (written ${letter} here, as a joint label of this truss starts with P)`}`);
   }
   add('\\Sigma F_x = 0,\\ \\Sigma F_y = 0', 'equilibrium of a joint: the sum of the forces on it along x, and along y, is zero');
   if (analysis.cases.some((c) => c.reactionSteps.length)) {

@@ -114,11 +114,11 @@ function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boo
               </select>
               {Array.isArray(g.members) && (
                 <input
-                  aria-label="Member tags"
+                  aria-label="Member labels"
                   className={`${FIELD} w-56`}
                   defaultValue={g.members.map((id) => idToTag.get(id) ?? id).join(', ')}
                   onBlur={(e) => setGroup(i, { ...g, members: e.target.value.split(/[\s,]+/).filter(Boolean).map((t) => tagToId.get(t) ?? t) })}
-                  placeholder="Member tags, comma separated"
+                  placeholder="Member labels, comma separated"
                 />
               )}
               {draft.groups.length > 1 && (
@@ -214,7 +214,7 @@ function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boo
             aria-label="Deflection joints"
             className={`${FIELD} w-40`}
             defaultValue={draft.deflection?.joints.map((j) => jointTag.get(j) ?? j).join(', ') ?? ''}
-            placeholder="Joint tags"
+            placeholder="Joint labels"
             onBlur={(e) => {
               const joints = e.target.value.split(/[\s,]+/).filter(Boolean).map((t) => jointId.get(t) ?? t);
               const { deflection, ...rest } = draft;

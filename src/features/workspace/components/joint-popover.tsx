@@ -103,19 +103,19 @@ export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPo
         </div>
         {support?.kind === 'roller' && (
           <label className="mt-2 flex items-center gap-2 text-xs text-ink-soft">
-            Reaction line at
+            Roller pushes at
             <input
               type="number"
               step="any"
               className={`${INPUT} w-20 text-right`}
-              aria-label="Angle of the reaction line, degrees from +x"
+              aria-label="Angle of the roller's reaction, degrees from horizontal"
               defaultValue={support.angleDeg ?? 90}
               onChange={(e) => {
                 const v = Number(e.target.value);
                 if (e.target.value !== '' && Number.isFinite(v)) actions.setSupport(joint.id, { joint: joint.id, kind: 'roller', angleDeg: v });
               }}
             />
-            ° from +x (90° vertical)
+            ° from horizontal, anticlockwise (90° is straight up)
           </label>
         )}
       </fieldset>

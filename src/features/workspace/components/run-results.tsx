@@ -53,7 +53,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
             {r.usedTakeoff && ' · loads from the roof loading'}
           </p>
           {r.stale && (
-            <p className="mt-1 text-xs font-medium text-compression">Stale: the model changed after this run. Run the analysis again before using these results.</p>
+            <p className="mt-1 text-xs font-medium text-compression">Out of date: the model changed after this run. Run the analysis again before using these results.</p>
           )}
         </div>
         {r.analysis && (
@@ -293,15 +293,15 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
                 <div>
                   <h3 className="mb-2 text-sm font-semibold text-ink">Zero-force members</h3>
                   {caseResult.zeroForce.length === 0 ? (
-                    <p className="text-sm text-ink-soft">None found by the two joint rules in this case.</p>
+                    <p className="text-sm text-ink-soft">No member is seen to carry zero force at an unloaded joint in this case.</p>
                   ) : (
                     <ul className="flex flex-col gap-1 text-sm">
                       {caseResult.zeroForce.map((z) => (
                         <li key={z.id} className="cursor-pointer hover:text-accent" onMouseEnter={() => setHoverJoints([z.joint])} onMouseLeave={() => setHoverJoints(null)} onClick={() => setActiveStep(z)}>
                           <strong>{z.memberTag}</strong>{' '}
                           <span className="text-ink-soft">
-                            — at joint {z.jointTag}, {z.rule === 1 ? 'rule 1: two non-collinear members, no load, no support' : `rule 2: ${z.collinear?.map((id) => memberTags.get(id) ?? id).join(' and ')} are collinear, no load, no support`}
-                            {z.pass > 1 ? ` (found on pass ${z.pass}, once earlier zero-force members were set aside)` : ''}
+                            — at joint {z.jointTag}, {z.rule === 1 ? 'two members not in line meet there, with no load and no support' : `${z.collinear?.map((id) => memberTags.get(id) ?? id).join(' and ')} are in line there and nothing else loads or holds the joint`}
+                            {z.pass > 1 ? ' (found once the zero-force members above are set aside)' : ''}
                           </span>
                         </li>
                       ))}

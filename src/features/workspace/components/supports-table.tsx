@@ -25,7 +25,7 @@ export function SupportsTable({ form, joints, mayEdit }: { form: DraftForm; join
           <tr className="border-b border-paper-line">
             <th className={TH}>Joint</th>
             <th className={TH}>Support</th>
-            <th className={TH_RIGHT}>Reaction line (° from +x)</th>
+            <th className={TH_RIGHT}>Roller pushes at, ° from horizontal</th>
             <th className={TH}>
               <span className="sr-only">Remove</span>
             </th>
