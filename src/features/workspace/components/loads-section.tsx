@@ -230,8 +230,8 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
               </th>
               <th className={TH}>Case</th>
               <th className={TH}>Joint</th>
-              <th className={TH_RIGHT}>Fx (kN)</th>
-              <th className={TH_RIGHT}>Fy (kN)</th>
+              <th className={TH_RIGHT}>Fx, kN</th>
+              <th className={TH_RIGHT}>Fy, kN</th>
               <th className={TH}>Note</th>
               <th className={TH}>
                 <span className="sr-only">Remove</span>

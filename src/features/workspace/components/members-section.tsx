@@ -125,11 +125,11 @@ export function MembersSection({ form, joints, members, mayEdit, selected, onSel
                 <span className="sr-only">Selected</span>
               </th>
               <th className={TH}>Member</th>
-              <th className={TH_RIGHT}>Length (m)</th>
+              <th className={TH_RIGHT}>Length, m</th>
               <th className={TH}>Group</th>
-              <th className={TH_RIGHT}>E (GPa)</th>
+              <th className={TH_RIGHT}>E, GPa</th>
               <th className={TH_RIGHT}>A (mm²)</th>
-              <th className={TH_RIGHT}>EA (kN)</th>
+              <th className={TH_RIGHT}>EA, kN</th>
               <th className={TH}>Material</th>
               <th className={TH}>Section</th>
             </tr>

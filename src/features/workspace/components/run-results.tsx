@@ -389,7 +389,7 @@ function Legend() {
         </svg>
         zero force
       </span>
-      <span>Line width grows with the force. Teal arrows: reactions.</span>
+      <span>Line width grows with the force. Loads: filled arrow heads; reactions: open heads.</span>
     </div>
   );
 }

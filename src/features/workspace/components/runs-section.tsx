@@ -107,14 +107,14 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                         {r.classification
                           ? `${KIND_WORDS[r.classification.kind]}${r.classification.kind === 'indeterminate' ? ` (degree ${r.classification.degree})` : ''}`
                           : r.error
-                            ? r.error.code
+                            ? <span className="block max-w-xs truncate" title={r.error.message}>{r.error.message}</span>
                             : '—'}
                       </td>
                       <td className="figures px-2 py-1.5 text-right whitespace-nowrap">
                         {r.modelVersion}
                         {r.stale && (
                           <span className="ml-2 text-[11px] font-medium text-compression" title="The model has been saved since this run: its results no longer match the model.">
-                            stale: the model changed after this run
+                            out of date: the model changed after this run
                           </span>
                         )}
                       </td>

@@ -23,9 +23,9 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
         <thead>
           <tr className="border-b border-paper-line">
             <th className={TH}>Purlin at</th>
-            <th className={TH_RIGHT}>x (m)</th>
-            <th className={TH_RIGHT}>Width along slope (m)</th>
-            <th className={TH_RIGHT}>Width on plan (m)</th>
+            <th className={TH_RIGHT}>x, m</th>
+            <th className={TH_RIGHT}>Width along slope, m</th>
+            <th className={TH_RIGHT}>Width on plan, m</th>
           </tr>
         </thead>
         <tbody className="figures">
@@ -54,12 +54,12 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
           <thead>
             <tr className="border-b border-paper-line">
               <th className={TH}>Purlin at</th>
-              <th className={TH_RIGHT}>Width b (m)</th>
-              <th className={TH_RIGHT}>w = q·b (kN/m)</th>
-              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, three-moment (kN)</th>
-              <th className={`${TH_RIGHT} ${result.method === 'tributary' ? 'text-accent' : ''}`}>Reaction, tributary (kN)</th>
+              <th className={TH_RIGHT}>Width b, m</th>
+              <th className={TH_RIGHT}>w = q·b, kN/m</th>
+              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, three-moment, kN</th>
+              <th className={`${TH_RIGHT} ${result.method === 'tributary' ? 'text-accent' : ''}`}>Reaction, tributary, kN</th>
               <th className={TH_RIGHT}>Difference</th>
-              <th className={TH_RIGHT}>Joint load Fy (kN)</th>
+              <th className={TH_RIGHT}>Joint load Fy, kN</th>
             </tr>
           </thead>
           <tbody className="figures">
@@ -90,11 +90,11 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
           <thead>
             <tr className="border-b border-paper-line">
               <th className={TH}>Purlin at</th>
-              <th className={TH_RIGHT}>x (m)</th>
-              <th className={TH_RIGHT}>wx (kN/m)</th>
-              <th className={TH_RIGHT}>wy (kN/m)</th>
-              <th className={TH_RIGHT}>Joint load Fx (kN)</th>
-              <th className={TH_RIGHT}>Joint load Fy (kN)</th>
+              <th className={TH_RIGHT}>x, m</th>
+              <th className={TH_RIGHT}>wx, kN/m</th>
+              <th className={TH_RIGHT}>wy, kN/m</th>
+              <th className={TH_RIGHT}>Joint load Fx, kN</th>
+              <th className={TH_RIGHT}>Joint load Fy, kN</th>
             </tr>
           </thead>
           <tbody className="figures">
