@@ -6,7 +6,7 @@ import { Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { formatDateTime } from '@/lib/format';
 import { useRun } from '../api/get-run';
-import { forceSense, forceStroke, forceText, forceDigits, senseMark } from '../utils/force-format';
+import { FORCE_COLOURS, forceSense, forceStroke, forceText, forceDigits, senseMark } from '../utils/force-format';
 import {
   forceRows,
   forceRowsFilter,
@@ -225,7 +225,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
 
           <Panel title="Force diagram">
             <TrussSvg
-              label="Force diagram: tension teal solid, compression amber dashed, zero-force grey dotted"
+              label="Force diagram: tension a thin line, compression a heavy line, zero force a faint dashed line"
               height={420}
               joints={model.joints}
               members={model.members}
@@ -373,23 +373,23 @@ function Legend() {
     <div className="mt-2 flex flex-wrap items-center gap-5 text-xs text-ink-soft" aria-hidden>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#1b8a82" strokeWidth="3" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS.T} strokeWidth="2" />
         </svg>
-        tension (T)
+        tension (T), thin line
       </span>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#c47f12" strokeWidth="3" strokeDasharray="8 4" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS.C} strokeWidth="5" />
         </svg>
-        compression (C)
+        compression (C), heavy line
       </span>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#8a8d90" strokeWidth="1.25" strokeDasharray="1.5 3.5" strokeLinecap="round" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS['0']} strokeWidth="1.25" strokeDasharray="6 4" />
         </svg>
-        zero force
+        zero force, dashed
       </span>
-      <span>Line width grows with the force. Loads: filled arrow heads; reactions: open heads.</span>
+      <span>Each member carries its force written beside it. Loads: filled arrow heads; reactions: open heads.</span>
     </div>
   );
 }

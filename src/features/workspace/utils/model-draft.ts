@@ -52,7 +52,7 @@ export type DraftLoad = z.infer<typeof draftLoadSchema>;
 const draftSupportSchema = z.discriminatedUnion('kind', [
   supportSchema.options[0],
   supportSchema.options[1].extend({
-    angleDeg: z.number({ error: 'Enter the angle of the roller's reaction in degrees from horizontal (90 is straight up).' }).finite(),
+    angleDeg: z.number({ error: 'Enter the angle of the roller’s reaction in degrees from horizontal (90 is straight up).' }).finite(),
   }),
 ]);
 
