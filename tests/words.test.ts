@@ -101,15 +101,15 @@ describe('words people read (issue 17 item 2)', () => {
   });
 
   it('when the check e-mails are written, then they use the state words of the app', () => {
-    const base = {
+    const base: Omit<Parameters<typeof reviewMailMessage>[0], 'kind'> = {
       to: ['checker@demo.panelpoint.test'],
-      context: { jobNumber: 'OL-0912', projectName: 'Fenwick depot', trussName: 'T1' },
+      context: { trussId: 1, projectId: 1, jobNumber: 'OL-0912', projectName: 'Fenwick depot', trussName: 'T1' },
       label: 'A',
       actorName: 'Eli Marsh',
       note: '',
       pageUrl: 'http://127.0.0.1/sheets/1',
-    } as const;
-    const subjects = (['submitted', 'returned', 'checked', 'issued'] as const).map((kind) => reviewMailMessage({ ...base, kind } as Parameters<typeof reviewMailMessage>[0]));
+    };
+    const subjects = (['submitted', 'returned', 'checked', 'issued'] as const).map((kind) => reviewMailMessage({ ...base, kind }));
     expect(subjects.map((m) => m.subject.replace(/^.*revision A /, ''))).toEqual(['submitted for check', 'returned with comments', 'checked', 'issued']);
     expect(subjects.flatMap((m, i) => oldWordsIn(`mail ${i}`, `${m.subject}\n${m.text}`))).toEqual([]);
   });
