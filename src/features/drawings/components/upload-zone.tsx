@@ -77,7 +77,7 @@ export function UploadZone({ trussId, toleranceUnit, first, onUploaded, onCancel
         }}
         onDragLeave={() => setDragging(false)}
         onDrop={onDrop}
-        className={`flex flex-col items-center justify-center gap-3 rounded-lg border-2 border-dashed px-6 text-center transition-colors ${first ? 'py-12' : 'py-8'} ${
+        className={`flex flex-col items-center justify-center gap-3 rounded-xs border-2 border-dashed px-6 text-center transition-colors ${first ? 'py-12' : 'py-8'} ${
           dragging ? 'border-accent bg-accent-soft/60' : 'border-paper-line bg-paper'
         }`}
       >

@@ -63,9 +63,9 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
         <h3 id="load-cases-title" className="mb-2 text-sm font-semibold text-ink">
           Load cases
         </h3>
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Id</th>
               <th className={TH}>Name</th>
               <th className={TH}>Category</th>
@@ -129,7 +129,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
           </tbody>
         </table>
         {confirming && fromTakeoff.has(confirming) && onDetach && (
-          <div role="alertdialog" aria-label={`Detach the loads of case ${confirming}`} className="mt-2 rounded-md border border-compression/40 bg-compression/5 px-3 py-2 text-sm">
+          <div role="alertdialog" aria-label={`Detach the loads of case ${confirming}`} className="mt-2 rounded-xs border border-compression/40 bg-compression/5 px-3 py-2 text-sm">
             <p className="text-ink">
               The roof loading will no longer update the loads of case {confirming}: they stay as they are now and become loads you edit by hand. Detach them?
             </p>
@@ -183,7 +183,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
         </div>
 
         {mayEdit && selected.size > 0 && (
-          <div className="mb-2 flex flex-wrap items-center gap-2 rounded-md border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs text-ink">
+          <div className="mb-2 flex flex-wrap items-center gap-2 rounded-xs border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs text-ink">
             <span className="font-medium">{selected.size} selected</span>
             <label className="flex items-center gap-1">
               Fy
@@ -214,9 +214,9 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
           </div>
         )}
 
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={`${TH} w-8`}>
                 {mayEdit && (
                   <input

@@ -26,8 +26,8 @@ import { SheetPdfJob } from './sheet-pdf-job';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
 
-const LINK = 'inline-flex h-8 items-center rounded-md border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
-const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
+const LINK = 'inline-flex h-8 items-center rounded-xs border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
+const SELECT = 'h-8 rounded-xs border border-paper-line bg-paper-raised px-2 text-[13px]';
 
 /** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000 or 3.6e-15. */
 function smallKn(v: number): string {
@@ -85,7 +85,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
         </Panel>
       )}
       {r.status === 'failed' && (
-        <div role="alert" className="rounded-md border border-danger/30 bg-paper-raised px-5 py-4">
+        <div role="alert" className="rounded-xs border border-danger/30 bg-paper-raised px-5 py-4">
           <p className="text-sm font-semibold text-danger">The run failed</p>
           <p className="mt-1 text-sm text-ink-soft">{r.error?.message ?? 'The solver stopped without saying why.'}</p>
         </div>
@@ -178,7 +178,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
           <p
             role={cls.conditioning.nearMechanism ? 'alert' : undefined}
             data-testid="conditioning"
-            className={`mt-1 text-sm ${cls.conditioning.nearMechanism ? 'rounded-md border border-danger/30 bg-paper-raised px-3 py-2 font-medium text-danger' : 'text-ink-soft'}`}
+            className={`mt-1 text-sm ${cls.conditioning.nearMechanism ? 'rounded-xs border border-danger/30 bg-paper-raised px-3 py-2 font-medium text-danger' : 'text-ink-soft'}`}
           >
             {cls.conditioning.message}
           </p>
@@ -258,9 +258,9 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
               {result?.reactions && (
                 <div>
                   <h3 className="mb-2 text-sm font-semibold text-ink">Reactions</h3>
-                  <table className="w-full border-collapse text-[13px]">
+                  <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
                     <thead>
-                      <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+                      <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
                         <th className="px-2 py-1.5 text-left">Joint</th>
                         <th className="px-2 py-1.5 text-left">Support</th>
                         <th className="px-2 py-1.5 text-right">Rx ({forceText(0, unitSystem).split('\u202f')[1]})</th>

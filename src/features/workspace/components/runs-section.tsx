@@ -79,9 +79,9 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
           <p className="py-4 text-sm text-ink-soft">No runs yet.{mayRun ? ' Put supports and loads on the model, save it, then run the analysis.' : ''}</p>
         ) : (
           <div className="max-h-72 overflow-y-auto">
-            <table className="w-full border-collapse text-[13px]">
+            <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
               <thead className="sticky top-0 bg-paper-raised">
-                <tr className="border-b border-paper-line">
+                <tr className="border-y border-ink-soft">
                   <th className={TH}>Run</th>
                   <th className={TH}>Status</th>
                   <th className={TH}>Truss</th>

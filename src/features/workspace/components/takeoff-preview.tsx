@@ -21,7 +21,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
       <table className="w-full max-w-xl border-collapse text-[13px]">
         <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">Purlins and tributary widths</caption>
         <thead>
-          <tr className="border-b border-paper-line">
+          <tr className="border-y border-ink-soft">
             <th className={TH}>Purlin at</th>
             <th className={TH_RIGHT}>x, m</th>
             <th className={TH_RIGHT}>Width along slope, m</th>
@@ -52,7 +52,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
             )}
           </caption>
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Purlin at</th>
               <th className={TH_RIGHT}>Width b, m</th>
               <th className={TH_RIGHT}>w = q·b, kN/m</th>
@@ -81,14 +81,14 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
         </table>
       ))}
       {result.wind && (
-        <table className="w-full border-collapse text-[13px]" aria-label={`Wind on the roof, load case ${result.wind.caseId}`}>
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]" aria-label={`Wind on the roof, load case ${result.wind.caseId}`}>
           <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
             {result.wind.caseId} — {caseNames.get(result.wind.caseId) ?? 'new case'}: wind normal to the roof, q = {f(result.wind.q, 3)} kPa onto the{' '}
             {result.wind.windward} slope; coefficients windward {result.wind.cWindward === null ? '—' : f(result.wind.cWindward, 2)}, leeward{' '}
             {result.wind.cLeeward === null ? '—' : f(result.wind.cLeeward, 2)}
           </caption>
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Purlin at</th>
               <th className={TH_RIGHT}>x, m</th>
               <th className={TH_RIGHT}>wx, kN/m</th>
@@ -115,7 +115,7 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
         Difference = (tributary − three-moment) / three-moment. The joint loads use the {result.method === 'exact' ? 'three-moment (continuous purlin)' : 'tributary-length'} reactions, downward (Fy &lt; 0).
       </p>
 
-      <details className="rounded-md border border-paper-line bg-paper px-3 py-2">
+      <details className="rounded-xs border border-paper-line bg-paper px-3 py-2">
         <summary className="cursor-pointer text-sm font-medium text-ink">Every step of the roof loading ({result.steps.length})</summary>
         <ol className="mt-2 flex flex-col gap-2">
           {result.steps.map((s) => (

@@ -150,7 +150,7 @@ export function TrussSvg({
   const haloColour = highlightTone === 'danger' ? DANGER : ACCENT;
 
   return (
-    <div ref={frameRef} className="relative overflow-hidden rounded-md border border-paper-line bg-white" style={{ height }}>
+    <div ref={frameRef} className="relative overflow-hidden rounded-xs border border-paper-line bg-paper-raised" style={{ height }}>
       {width > 0 && (
         <svg width={width} height={height} role="group" aria-label={label} className="block select-none">
           <defs>
