@@ -1,5 +1,6 @@
 import type { IDxf } from 'dxf-parser';
 import type { Joint } from '@shared/model/truss';
+import { scientificFormat } from '../units/format';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type DxfExplodeLimits, type ExplodedText } from './explode';
 import { healSegments, quickMedian, type HealResult } from './heal';
@@ -419,7 +420,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
       throw new DxfImportError('bad-coordinate', `The ${describeEntity(b.entity, b.layer)} has a coordinate that is not a number. Fix or delete it in your CAD program and upload again.`);
     }
     const far = Math.max(...b.v.map(Math.abs));
-    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(b.entity, b.layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
+    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(b.entity, b.layer)} lies ${scientificFormat(far, 3)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
   }
   if (chosen.length < lineLayers.length) segs.keepLayers(chosenIndex);
   const n = segs.length / 4;
