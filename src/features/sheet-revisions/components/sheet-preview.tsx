@@ -134,7 +134,7 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
       />
       {state.kind === 'loading' && (
         <div role="status" className="absolute top-3 left-3 flex items-center gap-2 rounded-xs border border-paper-line bg-paper-raised px-3 py-1.5 text-xs text-ink-soft shadow-sm">
-          <span aria-hidden className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent" />
+          <span aria-hidden className="inline-block w-6 animate-pulse border-t-2 border-dashed border-accent" />
           Laying out the calc sheet…
         </div>
       )}
