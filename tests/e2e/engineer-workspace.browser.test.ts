@@ -142,7 +142,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     expect(await link.textContent()).toBe(`Download the calc sheet PDF (${pages} pages)`);
   }, 150_000);
 
-  it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is stale', async () => {
+  it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is out of date', async () => {
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     // The takeoff's purlin picker may still be open below with its own joint L: take the main drawing's, which comes first.
     await page.getByRole('button', { name: /^Joint L at / }).first().click();
@@ -156,7 +156,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByText('Unstable: this truss cannot carry load as modelled.').waitFor({ timeout: 30_000 });
     expect(await page.getByText(/Joints that can move:/).isVisible()).toBe(true);
     expect(await page.getByText('Member forces', { exact: true }).count()).toBe(0);
-    expect(await page.getByText('stale: the model changed after this run', { exact: true }).count()).toBe(1);
+    expect(await page.getByText('out of date: the model changed after this run', { exact: true }).count()).toBe(1);
   }, 60_000);
   it('when the engineer detaches the takeoff loads, then a confirmation says the takeoff will no longer update them, and after it they are edited by hand', async () => {
     await page.getByRole('tab', { name: 'Model & loads' }).click();

@@ -263,8 +263,8 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
                       <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
                         <th className="px-2 py-1.5 text-left">Joint</th>
                         <th className="px-2 py-1.5 text-left">Support</th>
-                        <th className="px-2 py-1.5 text-right">Rx ({forceText(0, unitSystem).split('\u202f')[1]})</th>
-                        <th className="px-2 py-1.5 text-right">Ry ({forceText(0, unitSystem).split('\u202f')[1]})</th>
+                        <th className="px-2 py-1.5 text-right">Rx, {forceText(0, unitSystem).split('\u202f')[1]}</th>
+                        <th className="px-2 py-1.5 text-right">Ry, {forceText(0, unitSystem).split('\u202f')[1]}</th>
                       </tr>
                     </thead>
                     <tbody className="figures">
