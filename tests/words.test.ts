@@ -5,7 +5,7 @@ import type { TrussModel } from '@shared/model/truss';
 import { trussSolve } from '@shared/solver';
 import { combinationsBuild } from '@shared/combinations';
 import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-view';
-import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
+import { renderCalcSheetHtml, sheetPowersOfTen } from '../server/modules/calc-sheets/calc-sheet-html';
 import { reviewMailMessage } from '../server/modules/sheet-revisions/sheet-revisions.mail';
 import { postedTriangleModel, sheetInput } from '../server/modules/calc-sheets/view/view-fixtures';
 import { demoTruss, withTakeoff } from './support/sheet-samples';
@@ -112,5 +112,11 @@ describe('words people read (issue 17 item 2)', () => {
     const subjects = (['submitted', 'returned', 'checked', 'issued'] as const).map((kind) => reviewMailMessage({ ...base, kind }));
     expect(subjects.map((m) => m.subject.replace(/^.*revision A /, ''))).toEqual(['submitted for check', 'returned with comments', 'checked', 'issued']);
     expect(subjects.flatMap((m, i) => oldWordsIn(`mail ${i}`, `${m.subject}\n${m.text}`))).toEqual([]);
+  });
+});
+
+describe('powers of ten on the printed sheet', () => {
+  it('when the sheet says 2.0 × 10⁻¹⁴, then the exponent is raised in ordinary figures and minus (faces the sheet embeds), and other text is left alone', () => {
+    expect(sheetPowersOfTen('<td>2.01 × 10⁻¹⁴</td> 1 × 10⁹; 4 m² and 10² stay')).toBe('<td>2.01 × 10<sup class="pow">\u221214</sup></td> 1 × 10<sup class="pow">9</sup>; 4 m² and 10² stay');
   });
 });
