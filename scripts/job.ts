@@ -12,8 +12,9 @@ import { JobError, jobModel, jobModelSolved, jobParse, type Job } from '../serve
 export { JobError, jobSchema, type Job } from '../server/modules/job-files/job-file';
 
 /**
- * Reads, validates and converts a job file. `model` is what the solver reads (the roof
- * loading's joint loads put in); `saved` is the model as the app keeps it, with `takeoff` apart.
+ * Reads, validates and converts a job file. `model` is what the solver reads (the loads
+ * as the cases hold them, the design sections' stiffness filled in); `saved` is the model as the
+ * app keeps it, with `takeoff` apart. Both have the roof loading's loads in its marked cases.
  * @throws JobError for a missing or unreadable file, bad JSON or a bad field; the drawing import
  * and the solver throw their own typed errors (DxfImportError, SolverError).
  */

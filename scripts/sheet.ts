@@ -15,6 +15,7 @@ import { buildCalcSheetView } from '../server/modules/calc-sheets/calc-sheet-vie
 import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
 import { createSheetPrinter, SheetPrintError } from '../server/modules/calc-sheets/sheet-printer';
 import { computeTakeoff } from '../server/modules/takeoff/takeoff-compute';
+import { roofLoadsSteps } from '@shared/model/roof-loads';
 import { JobError, jobLoad } from './job';
 
 const USAGE = 'Usage: npm run -s sheet -- JOB.json OUT.pdf';
@@ -48,7 +49,9 @@ async function main(args: string[]): Promise<void> {
     model,
     analysis,
     design,
-    ...(takeoff ? { takeoffSteps: computeTakeoff(saved, takeoff).steps } : {}),
+    // As the app's run: the roof loading's steps are printed when some case holds its loads (is marked).
+    // Only the steps of the marked cases (and those they share), as the app's sheet (roofLoadsSteps).
+    ...(takeoff && saved.loadCases.some((c) => c.source === 'roof-loading') ? { takeoffSteps: roofLoadsSteps(computeTakeoff(saved, takeoff).steps, saved.loadCases) } : {}),
     preparedBy: { name: 'Panelpoint sheet command' },
     runLabel: path.basename(jobPath),
     generatedAt: new Date(),

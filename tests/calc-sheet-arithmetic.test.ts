@@ -5,9 +5,8 @@ import type { DesignInput } from '@shared/model/design-input';
 import { runDesign } from '@shared/design/basis';
 import { trussSolve } from '@shared/solver';
 import { modelFromSketch, parallelChordSketch } from '@shared/solver/test-trusses';
-import { demoTruss, kTruss, withTakeoff } from './support/sheet-samples';
-import { roofTakeoff, type TakeoffMethod } from '@shared/takeoff';
-import { buildCalcSheetView, katexHtml, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
+import { demoTruss, kTruss, withTakeoff, withWindAndPatterns } from './support/sheet-samples';
+import { buildCalcSheetView, equationHtml, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
 
 /**
  * A checker redoes every printed equation of a calc sheet by hand, from the printed numbers.
@@ -32,29 +31,6 @@ math.createUnit('kipf', '1000 lbf');
 // Sheets to read
 
 /** The demo truss with snow checked for span patterns and wind normal to both slopes (invented values). */
-function withWindAndPatterns(model: TrussModel, method: TakeoffMethod, spacing: number | number[], trussIndex: number) {
-  const topChord = ['L0', 'U1', 'U2', 'U3', 'U4', 'U5', 'L6'];
-  const takeoff = roofTakeoff({
-    joints: model.joints,
-    topChordJoints: topChord,
-    areaLoads: [
-      { caseId: 'D', q: 0.87, basis: 'slope', category: 'dead' },
-      { caseId: 'S', q: 1.13, basis: 'plan', category: 'snow', patterns: true },
-    ],
-    wind: { caseId: 'W', category: 'wind', q: 0.737, windward: 'left', cWindward: -0.37, cLeeward: -0.53 },
-    spacing,
-    trussCount: Array.isArray(spacing) ? spacing.length + 1 : 6,
-    trussIndex,
-    method,
-  });
-  model.loadCases = [
-    { id: 'D', name: 'Roofing, purlins and ceiling', category: 'dead', loads: takeoff.caseLoads.D },
-    { id: 'S', name: 'Snow, unfavourable spans', category: 'snow', loads: takeoff.caseLoads.S },
-    { id: 'W', name: 'Wind across the ridge', category: 'wind', loads: takeoff.caseLoads.W },
-  ];
-  return { model, takeoffSteps: takeoff.steps };
-}
-
 function input(model: TrussModel, extra: Partial<CalcSheetInput> = {}, unitSystem: 'SI' | 'US' = 'SI'): CalcSheetInput {
   return {
     firm: { name: 'Hollin Bank Structures (test)', address: '4 Quarry Lane', paperSize: 'A4' },
@@ -304,7 +280,8 @@ function resultRead(seg: string): { printed: Printed; unit: string | null; perce
 
 function takeoffCheck(sheet: string, step: StepView, bad: Mismatch[]): number {
   let checked = 0;
-  const tex = step.tex[0].replace('\\begin{aligned}', '').replace('\\end{aligned}', '');
+  // Each row of a takeoff step is one equation of the step (the sheet splits its aligned block).
+  const tex = step.tex.join(' \\\\\n');
   const printedR = new Map<string, Printed>();
   for (const raw of tex.split(/\\\\\n?/)) {
     const line = raw.trim().replace(/^&/, '').replace(/\s*\\quad\s*\\text\{[^}]*\}\s*$/, '');
@@ -348,7 +325,7 @@ function sheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number
   // The printed source is what was typeset.
   for (const s of steps) {
     expect(s.tex.length).toBe(s.lines.length);
-    if (view.takeoff.includes(s)) expect(s.lines[0]).toBe(katexHtml(s.tex[0]));
+    if (view.takeoff.includes(s)) s.tex.forEach((t, k) => expect(s.lines[k]).toBe(equationHtml(t)));
   }
   for (const s of view.takeoff) checked += takeoffCheck(sheet, s, bad);
 

@@ -4,7 +4,10 @@ import { loadLetterFor, loadLetterOf, trussSolve } from '@shared/solver';
 import { modelFromSketch } from '@shared/solver/test-trusses';
 import { buildCalcSheetView, type CalcSheetInput, type CalcSheetView, type StepView } from '../server/modules/calc-sheets/calc-sheet-view';
 import { renderCalcSheetHtml } from '../server/modules/calc-sheets/calc-sheet-html';
-import { demoTruss, kTruss, withTakeoff } from './support/sheet-samples';
+import type { DesignInput } from '@shared/model/design-input';
+import { runDesign } from '@shared/design/basis';
+import { demoTruss, kTruss, withTakeoff, withWindAndPatterns } from './support/sheet-samples';
+import { texSymbols } from './support/tex-symbols';
 
 /**
  * Plain references and symbols, read from the rendered sheet as a checker reads it (the HTML
@@ -75,9 +78,28 @@ function sheetOf(name: string, inp: CalcSheetInput): Sheet {
 
 const demo = withTakeoff(demoTruss(), 'exact', 4.5);
 const trib = withTakeoff(demoTruss(), 'tributary', [4.5, 3.7, 4.1, 4.5, 3.9]);
+const windExact = withWindAndPatterns(demoTruss(), 'exact', [4.5, 3.7, 4.1, 4.5, 3.9], 2);
+const windTrib = withWindAndPatterns(demoTruss(), 'tributary', 4.5, 0);
+
+/** The demo truss with a takeoff and its member design (steel, AISC 360-16 LRFD) and a deflection check: the design pages. */
+function designed(): CalcSheetInput {
+  const base = withTakeoff(demoTruss(), 'exact', 4.5);
+  const design: DesignInput = {
+    standard: 'aisc360-16-lrfd',
+    groups: [{ name: 'Chords and webs', members: 'all', material: { kind: 'grade', grade: 'A992' }, section: { shape: 'rect-hollow', B: 80, H: 80, t: 4 } }],
+    deflection: { joints: ['L3'], combinations: ['S'], limit: 240 },
+  };
+  const model = { ...base.model, design };
+  const analysis = trussSolve(model);
+  return input(model, { analysis, design: runDesign(model, analysis), takeoffSteps: base.takeoffSteps });
+}
+
 const SHEETS: Sheet[] = [
   sheetOf('demo truss with a takeoff (exact)', input(demo.model, { takeoffSteps: demo.takeoffSteps })),
   sheetOf('demo truss with a takeoff (tributary)', input(trib.model, { takeoffSteps: trib.takeoffSteps })),
+  sheetOf('demo truss with wind and snow span patterns (exact)', input(windExact.model, { takeoffSteps: windExact.takeoffSteps })),
+  sheetOf('demo truss with wind and snow span patterns (tributary, US units)', input(windTrib.model, { takeoffSteps: windTrib.takeoffSteps, project: { name: 'Plain references', jobNumber: 'HB-0013', unitSystem: 'US' } })),
+  sheetOf('demo truss with member design pages', designed()),
   sheetOf('K-truss', input(modelFromSketch(kTruss()))),
   sheetOf('braced square (stiffness)', input(bracedSquare())),
   sheetOf('apex tagged P', input(apexP())),
@@ -112,7 +134,8 @@ describe.each(SHEETS)('calc sheet of the $name', (sheet) => {
 
   it('when read, then no internal id is printed (case-, joint-, takeoff/, purlin-, nor any step id)', () => {
     expect(sheet.text).not.toMatch(/\bcase-\w/);
-    expect(sheet.text).not.toMatch(/\bjoint-(?!equilibrium)\w/);
+    // "joint-by-joint" is a plain word of the US units note.
+    expect(sheet.text).not.toMatch(/\bjoint-(?!equilibrium|by-joint)\w/);
     expect(sheet.text).not.toMatch(/takeoff\//);
     expect(sheet.text).not.toMatch(/purlin-/);
     for (const s of stepsOf(sheet.view)) expect(sheet.text.includes(s.id), s.id).toBe(false);
@@ -148,6 +171,59 @@ describe.each(SHEETS)('calc sheet of the $name', (sheet) => {
     expect(list).toBeGreaterThan(0);
     expect(list).toBeLessThan(sheet.html.indexOf('<article class="step'));
     expect(sheet.html.slice(list, list + 20_000)).toMatch(/<dl class="symbols"><dt>.*?<span class="katex">/s);
+  });
+});
+
+/**
+ * A line that defines the symbols it writes, in a step ("where" line, or a glossary line such as
+ * "t_B: movement of the roller joint …"): it starts with the word "where", or a symbol is followed
+ * by a colon and words.
+ */
+const definesHere = (tex: string) => /^\s*\\text\{\s*where\b/.test(tex) || /:\\?\s*\\text\{|\\text\{:/.test(tex);
+
+describe('every symbol on the sheet defined before or where it is first used', () => {
+  it('when the symbol reader is given known sources, then it reads the families a checker reads (it can fail)', () => {
+    // The reader's own check, on sources written here.
+    expect([...texSymbols('P_{\\text{L0},y} = c_{\\mathrm{exact}}\\,w_{x} = 5.092\\,\\mathrm{m} \\times L_{i+1} 1.78e-14 \\text{per 1 unit of w}')].sort()).toEqual(['L_{i}', 'P_{T,y}', 'c_{exact}', 'w_{x}']);
+    expect([...texSymbols('\\theta_{1} = \\arctan(\\Delta y_{1} / \\Delta x_{1}) = 26.57^{\\circ}')].sort()).toEqual(['\\Delta', '\\theta_{i}', 'x_{i}', 'y_{i}']);
+    expect([...texSymbols('\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = 0\\ \\mathrm{kN}')].sort()).toEqual(['\\Sigma', '\\mathbf{F}']);
+  });
+
+  it.each(SHEETS.map((s) => [s.name, s] as const))('when the %s sheet is read in printed order, then each symbol of its equations (KaTeX sources) is in the symbols list of section 1 or defined in a line at or before its first use', (_name, sheet) => {
+    const listed = new Set(sheet.view.designBasis.symbols.flatMap((s) => [...texSymbols(s.tex)]));
+    // Section 1 comes before every step; the steps in the order the sheet prints them.
+    const steps = stepsOf(sheet.view).sort((a, b) => sheet.html.indexOf(`id="${a.id}"`) - sheet.html.indexOf(`id="${b.id}"`));
+    const definedInSteps = new Set<string>();
+    const undefinedAt: string[] = [];
+    let read = 0;
+    for (const s of steps) {
+      for (const line of s.tex) {
+        const here = texSymbols(line);
+        if (definesHere(line)) for (const y of here) definedInSteps.add(y);
+        for (const y of here) {
+          read++;
+          if (!listed.has(y) && !definedInSteps.has(y)) undefinedAt.push(`${s.number} ${s.title}: ${y}`);
+        }
+      }
+    }
+    expect(read).toBeGreaterThan(20);
+    expect([...new Set(undefinedAt)]).toEqual([]);
+  });
+
+  it('when a sheet has a roof loading, then its symbols are listed under the takeoff\'s own heading with its section number, each with what it stands for', () => {
+    const sheet = SHEETS.find((s) => s.name === 'demo truss with wind and snow span patterns (exact)')!;
+    const number = sheet.view.numbers.takeoff;
+    expect(number).toMatch(/^\d+$/);
+    expect(sheet.html).toContain(`<dt class="symbols-group">In the roof loading, section ${number}</dt>`);
+    const takeoff = sheet.view.designBasis.symbols.filter((s) => s.group === 'takeoff');
+    const families = new Set(takeoff.flatMap((s) => [...texSymbols(s.tex)]));
+    // The roof loading's own symbols (tributary widths, spans and moments, c, q, q_p, wind, span patterns).
+    for (const f of ['b_{s}', 'b_{p}', 'L_{i}', 'M_{i}', 'c_{cont}', 'c_{trib}', 'q', 'q_{p}', 'w', 'R_{cont}', 'R_{trib}', '\\Delta', 'r_{j}', 'c_{all}', '\\theta_{i}', 'p_{i}', 'c_{i}', 'w_{n,i}', 'w_{x}', 'w_{y}', 's_{i}']) {
+      expect(families.has(f.replace('r_{j}', 'r_{j}')) || families.has(f.replace(/_\{j\}/, '_{i}')), f).toBe(true);
+    }
+    expect(takeoff.every((s) => s.meaning.length > 20)).toBe(true);
+    // A sheet without a takeoff lists none of them.
+    expect(SHEETS.find((s) => s.name === 'K-truss')!.view.designBasis.symbols.some((s) => s.group)).toBe(false);
   });
 });
 

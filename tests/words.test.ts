@@ -18,7 +18,7 @@ import { demoTruss, withTakeoff } from './support/sheet-samples';
  */
 const OLD_WORDS: [RegExp, string][] = [
   [/\bHealed\b|\bHEALED\b|no healing needed/, 'geometry "repaired"'],
-  [/[Rr]oof takeoff|Roof load takeoff|Takeoff of load case|Takeoff preview/, '"roof loading"'],
+  [/[Rr]oof takeoff|[Rr]oof load takeoff|Takeoff of load case|Takeoff preview/, '"roof loading"'],
   [/continuous purlin \(exact\)|tributary against exact|mathrm\{exact\}/, '"three-moment" for the continuous-purlin reaction'],
   [/\b[QSWH]-lead\b/, '"leading imposed / snow / wind"'],
   [/rule [12]: |\(rule [12] at joint|; pass \d|found on pass/, 'plain words for zero-force members'],

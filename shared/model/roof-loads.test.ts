@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { roofLoadsChanges, roofLoadsProblem, sameJointLoads } from './roof-loads';
+import { roofLoadsChanges, roofLoadsProblem, roofLoadsResolve, roofLoadsSteps, sameJointLoads } from './roof-loads';
 import type { LoadCase } from './truss';
 
 const snow = (loads: LoadCase['loads'], marked = true): LoadCase => ({ id: 'S', name: 'Snow', category: 'snow', loads, ...(marked ? { source: 'roof-loading' as const } : {}) });
@@ -34,5 +34,35 @@ describe('roof-takeoff loads', () => {
       { caseId: 'D', kind: 'added', before: { count: 0, totalFy: 0 }, after: { count: 1, totalFy: -1.5 } },
     ]);
     expect(roofLoadsChanges(cases, { S: [{ joint: 'a', fx: 0, fy: -99 }] })[0]!.kind).toBe('unchanged');
+  });
+});
+
+describe('the one rule for roof-loading loads (app runs, job file, command line, import)', () => {
+  // Common practice, no source: the loads a case holds are the loads solved; the values below are written out here.
+  const computed = { S: [{ joint: 'a', fx: 0, fy: -4 }], D: [{ joint: 'a', fx: 0, fy: -1.5 }] };
+  const dead = (loads: LoadCase['loads']): LoadCase => ({ id: 'D', name: 'Dead', category: 'dead', loads });
+
+  it('when a case is marked, then it holds the roof loading\'s loads (filled in when left out); an unmarked case the roof loading writes keeps its hand loads', () => {
+    const r = roofLoadsResolve([snow([]), dead([{ joint: 'b', fx: 0, fy: -7 }])], computed);
+    expect(r.problem).toBeNull();
+    expect(r.cases!.map((c) => c.loads)).toEqual([[{ joint: 'a', fx: 0, fy: -4 }], [{ joint: 'b', fx: 0, fy: -7 }]]);
+    // Given and equal: kept as given (same object).
+    const same = snow([{ joint: 'a', fx: 0, fy: -4 }]);
+    expect(roofLoadsResolve([same], computed).cases![0]).toBe(same);
+  });
+
+  it('when a marked case differs, is not written by the roof loading, or there is no roof loading, then the problem names the case', () => {
+    expect(roofLoadsResolve([snow([{ joint: 'a', fx: 0, fy: -4.5 }])], computed).problem).toEqual({ code: 'roof-loads-differ', caseId: 'S' });
+    expect(roofLoadsResolve([snow([])], { D: computed.D }).problem).toEqual({ code: 'roof-loads-not-written', caseId: 'S' });
+    expect(roofLoadsResolve([snow([])], null).problem).toEqual({ code: 'roof-loads-without-takeoff', caseId: 'S' });
+    expect(roofLoadsResolve([dead([])], null).problem).toBeNull();
+  });
+});
+
+describe('the roof loading steps a sheet prints', () => {
+  it('when a case the roof loading writes is detached, then its steps are left out; shared steps and marked cases\' steps stay, in order', () => {
+    const steps = [{ id: 'w', caseId: '' }, { id: 'd1', caseId: 'D' }, { id: 's1', caseId: 'S' }, { id: 'd2', caseId: 'D' }, { id: 's2', caseId: 'S' }];
+    const cases = [{ id: 'D' }, { id: 'S', source: 'roof-loading' as const }];
+    expect(roofLoadsSteps(steps, cases).map((s) => s.id)).toEqual(['w', 's1', 's2']);
   });
 });

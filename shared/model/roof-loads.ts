@@ -95,3 +95,53 @@ export function roofLoadsChanges(cases: readonly LoadCase[], caseLoads: Readonly
     return { caseId, kind, before: totals(current), after: totals(next) };
   });
 }
+
+/** Why the roof-loading marks of a model (or a job file) cannot stand: a case and what is wrong. */
+export interface RoofLoadsMarkProblem {
+  code: 'roof-loads-without-takeoff' | 'roof-loads-not-written' | 'roof-loads-differ';
+  caseId: string;
+}
+
+/**
+ * The one rule for the loads of a roof loading, in the app's runs, the job file, the command line
+ * and the import alike: a case marked `source: 'roof-loading'` holds the roof loading's joint
+ * loads; every other case holds its own loads as written, even a case the roof loading writes
+ * (its loads were detached and are entered by hand, so the roof loading no longer updates them).
+ * A run solves exactly these loads; the roof loading never replaces a case at solve time.
+ *
+ * A marked case given without loads (a hand-written job file may leave them out) takes the roof
+ * loading's loads; a marked case given with loads must hold exactly those (sameJointLoads), else
+ * 'roof-loads-differ'. A marked case the roof loading does not write, or a mark without a roof
+ * loading (`caseLoads` null), is a problem too. Returns the cases with their loads, or the first problem.
+ */
+export function roofLoadsResolve<C extends Pick<LoadCase, 'id' | 'loads' | 'source'>>(
+  cases: readonly C[],
+  caseLoads: Readonly<Record<string, readonly JointLoad[]>> | null,
+): { cases: C[]; problem: null } | { cases: null; problem: RoofLoadsMarkProblem } {
+  const out: C[] = [];
+  for (const c of cases) {
+    if (c.source !== 'roof-loading') {
+      out.push(c);
+      continue;
+    }
+    if (!caseLoads) return { cases: null, problem: { code: 'roof-loads-without-takeoff', caseId: c.id } };
+    const computed = caseLoads[c.id];
+    if (!computed) return { cases: null, problem: { code: 'roof-loads-not-written', caseId: c.id } };
+    if (c.loads.length === 0) out.push({ ...c, loads: computed.map((l) => ({ ...l })) });
+    else if (sameJointLoads(c.loads, computed)) out.push(c);
+    else return { cases: null, problem: { code: 'roof-loads-differ', caseId: c.id } };
+  }
+  return { cases: out, problem: null };
+}
+
+/**
+ * The roof loading's steps a sheet prints for a model: the steps shared by every case (widths,
+ * the continuous purlin; caseId '') and those of the cases marked as holding its loads. A case
+ * the roof loading writes but whose loads were detached solves its hand loads, so its takeoff
+ * steps (which end in loads it does not carry) are left out, as roofLoadsResolve leaves them out
+ * of the loads. Steps come back in their order.
+ */
+export function roofLoadsSteps<S extends { caseId: string }>(steps: readonly S[], cases: readonly Pick<LoadCase, 'id' | 'source'>[]): S[] {
+  const marked = new Set(cases.filter((c) => c.source === 'roof-loading').map((c) => c.id));
+  return steps.filter((s) => s.caseId === '' || marked.has(s.caseId));
+}

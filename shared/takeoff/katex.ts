@@ -193,7 +193,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
         `&${text(`reaction on truss ${k + 1} per 1 unit of w on span j alone (three-moment equation):`)}\\ ${rList.replace(/\\,\\mathrm\{[^}]*\}/g, '')}\\ \\mathrm{${lengthUnit}} \\\\`,
         `&c_{\\mathrm{cont}} = ${loadedIdx.map((j) => `r_{${j + 1}}`).join(' + ')}${
           loadedIdx.length > 1 ? ` = ${loadedIdx.map((j) => `(${quantity(rValues[j], system, false, eSum)})`).join(' + ')}` : ''
-        } = ${q('exactPerUnit')} \\quad ${text(`(${step.label}: the spans with r_j > 0)`)} \\\\`,
+        } = ${q('exactPerUnit')} \\quad ${text(`(${step.label}: the spans with `)}r_{j} > 0${text(')')} \\\\`,
         `&${text(`${step.label}, per 1 unit of w:`)}\\ ${statics.moments} \\\\`,
         `&c_{\\mathrm{cont}} = ${statics.symbolic} = ${statics.numeric} = ${q('exactPerUnit')} \\quad ${text('(statics of the spans next to the truss)')} \\\\`,
         `&c_{\\mathrm{trib}} = ${spansHere.map((i) => `\\tfrac{1}{2}L_{${i + 1}}`).join(' + ')} = ${spansHere

@@ -582,7 +582,7 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
 }
 
 const PATTERN_NOTE =
-  'Partial loading: ASCE/SEI 7-16 4.3.3 (live load at full intensity on part of a member where that is more unfavourable) and 7.5 (partial snow loading of continuous members). The purlin is linear, so the reaction under any pattern of loaded spans is the sum of the loaded spans\' reactions r_j; loading exactly the spans with r_j > 0 gives the largest downward reaction of all 2^n patterns (which include the three loadings of 7.5.1). Unloaded spans carry no load, which gives at least the reaction with half the balanced snow load on them (conservative).';
+  'Partial loading: ASCE/SEI 7-16 4.3.3 (live load at full intensity on part of a member where that is more unfavourable) and 7.5 (partial snow loading of continuous members). The purlin is linear, so the reaction under any pattern of loaded spans is the sum of the loaded spans\' single-span reactions (r₁, r₂, … in the step); loading exactly the spans whose single-span reaction is positive gives the largest downward reaction of all 2ⁿ patterns (which include the three loadings of 7.5.1). Unloaded spans carry no load, which gives at least the reaction with half the balanced snow load on them (conservative).';
 
 function spanPatternStep(caseId: string, spans: number[], trussIndex: number, pattern: SpanPattern, allPerUnit: number): SpanPatternStep {
   const diff = allPerUnit === 0 ? null : ((pattern.exactPerUnit - allPerUnit) / allPerUnit) * 100;
@@ -610,7 +610,7 @@ function spanPatternStep(caseId: string, spans: number[], trussIndex: number, pa
 }
 
 const WIND_NOTE =
-  'Wind pressure q·c normal to each roof panel on its sloped area, positive towards the surface (pressure), negative away from it (suction); θ is the panel\'s angle from +x, positive where it rises to the right. A pressure w_n pushes along the inward normal: w_x = w_n sin θ, w_y = −w_n cos θ (+x right, +y up). The purlin carries both components to the trusses like any line load.';
+  'Wind pressure q·c normal to each roof panel on its sloped area, positive towards the surface (pressure), negative away from it (suction); θ is the panel\'s angle from +x, positive where it rises to the right. A pressure pushes along the inward normal of its panel: the line load along x is the normal line load times sin θ, along y minus the normal line load times cos θ (+x right, +y up). The purlin carries both components to the trusses like any line load.';
 
 /** Wind on each purlin: the normal line loads of the half panels either side, their components, the joint loads. */
 function windTakeoff(

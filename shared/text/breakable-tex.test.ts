@@ -1,6 +1,6 @@
 import katex from 'katex';
 import { describe, expect, it } from 'vitest';
-import { breakableTex } from './breakable-tex';
+import { alignedRows, breakableTex } from './breakable-tex';
 
 // KaTeX breaks inline maths only between its top-level "base" boxes (KaTeX docs, "Line breaks"):
 // each \allowbreak starts a new one. Counting them in KaTeX's own output checks where a line may break.
@@ -23,5 +23,16 @@ describe('breakable KaTeX source', () => {
     // Rendered text is the same words in the same order.
     const words = (s: string) => katex.renderToString(s, { output: 'mathml' }).replace(/<annotation[\s\S]*<\/annotation>/, '').replace(/<[^>]+>/g, ' ').replace(/\s+/g, ' ').trim();
     expect(words(out).replace(/ /g, '')).toBe(words(tex).replace(/ /g, ''));
+  });
+});
+
+describe('alignedRows', () => {
+  // Common practice, no source: an aligned block's rows are separated by \\ and aligned at &.
+  it('when a source is one aligned block, then each row is an equation of its own without its alignment marks; braces and escaped signs stay', () => {
+    const src = ['\\begin{aligned}', 'b_{s,\\text{L0}} &= \\tfrac{1}{2}(2.236\\,\\mathrm{m}) \\\\', '&R = c\\,w, \\quad \\text{(a \\& b)} \\\\', '&x = \\frac{1}{2}', '\\end{aligned}'].join('\n');
+    expect(alignedRows(src)).toEqual(['b_{s,\\text{L0}} = \\tfrac{1}{2}(2.236\\,\\mathrm{m})', 'R = c\\,w, \\quad \\text{(a \\& b)}', 'x = \\frac{1}{2}']);
+  });
+  it('when a source is not an aligned block, then it is its one row', () => {
+    expect(alignedRows('F = 1')).toEqual(['F = 1']);
   });
 });

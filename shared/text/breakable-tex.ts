@@ -57,3 +57,40 @@ function splitTextWords(body: string): string {
   }
   return out;
 }
+
+/**
+ * The rows of an `aligned` block as equations of their own (the alignment marks `&` dropped), so
+ * each row wraps at its relations and operators like any other equation: KaTeX never breaks a
+ * line inside an environment, so one long row (the three-moment equation of a purlin) ran off
+ * the page. A source that is not one `aligned` block is its one row.
+ */
+export function alignedRows(source: string): string[] {
+  const m = /^\s*\\begin\{aligned\}([\s\S]*)\\end\{aligned\}\s*$/.exec(source);
+  if (!m) return [source];
+  const rows: string[] = [];
+  let depth = 0;
+  let env = 0;
+  let row = '';
+  const body = m[1];
+  for (let i = 0; i < body.length; i++) {
+    if (body.startsWith('\\begin{', i)) env++;
+    if (body.startsWith('\\end{', i)) env--;
+    const ch = body[i];
+    if (ch === '\\' && body[i + 1] === '\\' && depth === 0 && env === 0) {
+      rows.push(row);
+      row = '';
+      i++;
+      continue;
+    }
+    if (ch === '\\' && i + 1 < body.length) {
+      row += ch + body[i + 1];
+      i++;
+      continue;
+    }
+    if (ch === '{') depth++;
+    else if (ch === '}') depth--;
+    row += ch === '&' && depth === 0 && env === 0 ? '' : ch;
+  }
+  rows.push(row);
+  return rows.map((r) => r.trim()).filter(Boolean);
+}

@@ -62,3 +62,27 @@ export function withTakeoff(model: TrussModel, method: TakeoffMethod, spacing: n
   return { model, takeoffSteps: takeoff.steps };
 }
 
+
+/** The demo truss with dead and pattern-checked snow through the purlins and wind normal to the slopes (invented loads). */
+export function withWindAndPatterns(model: TrussModel, method: TakeoffMethod, spacing: number | number[], trussIndex: number) {
+  const topChord = ['L0', 'U1', 'U2', 'U3', 'U4', 'U5', 'L6'];
+  const takeoff = roofTakeoff({
+    joints: model.joints,
+    topChordJoints: topChord,
+    areaLoads: [
+      { caseId: 'D', q: 0.87, basis: 'slope', category: 'dead' },
+      { caseId: 'S', q: 1.13, basis: 'plan', category: 'snow', patterns: true },
+    ],
+    wind: { caseId: 'W', category: 'wind', q: 0.737, windward: 'left', cWindward: -0.37, cLeeward: -0.53 },
+    spacing,
+    trussCount: Array.isArray(spacing) ? spacing.length + 1 : 6,
+    trussIndex,
+    method,
+  });
+  model.loadCases = [
+    { id: 'D', name: 'Roofing, purlins and ceiling', category: 'dead', loads: takeoff.caseLoads.D },
+    { id: 'S', name: 'Snow, unfavourable spans', category: 'snow', loads: takeoff.caseLoads.S },
+    { id: 'W', name: 'Wind across the ridge', category: 'wind', loads: takeoff.caseLoads.W },
+  ];
+  return { model, takeoffSteps: takeoff.steps };
+}

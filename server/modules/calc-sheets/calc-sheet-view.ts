@@ -6,6 +6,6 @@
  * view/index.ts); this file is the module's entry.
  */
 export { buildCalcSheetView } from './view/index';
-export { katexHtml } from './view/format';
+export { equationHtml, katexHtml } from './view/format';
 export { RESIDUAL_RELATIVE_LIMIT } from './view/context';
 export type { CalcSheetInput, CalcSheetView, CaseView, SheetSigner, StepView, TableRow } from './view/types';

@@ -2,6 +2,7 @@ import type { RunAnalysis } from '@shared/schemas/run.schema';
 import type { TrussModel } from '@shared/model/truss';
 import type { TrussAnalysis } from '@shared/solver';
 import type { RoofTakeoffResult } from '@shared/takeoff';
+import { roofLoadsSteps } from '@shared/model/roof-loads';
 import { conflict, notFound } from '../../errors/app-error';
 import { fileNamePart, modelSaveName, runName } from '@shared/text/citations';
 import { Project, Truss } from '../../db/models';
@@ -33,6 +34,7 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
   const cited = runName(run.number, truss.name);
   const takeoff = run.takeoff ? (JSON.parse(run.takeoff) as { result?: RoofTakeoffResult } | null) : null;
   const ranOn = run.createdAt.toISOString().slice(0, 10);
+  const model = JSON.parse(run.model) as TrussModel;
   return {
     firm: await getFirm(),
     project: {
@@ -45,12 +47,13 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
     },
     trussName: truss.name,
     subject: `${truss.name}: ${takeoff?.result ? 'roof loading, analysis' : 'analysis'}, member forces${run.analysis?.includes('"design":{') ? ' and member design' : ''}`,
-    model: JSON.parse(run.model) as TrussModel,
+    model,
     ...(() => {
       const { design, ...analysis } = JSON.parse(run.analysis!) as RunAnalysis;
       return { analysis: analysis as TrussAnalysis, design: design ?? null };
     })(),
-    takeoffSteps: takeoff?.result?.steps,
+    // The steps of the cases that hold the roof loading's loads (a detached case solves its hand loads).
+    takeoffSteps: takeoff?.result?.steps ? roofLoadsSteps(takeoff.result.steps, model.loadCases) : undefined,
     runLabel: `${cited} (${modelSaveName(run.modelVersion)})${run.ranBy ? ` by ${run.ranBy}` : ''}, ${ranOn}`,
     runNumber: run.number,
   };

@@ -16,15 +16,17 @@
  *                  point may be from a joint
  *   supports       [{ "at": [x, y], "type": "pin" | "roller", "angle": deg (roller line from +x, default 90) }]
  *   cases          optional [{ "id": "D", "name": "Roofing", "category": "dead" | "roof-live" | "snow" |
- *                  "wind" | "live" | "other" }]; when given, every load's case must be declared
+ *                  "wind" | "live" | "other", "source"?: "roof-loading" }]; when given, every load's case must be declared
  *   loads          [{ "at": [x, y], "fx": kN, "fy": kN, "case": "D", "note"?: "…" }]
  *   EA             optional: kN for every member, or [{ "from": [x, y], "to": [x, y], "EA": kN }]
  *   combinationSet optional: "asce7-16-strength" | "asce7-16-asd" | "en1990-6.10" | "en1990-6.10ab"
  *                  (needs "cases"); its combinations come before the hand-written ones
  *   combinations   optional [{ "name": "C1", "factors": { "D": 1.2, "S": 1.6 }, "clause": "…" }]
  *   takeoff        optional: the app's roof loading (shared/schemas/run.schema.ts takeoffInputSchema)
- *                  with joints named by their job ids (a joint's id is its "id", else its tag);
- *                  it replaces the joint loads of the cases it writes
+ *                  with joints named by their job ids (a joint's id is its "id", else its tag).
+ *                  A case marked "source": "roof-loading" in "cases" holds its loads (filled in
+ *                  when the file gives none for it, refused when they differ); every other case
+ *                  keeps the loads written, as a run in the app solves the saved loads
  *   design, deflection  optional: the Design tab's member design and deflection request, members
  *                  and joints by end points (job-design.ts)
  *
@@ -38,7 +40,9 @@ import { dxfImport, dxfParseBytes, tagOfIndex } from '@shared/dxf-import/index';
 import { takeoffInputSchema, type TakeoffInput } from '@shared/schemas/run.schema';
 import { withDesignStiffness } from '@shared/design/basis';
 import { AppError } from '../../errors/app-error';
-import { assertTakeoffCases, computeTakeoff, takeoffApply } from '../takeoff/takeoff-compute';
+import { roofLoadsResolve } from '@shared/model/roof-loads';
+import type { RoofTakeoffResult } from '@shared/takeoff';
+import { assertTakeoffCases, computeTakeoff } from '../takeoff/takeoff-compute';
 import { JobError } from './job-error';
 import { jobDeflectionSchema, jobDesignInput, jobDesignOf, jobDesignSchema } from './job-design';
 
@@ -82,7 +86,7 @@ export const jobSchema = z
         .strict(),
     ),
     // Category and set id are strings here and checked by hand, so a bad one gets a sentence naming the choices.
-    cases: z.array(z.object({ id: name, name: z.string().min(1).max(120).optional(), category: z.string() }).strict()).optional(),
+    cases: z.array(z.object({ id: name, name: z.string().min(1).max(120).optional(), category: z.string(), source: z.string().optional() }).strict()).optional(),
     loads: z
       .array(
         z
@@ -233,7 +237,10 @@ function casesOf(job: Job, joints: TrussModel['joints'], tolerance: number, f: n
       if (!(CATEGORIES as readonly string[]).includes(c.category)) {
         throw new JobError(`Load case "${c.id}" (cases.${i}) has category "${c.category}"; use one of ${CATEGORIES.join(', ')}.`);
       }
-      cases.set(c.id, { id: c.id, name: c.name ?? c.id, category: c.category as LoadCase['category'], loads: [] });
+      if (c.source !== undefined && c.source !== 'roof-loading') {
+        throw new JobError(`Load case "${c.id}" (cases.${i}) has source "${c.source}"; the one source is "roof-loading" (its loads are the roof loading's), or leave "source" out for loads entered by hand.`);
+      }
+      cases.set(c.id, { id: c.id, name: c.name ?? c.id, category: c.category as LoadCase['category'], loads: [], ...(c.source ? { source: 'roof-loading' as const } : {}) });
     });
   }
   for (const ld of job.loads) {
@@ -304,25 +311,50 @@ function stiffnessApply(job: Job, members: TrussModel['members'], joints: TrussM
   });
 }
 
-/** The roof loading of a job, checked by the app's own schema; joint references are job ids. */
+/**
+ * The roof loading of a job, checked by the app's own schema (joint references are job ids), and
+ * the cases marked as from it given its loads by the one rule of shared/model/roof-loads.ts
+ * (roofLoadsResolve): a marked case holds the roof loading's loads (filled in when the file
+ * leaves them out, refused when they differ); every other case keeps the loads the file gives.
+ */
 function takeoffOf(job: Job, model: TrussModel): TakeoffInput | null {
-  if (job.takeoff === undefined) return null;
-  const parsed = takeoffInputSchema.safeParse(job.takeoff);
-  if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    throw new JobError(`In "takeoff"${issue.path.length ? `.${issue.path.join('.')}` : ''}: ${issue.message.replace(/\.$/, '')}.`);
+  let input: TakeoffInput | null = null;
+  let caseLoads: RoofTakeoffResult['caseLoads'] | null = null;
+  if (job.takeoff !== undefined) {
+    const parsed = takeoffInputSchema.safeParse(job.takeoff);
+    if (!parsed.success) {
+      const issue = parsed.error.issues[0];
+      throw new JobError(`In "takeoff"${issue.path.length ? `.${issue.path.join('.')}` : ''}: ${issue.message.replace(/\.$/, '')}.`);
+    }
+    try {
+      assertTakeoffCases(parsed.data, model.loadCases);
+      caseLoads = computeTakeoff(model, parsed.data).caseLoads;
+    } catch (e) {
+      if (e instanceof AppError) throw new JobError(`In "takeoff": ${e.message}`);
+      throw e;
+    }
+    input = parsed.data;
   }
-  try {
-    assertTakeoffCases(parsed.data, model.loadCases);
-    computeTakeoff(model, parsed.data);
-  } catch (e) {
-    if (e instanceof AppError) throw new JobError(`In "takeoff": ${e.message}`);
-    throw e;
+  const resolved = roofLoadsResolve(model.loadCases, caseLoads);
+  if (resolved.problem) {
+    const id = resolved.problem.caseId;
+    const said = `Load case "${id}" is marked as from the roof loading ("source": "roof-loading")`;
+    throw new JobError(
+      resolved.problem.code === 'roof-loads-without-takeoff'
+        ? `${said}, but the job file has no "takeoff"; add the roof loading, or remove the case's "source" to keep its loads as hand loads.`
+        : resolved.problem.code === 'roof-loads-not-written'
+          ? `${said}, but the roof loading writes no loads into it; add it to the roof loading's "areaLoads" or "wind", or remove its "source".`
+          : `${said}, but its loads differ from what the roof loading computes; leave its loads out (the roof loading fills them in), or remove its "source" to keep them as hand loads.`,
+    );
   }
-  return parsed.data;
+  model.loadCases = resolved.cases;
+  return input;
 }
 
-/** A job as the app's model (cases, combinations, stiffness) and its roof loading, not yet applied. */
+/**
+ * A job as the app's model (cases, combinations, stiffness) with the marked cases holding the
+ * roof loading's loads, and the roof loading itself (kept apart, as the app keeps it).
+ */
 export interface JobModel {
   model: TrussModel;
   takeoff: TakeoffInput | null;
@@ -356,11 +388,12 @@ export function jobModel(job: Job, readDrawing: ((relativePath: string) => Uint8
 
 /**
  * The model a run solves, as the app's run snapshot makes it (runs.service.ts snapshotOf): the
- * roof loading's joint loads put in, and members without a stiffness of their own given the
- * E·A of their design section (withDesignStiffness).
+ * loads exactly as the job's cases hold them (the roof loading never replaces a case at solve
+ * time; its marked cases already hold its loads, jobModel), and members without a stiffness of
+ * their own given the E·A of their design section (withDesignStiffness).
  */
 export function jobModelSolved(jm: JobModel): TrussModel {
-  return withDesignStiffness(jm.takeoff ? takeoffApply(jm.model, computeTakeoff(jm.model, jm.takeoff)) : jm.model);
+  return withDesignStiffness(jm.model);
 }
 
 /** Effective axial stiffness of a member, kN (EA, else E·A), or null. */
@@ -403,7 +436,7 @@ export function jobFileOf(model: TrussModel, takeoff: TakeoffInput | null): Reco
       ...(m.section ? { section: m.section } : {}),
     })),
     supports: model.supports.map((s) => (s.kind === 'pin' ? { at: at.get(s.joint), type: 'pin' } : { at: at.get(s.joint), type: 'roller', angle: s.angleDeg })),
-    cases: model.loadCases.map((c) => ({ id: c.id, name: c.name, category: c.category })),
+    cases: model.loadCases.map((c) => ({ id: c.id, name: c.name, category: c.category, ...(c.source ? { source: c.source } : {}) })),
     loads: model.loadCases.flatMap((c) => c.loads.map((l) => ({ at: at.get(l.joint), fx: l.fx, fy: l.fy, case: c.id, ...(l.note ? { note: l.note } : {}) }))),
     ...(Array.isArray(EA) ? (EA.length ? { EA } : {}) : { EA }),
     combinations: model.combinations.map((c) => ({ name: c.name, factors: c.factors, ...(c.clause ? { clause: c.clause } : {}) })),

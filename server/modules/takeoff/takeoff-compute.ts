@@ -75,18 +75,6 @@ export function computeTakeoff(model: TrussModel, input: TakeoffInput, loadCases
 }
 
 /**
- * The model with the roof loading's joint loads put in: each case the roof loading writes has its loads
- * replaced; every other case stays as saved. The input model is not changed.
- */
-export function takeoffApply(model: TrussModel, result: RoofTakeoffResult): TrussModel {
-  return {
-    ...model,
-    loadCases: model.loadCases.map((lc) => (lc.id in result.caseLoads ? { ...lc, loads: result.caseLoads[lc.id] } : lc)),
-  };
-}
-
-
-/**
  * Reads the takeoff kept in a model's `takeoff` column. It was validated when saved; a text
  * that no longer parses (saved before validation existed) is refused with a way out.
  */

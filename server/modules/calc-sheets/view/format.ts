@@ -48,7 +48,7 @@ export function katexHtml(source: string, display = true): string {
  * (a moment sum over many joints) breaks after a relation or an operator instead of running off
  * the page. KaTeX breaks inline math only there.
  */
-function equationHtml(source: string): string {
+export function equationHtml(source: string): string {
   return cachedRender(`\\displaystyle ${breakableTex(source)}`, false);
 }
 

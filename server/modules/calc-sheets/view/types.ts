@@ -143,7 +143,7 @@ export interface CalcSheetView {
     clauses: string[];
     method: string[];
     /** The symbols the sheet's steps use, each typeset (KaTeX HTML) with what it stands for. */
-    symbols: { html: string; tex: string; meaning: string }[];
+    symbols: DesignBasisSymbol[];
   };
   geometry: { svg: string; jointRows: TableRow[]; memberRows: TableRow[] };
   supports: { rows: TableRow[]; materialRows: TableRow[]; materialNote: string };
@@ -211,4 +211,17 @@ export interface DesignGroupView {
   governing: { tag: string; line: string; steps: TableRow[]; notes: string[]; refused?: string } | null;
   /** Every member of the group: tag, tension, compression, governing combination, clause, utilisation, result. */
   rows: TableRow[];
+}
+
+/**
+ * One symbol of the design basis: its KaTeX source and HTML, and what it stands for. `group`
+ * 'takeoff': written by the roof load takeoff's steps, listed under that section's heading.
+ */
+export interface DesignBasisSymbol {
+  html: string;
+  tex: string;
+  meaning: string;
+  group?: 'takeoff';
+  /** The first symbol of its group: the list prints the group's heading before it. */
+  groupStart?: boolean;
 }

@@ -7,6 +7,7 @@ import type { Joint, Member, MemberGroup } from '@shared/model/truss';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { TakeoffInput } from '@shared/schemas/run.schema';
 import type { RoofTakeoffResult } from '@shared/takeoff';
+import { loadLetterOf } from '@shared/solver';
 import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/page-header';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
@@ -459,6 +460,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
             onUse={useTakeoff}
             onRemove={removeTakeoff}
             hasSaved={Boolean(view.takeoff)}
+            loadLetter={loadLetterOf(view.model)}
           />
         )}
       </Panel>

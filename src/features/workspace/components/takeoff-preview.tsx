@@ -1,14 +1,19 @@
 import type { RoofTakeoffResult } from '@shared/takeoff';
 import { takeoffStepKatex } from '@shared/takeoff';
 import { numberFormat } from '@shared/units';
+import { alignedRows } from '@shared/text/breakable-tex';
 import { Tex } from './tex';
 import { TH, TH_RIGHT } from './supports-table';
 
 const f = (v: number, d: number) => numberFormat(v, d);
 const ordinal = (n: number) => `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n % 10 === 2 && n % 100 !== 12 ? 'nd' : n % 10 === 3 && n % 100 !== 13 ? 'rd' : 'th'}`;
 
-/** The takeoff as the server computed it: widths, line loads, and the purlin reactions both ways. */
-export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string> }) {
+/**
+ * The takeoff as the server computed it: widths, line loads, and the purlin reactions both ways.
+ * `loadLetter` is the truss's load letter (loadLetterOf in @shared/solver, the sheet's rule): P,
+ * unless a tag of this truss could be read as P.
+ */
+export function TakeoffPreview({ result, caseNames, loadLetter }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string>; loadLetter: string }) {
   const equalSpans = result.spans.every((s) => Math.abs(s - result.spans[0]!) < 1e-9);
   return (
     <div className="flex flex-col gap-4" aria-label="Roof loading preview">
@@ -121,7 +126,10 @@ export function TakeoffPreview({ result, caseNames }: { result: RoofTakeoffResul
           {result.steps.map((s) => (
             <li key={s.id}>
               <p className="text-xs font-semibold text-ink-soft">{s.title}</p>
-              <Tex source={takeoffStepKatex(s)} />
+              {/* Each row its own equation, as on the sheet, so a long row wraps inside the card. */}
+              {alignedRows(takeoffStepKatex(s, { loadLetter })).map((row, k) => (
+                <Tex key={k} source={row} />
+              ))}
             </li>
           ))}
         </ol>

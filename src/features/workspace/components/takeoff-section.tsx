@@ -26,6 +26,8 @@ interface TakeoffSectionProps {
   onUse: (input: TakeoffInput, result: RoofTakeoffResult) => void;
   onRemove: () => void;
   hasSaved: boolean;
+  /** The truss's load letter (loadLetterOf in @shared/solver), as the calc sheet writes its loads. */
+  loadLetter: string;
 }
 
 /** Reads "4.5" as one spacing and "4.5, 4.5, 6" as the spacings in order; m. */
@@ -62,11 +64,11 @@ function useDebounced<T>(value: T, ms: number): T {
 }
 
 /**
- * The roof load takeoff as a guided form: area loads per case, purlins on the top-chord joints
+ * The roof loading as a guided form: area loads per case, purlins on the top-chord joints
  * (picked on the drawing above), truss spacing, count and which truss, and the method; the
  * server's preview shows every purlin's numbers, and "Use these loads" writes the cases.
  */
-export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, busy, onUse, onRemove, hasSaved }: TakeoffSectionProps) {
+export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, busy, onUse, onRemove, hasSaved, loadLetter }: TakeoffSectionProps) {
   const actions = draftActions(form);
   const cases = useWatch({ control: form.control, name: 'loadCases' }) ?? [];
   const values = useWatch({ control: takeoffForm.control }) as TakeoffFormValues;
@@ -355,7 +357,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
           </p>
         ) : fresh || preview.data ? (
           <div className={fresh ? '' : 'opacity-60'}>
-            <TakeoffPreview result={(fresh ?? preview.data)!.result} caseNames={caseNames} />
+            <TakeoffPreview result={(fresh ?? preview.data)!.result} caseNames={caseNames} loadLetter={loadLetter} />
           </div>
         ) : (
           <p className="text-sm text-ink-soft">Working out the roof loading…</p>
