@@ -40,7 +40,9 @@ export default {
         xl: '0 0 0 1px #4f5357',
       },
       fontFamily: {
-        sans: ['Inter', 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans KR', 'Noto Sans Thai', 'system-ui', 'sans-serif'],
+        // Korean before Traditional Chinese: the latter's subsets also hold 49 Hangul syllables,
+        // which would otherwise print in a Chinese face amid Korean text.
+        sans: ['Inter', 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans JP', 'Noto Sans KR', 'Noto Sans TC', 'Noto Sans Thai', 'system-ui', 'sans-serif'],
       },
     },
   },

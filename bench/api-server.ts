@@ -2,7 +2,9 @@
  * The server side of `npm run bench:api`, run as a child process of its own (bench/api.bench.ts
  * forks it), so the load generator's CPU is never counted in the server's latency.
  *
- * Starts the real services on a SQLite file (WAL) in a temp folder, seeds the demo firm plus
+ * Starts the real services on a SQLite file (WAL) in a temp folder, or with BENCH_DATABASE_URL
+ * on that (empty) PostgreSQL database with the pg-boss job queue (BENCH_WORKERS_IN_APP=false
+ * leaves runs to `npm run worker` processes), seeds the demo firm plus
  * 60 projects of 4 trusses (an invented office's year of jobs) and 40 issued sheet revisions
  * for the archive, listens on loopback and tells the parent its port over IPC. On 'stop' it
  * closes everything, removes its folders and exits (with --cpu-prof, the profile is written then).
@@ -12,7 +14,7 @@ import os from 'node:os';
 import type { AddressInfo } from 'node:net';
 import { loadConfig } from '../server/config';
 import { startServices } from '../server/bootstrap';
-import { Project, Truss, User, SheetRevision } from '../server/db/models';
+import { AnalysisRun, Project, Truss, User, SheetRevision } from '../server/db/models';
 import { tempDataDir } from '../tests/support/test-services';
 
 export interface BenchServerReady {
@@ -38,13 +40,18 @@ async function seed(): Promise<{ modelTruss: number; writerTrusses: [number, num
     for (let t = 0; t < 4; t++) await Truss.create({ projectId: project.id, name: `T${t + 1}` });
   }
   const trusses = await Truss.findAll({ order: [['id', 'ASC']] });
+  // The run the archive's revisions name (PostgreSQL checks the reference; SQLite's table has none to check).
+  const run = await AnalysisRun.create({
+    trussId: trusses[0].id, number: 1, modelVersion: 1, status: 'solved', progress: '{}', model: '{}', takeoff: null, analysis: null,
+    summary: '{"note":"bench run"}', error: null, ranById: eng!.id, startedAt: new Date(), finishedAt: new Date(),
+  } as never);
   // The archive: issued revisions straight into the table (printing 40 sheets is bench:sheet's job).
   for (let i = 0; i < 40; i++) {
     const truss = trusses[5 + i];
     // Inserted as a draft and then moved to issued, as the database's guards require.
     const row = await SheetRevision.create({
       trussId: truss.id,
-      runId: 1,
+      runId: run.id,
       number: 1,
       status: 'draft',
       preparedById: eng!.id,
@@ -82,6 +89,9 @@ async function main() {
     uploadsDir: fs.mkdtempSync(`${os.tmpdir()}/panelpoint-bench-uploads-`),
     seedDemo: true,
     sourceMaps: process.env.SOURCE_MAPS === 'true',
+    ...(process.env.BENCH_DATABASE_URL
+      ? { databaseUrl: process.env.BENCH_DATABASE_URL, jobQueue: 'pg-boss' as const, workersInApp: process.env.BENCH_WORKERS_IN_APP !== 'false' }
+      : {}),
   };
   const services = await startServices(config, { log: () => {} });
   const ids = await seed();

@@ -13,7 +13,8 @@
  * dxf-parser); Panelpoint's import after parsing (dxfImportGeometry: healing, reading order,
  * tags, report, geometry as typed arrays) and per segment; the ratio import ÷ bare parse;
  * the time to build the model's joint and member objects from that geometry (dxfModelOf,
- * what dxfImport adds) and the ratio with it; peak memory (resident set, sampled while each
+ * what dxfImport adds) and the ratio with it; the handover step (dxfHandover: member groups from
+ * layers and outline, tags in the report, the mechanism check) and the ratio with all three; peak memory (resident set, sampled while each
  * drawing is parsed and imported; the process keeps some of what earlier drawings took) and
  * the load average, since the machine may be shared. Budget from issue 3: import ≤ ¼ of the bare
  * parse at 100 000 segments (bare parse there: about 1.6 s for 100 000 LINEs), growing about
@@ -21,7 +22,7 @@
  */
 import os from 'node:os';
 import DxfParser from 'dxf-parser';
-import { dxfImportGeometry, dxfModelOf, dxfParse } from '@shared/dxf-import';
+import { dxfHandover, dxfImportGeometry, dxfModelOf, dxfParse } from '@shared/dxf-import';
 
 type Style = 'cad' | 'minimal';
 
@@ -97,6 +98,8 @@ for (const [panels, style] of cases) {
   const objects: number[] = [];
   const ratio: number[] = [];
   const ratioWithObjects: number[] = [];
+  const handover: number[] = [];
+  const ratioWithHandover: number[] = [];
   const cpuRatio: number[] = [];
   let cold = 0;
   let model = '';
@@ -106,6 +109,8 @@ for (const [panels, style] of cases) {
     peak = Math.max(peak, process.memoryUsage().rss);
     const [result, i, iCpu] = time(() => dxfImportGeometry(parsed));
     const [made, o] = time(() => dxfModelOf(result.geometry));
+    const { geometry: _g, ...facts } = result;
+    const [, hv] = time(() => dxfHandover({ ...made, ...facts }, result.geometry));
     peak = Math.max(peak, process.memoryUsage().rss);
     model = `${made.joints.length} joints, ${made.members.length} members`;
     if (r === -2) cold = i;
@@ -116,6 +121,8 @@ for (const [panels, style] of cases) {
     objects.push(o);
     ratio.push(i / b);
     ratioWithObjects.push((i + o) / b);
+    handover.push(hv);
+    ratioWithHandover.push((i + o + hv) / b);
     cpuRatio.push(iCpu / bCpu);
   }
   rows.push(
@@ -130,6 +137,8 @@ for (const [panels, style] of cases) {
       ratios(cpuRatio),
       pair(objects),
       ratios(ratioWithObjects),
+      pair(handover),
+      ratios(ratioWithHandover),
       `${(peak / 2 ** 20).toFixed(0).padStart(5)} MiB`,
       model,
     ].join('  '),
@@ -137,12 +146,13 @@ for (const [panels, style] of cases) {
 }
 clearInterval(sampler);
 const loadAfter = os.loadavg();
-console.log('                     bare parse          dxfParse       import  import after parsing  import   ratio (wall)  ratio (CPU)    model objects    ratio with');
-console.log('segments drawing   best   median      best   median      cold      best   median   per seg   best  median  best  median     best   median   objects      peak RSS   model');
+console.log('                     bare parse          dxfParse       import  import after parsing  import   ratio (wall)  ratio (CPU)    model objects    ratio with       handover      ratio with');
+console.log('segments drawing   best   median      best   median      cold      best   median   per seg   best  median  best  median     best   median   objects        best   median   handover    peak RSS   model');
 for (const r of rows) console.log(r);
 console.log('import = dxfImportGeometry after parsing; ratio = import ÷ dxf-parser bare parse, run by run (budget ≤ 0.25 at 100 000 segments)');
 console.log('  wall = elapsed time; CPU = process CPU time, steadier when other jobs share the cores; cold = the first import of that drawing');
 console.log('model objects = dxfModelOf, one object per joint and member (what dxfImport adds); "ratio with objects" counts it in');
+console.log('handover = dxfHandover (member groups, report lines named by tag, the mechanism check; what dxfImport adds after the objects); "ratio with handover" counts objects and it in');
 console.log('dxfParse = our checks of the file text (sniffing, structure pre-scan) plus dxf-parser; not part of the ratio');
 console.log('cad = written as a CAD program writes R2000 (handles, subclass markers, site coordinates); minimal = only the codes a LINE needs');
 console.log(`load average (1, 5, 15 min): before ${loadBefore.map((l) => l.toFixed(2)).join(' ')}, after ${loadAfter.map((l) => l.toFixed(2)).join(' ')} on ${os.cpus().length} cores`);

@@ -4,7 +4,8 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import ConnectSessionSequelize from 'connect-session-sequelize';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
+import { readRows } from './db/read-rows';
 import type { Config } from './config';
 import type { Mailer } from './mail/mailer';
 import type { RouteSpec } from './middleware/access';
@@ -23,13 +24,12 @@ import { modelsRoutes } from './modules/models/models.routes';
 import { jobFilesRoutes } from './modules/job-files/job-files.routes';
 import { takeoffRoutes } from './modules/takeoff/takeoff.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
-import { solvePoolCreate } from './modules/runs/solve-pool';
 import { importPoolCreate } from './modules/drawings/import-pool';
 import type { FileStores } from './storage/stores';
-import { localFileStore } from './storage/file-store';
 import { createSheetPrinter, type SheetPrinter } from './modules/calc-sheets/sheet-printer';
 import { calcSheetsRoutes } from './modules/calc-sheets/calc-sheets.routes';
 import { sheetBuildPoolCreate } from './modules/calc-sheets/sheet-build-pool';
+import { previewHoldsInProcess, previewHoldsPostgres } from './modules/calc-sheets/preview-holds';
 import { JOB_TRIES, printJobsCreate } from './modules/calc-sheets/print-jobs.service';
 import { loadRunSheet } from './modules/calc-sheets/run-sheet.service';
 import { sheetRevisionsRoutes } from './modules/sheet-revisions/sheet-revisions.routes';
@@ -37,6 +37,8 @@ import { analysisRunsTable, type RunSource, type SheetRenderer } from './modules
 import { calcSheetRenderer } from './modules/sheet-revisions/calc-sheet-renderer';
 import { recordsRoutes } from './modules/records/records.routes';
 import type { SigningKeys } from './modules/records/signing-keys';
+import type { JobQueue } from './workers/job-queue';
+import { jobWorkersStart, type JobWorkers } from './job-workers';
 
 export interface AppDeps {
   config: Config;
@@ -45,8 +47,10 @@ export interface AppDeps {
   sessionSecret: string;
   /** The firm's signing keys, opened at start (bootstrap.ts: signingKeysOpen). */
   signingKeys: SigningKeys;
-  /** Where drawings and issued sheets are kept (bootstrap.ts: fileStoresOpen, as STORAGE_URL says). */
-  stores: Pick<FileStores, 'drawings' | 'sheets'>;
+  /** Where drawings, issued sheets and print jobs' PDFs are kept (bootstrap.ts: fileStoresOpen, as STORAGE_URL says). */
+  stores: Pick<FileStores, 'drawings' | 'sheets' | 'printJobs'>;
+  /** Where analysis runs and print jobs are queued (bootstrap.ts: in this process, or pg-boss with DATABASE_URL). */
+  queue: JobQueue;
   /** Where the built client lives; served when present. */
   clientDir?: string;
   log?: (msg: string, err?: unknown) => void;
@@ -78,6 +82,12 @@ export function createApp(deps: AppDeps): CreatedApp {
   const registry: RouteSpec[] = [];
   const app = express();
   app.disable('x-powered-by');
+  // No ETag on API answers: express hashes every body it sends (SHA-1 of the whole JSON). A
+  // browser revalidating with If-None-Match gets a 304 instead of a few kB on the office network,
+  // but the server has built, read and serialised the whole answer by then, so it saves no work
+  // here; the hash is pure cost per request (bench:api). Static files keep theirs (serve-static
+  // and sendFile make their own from size and time).
+  app.set('etag', false);
   // X-Forwarded-For is believed only when the operator says a proxy sits in front (TRUST_PROXY):
   // otherwise anyone on the machine could claim any address to the sign-in limiter.
   app.set('trust proxy', config.trustProxy ?? false);
@@ -108,13 +118,12 @@ export function createApp(deps: AppDeps): CreatedApp {
   (store as unknown as { touch: (sid: string, sess: unknown, cb?: () => void) => void }).touch = (_sid, _sess, cb) => cb?.();
   // Every request reads its session: the data column in one hand-written query, not a model
   // finder (which builds the query, clones its options and, on SQLite, first asks the table's
-  // column types in a second round trip; bench:api, CPU per request).
+  // column types in a second round trip), and on SQLite past Sequelize's query path (readRows;
+  // bench:api, CPU per request).
   const sessionTable = (store as unknown as { sessionModel: import('sequelize').ModelStatic<import('sequelize').Model> }).sessionModel.getTableName() as string;
   const sessionSql = `SELECT "data" FROM "${sessionTable}" WHERE "sid" = :sid`;
   (store as unknown as { get: (sid: string, cb: (err: unknown, s?: unknown) => void) => void }).get = (sid, cb) => {
-    deps.sequelize
-      .query<{ data: string }>(sessionSql, { type: QueryTypes.SELECT, replacements: { sid }, raw: true })
-      .then((rows) => cb(null, rows[0] ? JSON.parse(rows[0].data) : null), (err) => cb(err));
+    readRows<{ data: string }>(deps.sequelize, sessionSql, { sid }).then((rows) => cb(null, rows[0] ? JSON.parse(rows[0].data) : null), (err) => cb(err));
   };
   const secure = overHttps;
   app.use(
@@ -130,7 +139,8 @@ export function createApp(deps: AppDeps): CreatedApp {
     }),
   );
   const passport = createPassport();
-  app.use('/api', passport.initialize(), passport.session());
+  // compat: false skips req._passport, which only strategies written for passport 0.4 read.
+  app.use('/api', passport.initialize({ compat: false }), passport.session());
   app.use('/api', extendSignedInSession);
   const csrf = createCsrf(deps.sessionSecret, secure);
   app.use('/api', csrf.protection);
@@ -155,27 +165,31 @@ export function createApp(deps: AppDeps): CreatedApp {
   app.use('/api', modelsRoutes(registry));
   app.use('/api', jobFilesRoutes(registry));
   app.use('/api', takeoffRoutes(registry));
-  const solvePool = solvePoolCreate();
-  app.use('/api', runsRoutes(registry, { pool: solvePool, log }));
+  app.use('/api', runsRoutes(registry, { queue: deps.queue, log }));
   // One Chromium for the app, started on the first print and shared by every request.
   const printer = deps.printer ?? createSheetPrinter({ chromiumPath: config.chromiumPath });
   // Calc sheet HTML is built in a worker thread (seconds for a large sheet), never on this one.
   const sheetBuilder = sheetBuildPoolCreate();
-  // Draft PDFs as background print jobs, stored like issued sheets (a file store in the data folder).
-  const printJobs = printJobsCreate({
-    sequelize: deps.sequelize,
-    printer,
-    builder: sheetBuilder,
-    files: localFileStore(path.join(config.dataDir, 'print-jobs')),
-    log,
-  });
+  // Draft PDFs as background print jobs, stored like issued sheets (the print-jobs store).
+  const printJobs = printJobsCreate({ sequelize: deps.sequelize, queue: deps.queue, files: deps.stores.printJobs, log });
+  // This process solves runs and prints jobs: always with the in-process queue; with pg-boss
+  // unless WORKERS_IN_APP=false leaves it to `npm run worker` processes.
+  const workers: Promise<JobWorkers | null> =
+    deps.queue.kind === 'in-process' || config.workersInApp
+      ? jobWorkersStart({ queue: deps.queue, printJobs, printer, builder: sheetBuilder, chromiumPath: config.chromiumPath, log }).catch((err) => {
+          log('This process could not start taking runs and print jobs from the queue', err);
+          return null;
+        })
+      : Promise.resolve(null);
   printJobs.resume().then(
     ({ requeued, failed }) => {
       if (requeued || failed) log(`Print jobs left unfinished by the last stop: ${requeued} queued again, ${failed} failed after ${JOB_TRIES} tries.`);
     },
     (err) => log('Print jobs could not be resumed', err),
   );
-  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs }));
+  // Quick draft PDFs per person, counted in PostgreSQL's lock table when app processes share a database.
+  const holds = deps.queue.kind === 'pg-boss' && config.databaseUrl ? previewHoldsPostgres(config.databaseUrl) : previewHoldsInProcess();
+  app.use('/api', calcSheetsRoutes(registry, { printer, builder: sheetBuilder, jobs: printJobs, holds }));
   const issuedSheets = deps.stores.sheets;
   app.use(
     '/api',
@@ -214,7 +228,8 @@ export function createApp(deps: AppDeps): CreatedApp {
     async close() {
       (store as unknown as { stopExpiringSessions(): void }).stopExpiringSessions();
       await printJobs.close();
-      await solvePool.close();
+      await (await workers)?.close();
+      await holds.close();
       await importPool.close();
       await sheetBuilder.close();
       if (!deps.printer) await printer.close();

@@ -18,6 +18,7 @@ import { fileStoresOpen, type FileStores } from './storage/stores';
 import { signingKeysOpen, type SigningKeys } from './modules/records/signing-keys';
 import { auditChainSealExisting, auditKeyOpen } from './modules/records/audit-chain';
 import { sweepOrphans, tightenModes } from './storage/file-hygiene';
+import { inProcessQueueCreate, pgBossQueueOpen, type JobQueue } from './workers/job-queue';
 
 /** An unreferenced upload younger than this may be another process's request in flight. */
 export const ORPHAN_GRACE_MS = 60 * 60 * 1000;
@@ -48,6 +49,8 @@ export interface Services extends CreatedApp {
   signingKeys: SigningKeys;
   /** Where drawings and issued sheets are kept. */
   stores: FileStores;
+  /** Where runs and print jobs are queued. */
+  queue: JobQueue;
   sink?: SmtpSink;
   shutdown(): Promise<void>;
 }
@@ -101,7 +104,20 @@ export async function startServices(config: Config, options: { clientDir?: strin
     stores.close();
     throw err;
   }
-  await runsFailInterrupted();
+  // The job queue: pg-boss's schema on the same PostgreSQL server, or this process.
+  let queue: JobQueue;
+  try {
+    queue = config.databaseUrl && config.jobQueue === 'pg-boss'
+      ? await pgBossQueueOpen(config.databaseUrl, { log: options.log, application: 'panelpoint-app' })
+      : inProcessQueueCreate({ log: options.log });
+  } catch (err) {
+    await sequelize.close();
+    stores.close();
+    throw err;
+  }
+  // Runs left unfinished by a stopped server can never finish with the in-process queue; a
+  // durable queue (pg-boss) keeps their jobs, and another process may be solving them now.
+  if (!queue.durable) await runsFailInterrupted();
   await sweepLeftovers(stores, say);
   const sweeper = setInterval(() => {
     sweepLeftovers(stores, say).catch((err) => say(`Sweeping left-over uploads failed: ${err instanceof Error ? err.message : String(err)}`));
@@ -114,6 +130,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
   try {
     signingKeys = await signingKeysOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
   } catch (err) {
+    await queue.close();
     await sequelize.close();
     stores.close();
     throw err;
@@ -142,6 +159,7 @@ export async function startServices(config: Config, options: { clientDir?: strin
     sessionSecret: sessionSecretFor(config),
     signingKeys,
     stores,
+    queue,
     clientDir: options.clientDir,
     log: options.log,
     review: options.review,
@@ -154,9 +172,12 @@ export async function startServices(config: Config, options: { clientDir?: strin
     mailer,
     signingKeys,
     stores,
+    queue,
     sink,
     async shutdown() {
       clearInterval(sweeper);
+      // First stop taking jobs (pg-boss waits a few seconds for the ones running here), then the rest.
+      await queue.close();
       await created.close();
       await sink?.close();
       await sequelize.close();

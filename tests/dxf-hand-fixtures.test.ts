@@ -62,7 +62,7 @@ describe('R12 four-panel truss, unitless (hand-written, AC1009)', () => {
     const r = dxfImport(parsed, { units: 'mm' });
     const e = entry(r, 'split-member');
     expect(e.count).toBe(1);
-    expect(e.message).toBe('split 1 member at 3 joints lying on it');
+    expect(e.message).toBe('split 1 member at 3 joints lying on it: members L0-L1, L1-L2, L2-L3 and L3-L4; joints L1, L2 and L3');
     expect(e.points).toEqual([{ x: 3, y: 0 }, { x: 6, y: 0 }, { x: 9, y: 0 }]);
     expect(e.members).toHaveLength(4);
     expect(memberBetween(r, jointAt(r, 0, 0).id, jointAt(r, 3, 0).id)[0].tag).toBe('L0-L1');
@@ -70,7 +70,7 @@ describe('R12 four-panel truss, unitless (hand-written, AC1009)', () => {
 
   it('when texts L0…U4 sit beside the joints, then they become the tags and the title and circle are ignored', () => {
     const r = dxfImport(parsed, { units: 'mm' });
-    expect(entry(r, 'joint-tags').message).toBe('took 10 joint labels from texts near the joints');
+    expect(entry(r, 'joint-tags').message).toBe('took 10 joint labels from texts near the joints: joints U0, U1, U2, U3, U4, L0 and 4 more');
     const ignored = r.report.filter((x) => x.kind === 'ignored-entity');
     expect(ignored.map((x) => [x.entityType, x.count, x.layers])).toEqual([
       ['CIRCLE', 1, ['ANNO']],
@@ -119,7 +119,7 @@ describe('R2000 three-panel truss with drafting faults, millimetres (hand-writte
   it('when an endpoint is 0.4 mm off a panel point, then it is merged and reported', () => {
     const e = entry(r, 'merged-endpoints');
     expect(e.count).toBe(1);
-    expect(e.message).toBe('merged 1 endpoint closer than 0.5 mm into 1 joint');
+    expect(e.message).toBe('merged 1 endpoint closer than 0.5 mm into 1 joint: joint F');
     expect(e.points).toEqual([{ x: 2, y: 0 }]);
   });
 
@@ -129,7 +129,7 @@ describe('R2000 three-panel truss with drafting faults, millimetres (hand-writte
     expect(dup).toMatchObject({ count: 1, points: [{ x: 3.5, y: 0.75 }] });
     expect(dup.members).toEqual(memberBetween(r, jointAt(r, 3, 1.5).id, jointAt(r, 4, 0).id).map((m) => m.id));
     const split = entry(r, 'split-member');
-    expect(split).toMatchObject({ count: 2, message: 'split 2 members at 2 joints lying on them', points: [{ x: 2, y: 0 }, { x: 4, y: 0 }] });
+    expect(split).toMatchObject({ count: 2, message: 'split 2 members at 2 joints lying on them: members EF, FG and GH; joints F and G', points: [{ x: 2, y: 0 }, { x: 4, y: 0 }] });
     const ov = entry(r, 'merged-overlap');
     expect(ov).toMatchObject({ count: 1, points: [{ x: 3, y: 0 }] });
     expect(memberBetween(r, jointAt(r, 2, 0).id, jointAt(r, 4, 0).id)).toHaveLength(1);
@@ -141,7 +141,7 @@ describe('R2000 three-panel truss with drafting faults, millimetres (hand-writte
     // the web (2, 0)–(3, 1.5) is y = 1.5 (x − 2); at x = 2.6, y = 0.9
     expect(c.points[0].x).toBeCloseTo(2.6, 9);
     expect(c.points[0].y).toBeCloseTo(0.9, 9);
-    expect(c.message).toBe('2 members cross without a joint at (2.60, 0.90) m; they were left apart');
+    expect(c.message).toBe('2 members cross without a joint at (2.60, 0.90) m; they were left apart: members APEX-F and CD');
     expect(entry(r, 'dangling-member').count).toBe(2);
     const iso = entry(r, 'isolated-piece');
     expect(iso.count).toBe(2);
@@ -150,7 +150,12 @@ describe('R2000 three-panel truss with drafting faults, millimetres (hand-writte
 
   it('when the top chord has a bulge, then the arc span is a straight member and reported', () => {
     expect(entry(r, 'ignored-bulge')).toMatchObject({ count: 1, points: [{ x: 2, y: 1.5 }] });
-    expect(memberBetween(r, jointAt(r, 1, 1.5).id, jointAt(r, 3, 1.5).id)).toHaveLength(1);
+    const arc = memberBetween(r, jointAt(r, 1, 1.5).id, jointAt(r, 3, 1.5).id);
+    expect(arc).toHaveLength(1);
+    // the line names the member the arc span became, by id and by tag
+    expect(entry(r, 'ignored-bulge').members).toEqual([arc[0].id]);
+    const tag = arc[0].tag;
+    expect(entry(r, 'ignored-bulge').message).toMatch(new RegExp(`: member ${tag}$`));
   });
 
   it('when an MTEXT with formatting sits over the apex, then it tags that joint and the others follow reading order', () => {

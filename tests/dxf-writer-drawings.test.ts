@@ -43,7 +43,7 @@ describe('pitched truss in millimetres written by @tarikjabiri/dxf (AC1021)', ()
     const s = entries(r, 'split-member');
     expect(s).toHaveLength(1);
     expect(s[0].count).toBe(3); // bottom chord LINE, two top-chord polyline spans
-    expect(s[0].message).toBe('split 3 members at 5 joints lying on them');
+    expect(s[0].message).toBe('split 3 members at 5 joints lying on them: members KA, KB, AC, BG, CD, DE and 2 more; joints A, B, D, E and F');
   });
 
   it('when an MTEXT "K" sits above the apex, then the apex is K and the rest follow reading order', () => {

@@ -10,6 +10,8 @@ export interface FileStores {
   drawings: FileStore;
   /** Issued (and superseded) calc sheets, kept as issued. */
   sheets: FileStore;
+  /** Draft calc sheet PDFs of print jobs (any process may print one, any app process serves it). */
+  printJobs: FileStore;
   /** Local folders to create and keep 0700 with 0600 files: none on an object store. */
   folders: string[];
   close(): void;
@@ -19,8 +21,8 @@ export interface FileStores {
 export const issuedSheetsDir = (config: Pick<Config, 'dataDir'>) => path.join(config.dataDir, 'issued-sheets');
 
 /**
- * The stores STORAGE_URL chooses: unset, the uploads folder and DATA_DIR/issued-sheets; with
- * s3://bucket[/prefix], the areas `drawings/` and `issued-sheets/` of that bucket, checked with
+ * The stores STORAGE_URL chooses: unset, the uploads folder, DATA_DIR/issued-sheets and DATA_DIR/print-jobs; with
+ * s3://bucket[/prefix], the areas `drawings/`, `issued-sheets/` and `print-jobs/` of that bucket, checked with
  * HeadBucket first so a wrong bucket, wrong credentials or an unreachable endpoint stop the start.
  */
 export async function fileStoresOpen(config: Pick<Config, 'storage' | 'uploadsDir' | 'dataDir'>): Promise<FileStores> {
@@ -31,6 +33,7 @@ export async function fileStoresOpen(config: Pick<Config, 'storage' | 'uploadsDi
       kind: 'local',
       drawings: localFileStore(config.uploadsDir, 'the uploads folder'),
       sheets: localFileStore(sheetsDir, 'the data folder'),
+      printJobs: localFileStore(path.join(config.dataDir, 'print-jobs'), 'the data folder'),
       folders: [config.uploadsDir, sheetsDir],
       close() {},
     };
@@ -46,6 +49,7 @@ export async function fileStoresOpen(config: Pick<Config, 'storage' | 'uploadsDi
     kind: 's3',
     drawings: s3FileStore(client, storage, 'drawings'),
     sheets: s3FileStore(client, storage, 'issued-sheets'),
+    printJobs: s3FileStore(client, storage, 'print-jobs'),
     folders: [],
     close: () => client.destroy(),
   };

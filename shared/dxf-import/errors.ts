@@ -17,6 +17,7 @@ export type DxfImportErrorCode =
   | 'bad-option'
   | 'unknown-layer'
   | 'no-lines'
+  | 'not-planar'
   | 'bad-coordinate'
   | 'coordinate-too-large'
   | 'tolerance-too-large'

@@ -78,7 +78,20 @@ export interface ExplodeSink {
   entity(type: string, layer: string, x: number | null, y: number | null): void;
   /** An entity that is not drawn into the model, with the reason. */
   ignored(type: string, reason: string, layer: string, x: number | null, y: number | null): void;
+  /**
+   * A polyline with 3D vertices that do not lie in one plane parallel to XY (see
+   * {@link POLYLINE_FLAT_TOLERANCE}): `zMin`, `zMax` in output units, `spans` the straight spans it
+   * would give. Its segments are not sent; the import refuses it when its layer is chosen.
+   */
+  notFlat(layer: string, entity: object, zMin: number, zMax: number, spans: number): void;
 }
+
+/**
+ * A 3D polyline counts as flat (lying in one plane parallel to XY, read by dropping z) when the
+ * range of its vertices' z is at most this fraction of the larger side of its box in plan:
+ * 1/10 000, the same fraction as the default joining tolerance (common practice, no source).
+ */
+export const POLYLINE_FLAT_TOLERANCE = 1e-4;
 
 /** Deepest nesting of blocks inside blocks taken by default; a safety limit, no source. */
 export const MAX_BLOCK_DEPTH = 32;
@@ -227,10 +240,14 @@ export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, limit
           doPolyline(e, m, layer, extrusionSign({ x: e.extrusionDirectionX, y: e.extrusionDirectionY, z: e.extrusionDirectionZ }));
           break;
         case 'POLYLINE':
-          if (e.is3dPolyline || e.is3dPolygonMesh || e.isPolyfaceMesh) {
+          if (e.is3dPolygonMesh || e.isPolyfaceMesh) {
             const v = e.vertices?.[0];
             const p = v ? apply(m, num(v.x, 0), num(v.y, 0)) : null;
-            sink.ignored('POLYLINE', e.is3dPolyline ? '3D polyline' : 'mesh', layer, p?.[0] ?? null, p?.[1] ?? null);
+            sink.ignored('POLYLINE', 'mesh', layer, p?.[0] ?? null, p?.[1] ?? null);
+          } else if (e.is3dPolyline || hasVertexZ(e)) {
+            // A 3D polyline's vertices are in world coordinates (DXF Reference, Autodesk, POLYLINE
+            // flag 8): flat ones are read in plan, others refused by the import with their z range.
+            do3dPolyline(e, m, layer);
           } else if (e.includesCurveFitVertices || e.includesSplineFitVertices) {
             const v = e.vertices?.[0];
             const p = v ? apply(m, num(v.x, 0), num(v.y, 0)) : null;
@@ -307,6 +324,38 @@ export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, limit
       const bulged = typeof a.bulge === 'number' && a.bulge !== 0;
       sink.segment(layer, x1, y1, x2, y2, e, bulged);
     }
+  };
+
+  const do3dPolyline = (e: AnyEntity, m: Affine, layer: string) => {
+    const verts = (e.vertices ?? []) as { x?: number; y?: number; z?: number }[];
+    let zMin = Infinity;
+    let zMax = -Infinity;
+    let xMin = Infinity;
+    let xMax = -Infinity;
+    let yMin = Infinity;
+    let yMax = -Infinity;
+    for (const v of verts) {
+      const z = num(v.z, 0);
+      const x = num(v.x, 0);
+      const y = num(v.y, 0);
+      if (z < zMin) zMin = z;
+      if (z > zMax) zMax = z;
+      if (x < xMin) xMin = x;
+      if (x > xMax) xMax = x;
+      if (y < yMin) yMin = y;
+      if (y > yMax) yMax = y;
+    }
+    const side = Math.max(xMax - xMin, yMax - yMin);
+    if (verts.length >= 2 && zMax - zMin > POLYLINE_FLAT_TOLERANCE * side) {
+      // z scales with the drawing's units as x and y do (the map's scale, no rotation in z)
+      const k = Math.sqrt(Math.abs(m[0] * m[3] - m[1] * m[2]));
+      const first = verts[0];
+      const p0 = apply(m, num(first.x, NaN), num(first.y, NaN));
+      sink.entity(e.type, layer, p0[0], p0[1]);
+      sink.notFlat(layer, e, zMin * k, zMax * k, e.shape === true ? verts.length : verts.length - 1);
+      return;
+    }
+    doPolyline(e, m, layer, 1);
   };
 
   const doInsert = (e: AnyEntity, m0: Affine, layer: string) => {
@@ -403,6 +452,15 @@ export function explodeDrawing(dxf: IDxf, root: Affine, sink: ExplodeSink, limit
   };
 
   walk(dxf.entities, root, null);
+}
+
+/** True when a POLYLINE's vertices carry z values that differ (3D vertices without the 3D flag). */
+function hasVertexZ(e: AnyEntity): boolean {
+  const verts = e.vertices as { z?: number }[] | undefined;
+  if (!Array.isArray(verts) || verts.length < 2) return false;
+  const z0 = num(verts[0]?.z, 0);
+  for (const v of verts) if (num(v?.z, 0) !== z0) return true;
+  return false;
 }
 
 function representativePoint(e: AnyEntity): { x: number; y: number } | null {

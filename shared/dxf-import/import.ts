@@ -1,9 +1,11 @@
 import type { IDxf } from 'dxf-parser';
-import type { Joint } from '@shared/model/truss';
+import type { Joint, MemberGroup } from '@shared/model/truss';
 import { scientificFormat } from '../units/format';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type DxfExplodeLimits, type ExplodedText } from './explode';
+import { memberGroupCodes } from './groups';
 import { healSegments, quickMedian, type HealResult } from './heal';
+import { mechanismCheck } from './mechanism';
 import { dxfOf, LayerTally } from './layers';
 import { sortIndicesByInt } from './sort';
 import { assignTags, jointTagsInOrder, memberTagOf, readingOrder } from './tags';
@@ -294,7 +296,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
   // ---- units
   const declared = dxfUnitOf(dxf);
   const insunits = declared?.insunits ?? (typeof dxf.header?.['$INSUNITS'] === 'number' ? (dxf.header['$INSUNITS'] as number) : 0);
-  let units: DxfImportResult['units'];
+  let units: DxfImportResult['units'] | null;
   if (o.units) {
     const [name, f] = UNIT_OF_SYMBOL[o.units];
     units = { name, unit: o.units, metresPerUnit: f, insunits, source: 'option' };
@@ -307,14 +309,11 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     units = { name: declared.name, unit: declared.unit, metresPerUnit: declared.metresPerUnit, insunits, source: 'drawing' };
     entry({ kind: 'units', severity: 'info', count: 1, message: `read the drawing in ${declared.name}, as its header says ($INSUNITS = ${insunits}), and converted to metres` });
   } else {
-    throw new DxfImportError(
-      'units-required',
-      insunits === 0
-        ? 'The drawing does not say what units it is drawn in ($INSUNITS is 0 or missing). Choose the units (m, mm, cm, in or ft) and import again.'
-        : `The drawing says its units are code ${insunits} ($INSUNITS), which Panelpoint does not know. Choose the units (m, mm, cm, in or ft) and import again.`,
-    );
+    // Asked only once the drawing is known to hold lines (below): a file with nothing to import
+    // is told so first, not asked for its units. Read in drawing units meanwhile.
+    units = null;
   }
-  const k = units.metresPerUnit;
+  const k = units?.metresPerUnit ?? 1;
 
   // ---- explode, in metres, every layer at once: the layers are listed in the same walk
   const tally = new LayerTally(dxf);
@@ -337,6 +336,8 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
   // the first segment of each layer with a coordinate that is not a number or too far out:
   // an error only if that layer is chosen, which is known after the walk
   const badOfLayer = new Map<number, { entity: object; layer: string; v: number[]; seq: number }>();
+  // the first polyline of each layer that is not flat: refused only if that layer is chosen
+  const notFlatOfLayer = new Map<string, { entity: object; zMin: number; zMax: number }>();
   let seq = 0;
   // segments come in long runs on one layer: remember the last layer's index
   let lastLayer: string | null = null;
@@ -376,6 +377,10 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     ignored(type, reason, layer, x, y) {
       ignore(type, reason, layer, x, y);
     },
+    notFlat(layer, entity, zMin, zMax, spans) {
+      for (let i = 0; i < spans; i++) tally.segment(layer);
+      if (!notFlatOfLayer.has(layer)) notFlatOfLayer.set(layer, { entity, zMin, zMax });
+    },
   }, limits);
   for (const [type, perLayer] of Object.entries(unread)) {
     for (const [layer, n] of Object.entries(perLayer)) {
@@ -409,6 +414,24 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
       throw new DxfImportError('no-lines', `The drawing holds no lines or polylines on any layer${what ? ` (it holds ${what})` : ''}. Draw the truss members as lines or polylines and upload again.`);
     }
     throw new DxfImportError('no-lines', `There are no lines or polylines on the chosen layer${chosen.length === 1 ? '' : 's'} ${chosen.map((c) => `"${c}"`).join(', ')}. Layers holding lines: ${lineLayers.map((c) => `"${c}"`).join(', ')}; choose from those.`);
+  }
+  const notFlat = chosen.map((l) => [l, notFlatOfLayer.get(l)] as const).find(([, f]) => f !== undefined);
+  if (notFlat) {
+    const [layer, f] = notFlat;
+    const span = f!.zMax - f!.zMin;
+    const zIn = (v: number) => (units ? formatLength(v) : `${trim(v)} drawing units`);
+    throw new DxfImportError(
+      'not-planar',
+      `The 3D ${describeEntity(f!.entity, layer)} does not lie flat: its vertices' z runs from ${zIn(f!.zMin)} to ${zIn(f!.zMax)} (${zIn(span)} apart), so it is not in one plane parallel to XY. Draw the truss flat (all z equal) in your CAD program, or leave layer "${layer}" out with the layers option, and upload again.`,
+    );
+  }
+  if (!units) {
+    throw new DxfImportError(
+      'units-required',
+      insunits === 0
+        ? 'The drawing does not say what units it is drawn in ($INSUNITS is 0 or missing). Choose the units (m, mm, cm, in or ft) and import again.'
+        : `The drawing says its units are code ${insunits} ($INSUNITS), which Panelpoint does not know. Choose the units (m, mm, cm, in or ft) and import again.`,
+    );
   }
   const chosenIndex = new Uint8Array(layerNames.length);
   for (let li = 0; li < layerNames.length; li++) chosenIndex[li] = chosenSet.has(layerNames[li]) ? 1 : 0;
@@ -625,7 +648,11 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     if (bulged.length < DXF_REPORT_MAX_LOCATIONS) bulged.push({ x: (seg[4 * i] + seg[4 * i + 2]) / 2, y: (seg[4 * i + 1] + seg[4 * i + 3]) / 2 });
   }
   if (nBulged > 0) {
+    // the members the arc spans became (a member keeps the segment it came from)
+    const bulgedMembers: number[] = [];
+    for (let i = 0; i < M; i++) if (segBulged[h.memberSource[i]]) bulgedMembers.push(i);
     entry({
+      members: memberIdsOf(bulgedMembers),
       kind: 'ignored-bulge',
       severity: 'warning',
       count: nBulged,
@@ -675,5 +702,141 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
  */
 export function dxfImport(parsed: DxfParsed | IDxf, options: DxfImportOptions = {}, limits: Partial<DxfExplodeLimits> = {}): DxfImportResult {
   const { geometry, ...rest } = dxfImportGeometry(parsed, options, limits);
-  return { ...dxfModelOf(geometry), ...rest };
+  const model = dxfModelOf(geometry);
+  return dxfHandover({ ...model, ...rest }, geometry);
+}
+
+const CODE_GROUPS: MemberGroup[] = ['other', 'top-chord', 'bottom-chord', 'web'];
+
+/** The columns of a result's objects (ids 'j<n>' / 'm<n>' in order, as dxfModelOf makes them). */
+function columnsOf(result: DxfImportResult): Pick<DxfGeometry, 'jointXY' | 'memberEnds' | 'memberLayer' | 'layerNames'> {
+  const { joints, members } = result;
+  const index = new Map(joints.map((j, k) => [j.id, k]));
+  const jointXY = new Float64Array(2 * joints.length);
+  joints.forEach((j, k) => {
+    jointXY[2 * k] = j.x;
+    jointXY[2 * k + 1] = j.y;
+  });
+  const layerNames: string[] = [];
+  const layerIndex = new Map<string, number>();
+  const memberEnds = new Int32Array(2 * members.length);
+  const memberLayer = new Int32Array(members.length);
+  members.forEach((m, i) => {
+    memberEnds[2 * i] = index.get(m.from) ?? 0;
+    memberEnds[2 * i + 1] = index.get(m.to) ?? 0;
+    let li = layerIndex.get(m.layer);
+    if (li === undefined) {
+      li = layerNames.length;
+      layerNames.push(m.layer);
+      layerIndex.set(m.layer, li);
+    }
+    memberLayer[i] = li;
+  });
+  return { jointXY, memberEnds, memberLayer, layerNames };
+}
+
+const GROUP_WORDS: Record<MemberGroup, [string, string]> = {
+  'top-chord': ['top chord member', 'top chord members'],
+  'bottom-chord': ['bottom chord member', 'bottom chord members'],
+  web: ['web', 'webs'],
+  other: ['other member', 'other members'],
+};
+
+/** "A, B and C", or "A, B, C, D, E, F and 12 more": names in report lines. */
+export function namesList(names: readonly string[], total = names.length, max = 6): string {
+  const shown = names.slice(0, max);
+  const rest = total - shown.length;
+  if (rest > 0) return `${shown.join(', ')} and ${rest} more`;
+  if (shown.length <= 1) return shown.join('');
+  return `${shown.slice(0, -1).join(', ')} and ${shown[shown.length - 1]}`;
+}
+
+/**
+ * What makes an imported drawing ready to hand over, added to {@link dxfImport}'s result:
+ * member groups suggested from the layer names and the outline (groups.ts), each report line
+ * naming the joints and members it concerns by their tags, and the check for a likely
+ * mechanism with the usual supports assumed (mechanism.ts).
+ */
+export function dxfHandover(result: DxfImportResult, geometry?: DxfGeometry): DxfImportResult {
+  const { joints, members, report } = result;
+  // ---- groups, on the geometry's columns (members are in its order, m1 = row 0)
+  const cols = geometry ?? columnsOf(result);
+  const { codes, source, hints } = memberGroupCodes(cols.jointXY, cols.memberEnds, cols.memberLayer, cols.layerNames);
+  const byLayer = new Map<string, Map<MemberGroup, number>>();
+  let fromOutline = 0;
+  let grouped = 0;
+  const outlineCounts = new Map<MemberGroup, number>();
+  const layerCounts = cols.layerNames.map(() => new Int32Array(4));
+  const outlineCodeCounts = new Int32Array(4);
+  for (let i = 0; i < members.length; i++) {
+    const code = codes[i]!;
+    if (!code) continue;
+    members[i]!.group = CODE_GROUPS[code]!;
+    grouped++;
+    if (source[i] === 0) outlineCodeCounts[code]!++;
+    else layerCounts[cols.memberLayer[i]!]![code]!++;
+  }
+  for (let code = 1; code < 4; code++) {
+    if (outlineCodeCounts[code]) {
+      fromOutline += outlineCodeCounts[code]!;
+      outlineCounts.set(CODE_GROUPS[code]!, outlineCodeCounts[code]!);
+    }
+  }
+  cols.layerNames.forEach((layer, li) => {
+    const per = new Map<MemberGroup, number>();
+    for (let code = 1; code < 4; code++) if (layerCounts[li]![code]) per.set(CODE_GROUPS[code]!, layerCounts[li]![code]!);
+    if (per.size) byLayer.set(layer, per);
+  });
+  const hintOf = new Map(cols.layerNames.map((l, li) => [l, hints[li]]));
+  const countWords = (c: Map<MemberGroup, number>) =>
+    (['top-chord', 'bottom-chord', 'web', 'other'] as const)
+      .filter((g) => c.get(g))
+      .map((g) => `${c.get(g)} ${GROUP_WORDS[g][c.get(g) === 1 ? 0 : 1]}`)
+      .join(', ');
+  const layerParts = [...byLayer.entries()]
+    .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
+    .map(([layer, c]) => `${countWords(c)} from layer ${layer}${hintOf.get(layer) === 'chord' ? ' (top or bottom by the outline)' : ''}`);
+  const parts = [...layerParts];
+  if (fromOutline > 0) parts.push(`${countWords(outlineCounts)} by the outline (lower edge bottom chord, upper edge top chord, the rest webs)`);
+  if (parts.length) {
+    report.push({
+      kind: 'member-groups',
+      severity: 'info',
+      count: grouped,
+      message: `grouped the members: ${parts.join('; ')}; the roof loading can start from these, and Members changes them`,
+      points: [],
+      joints: [],
+      members: [],
+      layers: [...byLayer.keys()].sort(),
+    });
+  }
+
+  // ---- a likely mechanism
+  const found = mechanismCheck(joints, members);
+  if (found) {
+    report.push({
+      kind: 'mechanism',
+      severity: found.severity,
+      count: found.severity === 'warning' ? 1 : 0,
+      message: found.message,
+      points: [], // its places are joints and members
+      joints: found.joints.slice(0, DXF_REPORT_MAX_LOCATIONS),
+      members: found.members,
+    });
+  }
+
+  // ---- name what each line concerns, by tag (ids are 'j<n>' and 'm<n>' in order)
+  const jointTag = (id: string) => joints[Number(id.slice(1)) - 1]?.tag ?? id;
+  const memberTag = (id: string) => members[Number(id.slice(1)) - 1]?.tag ?? id;
+  for (const e of report) {
+    if (e.joints.length === 0 && e.members.length === 0) continue;
+    e.jointTags = e.joints.map(jointTag);
+    e.memberTags = e.members.map(memberTag);
+    if (e.kind === 'mechanism') continue; // says its joints itself
+    const named: string[] = [];
+    if (e.members.length) named.push(`member${e.memberTags.length === 1 ? '' : 's'} ${namesList(e.memberTags)}`);
+    if (e.joints.length) named.push(`joint${e.jointTags.length === 1 ? '' : 's'} ${namesList(e.jointTags)}`);
+    e.message += `: ${named.join('; ')}`;
+  }
+  return result;
 }

@@ -17,7 +17,12 @@ export { dxfLayers } from './layers';
 export { DXF_DEFAULT_LIMITS, MAX_BLOCK_DEPTH, MAX_EXPLODED_SEGMENTS } from './explode';
 export type { DxfExplodeLimits } from './explode';
 export { tagOfIndex, jointTagsInOrder } from './tags';
-export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf } from './import';
+export { dxfImport, dxfImportGeometry, dxfModelOf, dxfUnitOf, dxfHandover, namesList } from './import';
+export { layerGroupHint, memberGroupsSuggest, memberGroupCodes } from './groups';
+export type { LayerGroupHint, GroupSource } from './groups';
+export { mechanismCheck, MECHANISM_RANK_MAX_JOINTS } from './mechanism';
+export type { MechanismFinding } from './mechanism';
+export { POLYLINE_FLAT_TOLERANCE } from './explode';
 export { dxfLengthUnitSchema, dxfImportOptionsSchema, DXF_REPORT_MAX_LOCATIONS } from './types';
 export type {
   DxfLengthUnit,

@@ -86,6 +86,10 @@ export function dxfLayers(parsed: DxfParsed | IDxf, limits: Partial<DxfExplodeLi
       tally.entity(type, layer);
     },
     ignored() {},
+    notFlat(layer, _entity, _zMin, _zMax, spans) {
+      // listed as holding lines, so the import can say why it refuses the layer
+      for (let i = 0; i < spans; i++) tally.segment(layer);
+    },
   }, limits);
   return tally.finish(unread);
 }

@@ -80,7 +80,9 @@ export type DxfReportKind =
   | 'isolated-piece'
   | 'ignored-entity'
   | 'ignored-bulge'
-  | 'joint-tags';
+  | 'joint-tags'
+  | 'member-groups'
+  | 'mechanism';
 
 /**
  * One line of the import report. `count` is the full number of cases; the location lists
@@ -99,6 +101,10 @@ export interface DxfReportEntry {
   joints: string[];
   /** Ids of the members concerned (ids of the returned model). */
   members: string[];
+  /** Tags of `joints`, as the model has them (dxfImport fills them; the message names them too). */
+  jointTags?: string[];
+  /** Tags of `members`, as the model has them. */
+  memberTags?: string[];
   /** For 'ignored-entity': the DXF entity type, e.g. 'CIRCLE'. */
   entityType?: string;
   /** Layers concerned, where that says something. */

@@ -65,6 +65,14 @@ describe('modelRebase', () => {
   it('when there is no previous model, then the geometry starts an empty model', () => {
     const { model } = modelRebase(null, { joints: previous.joints, members: previous.members }, 0.001);
     expect(model.supports).toEqual([]);
-    expect(model.members[0]).toEqual({ id: 'm1', tag: 'AB', from: 'j1', to: 'j2' });
+    // the geometry's member m1 carries the group its drawing suggested; its E and material stay behind
+    expect(model.members[0]).toEqual({ id: 'm1', tag: 'AB', from: 'j1', to: 'j2', group: 'bottom-chord' });
+    expect(model.members[1]).toEqual({ id: previous.members[1].id, tag: previous.members[1].tag, from: previous.members[1].from, to: previous.members[1].to, ...(previous.members[1].group ? { group: previous.members[1].group } : {}) });
+  });
+
+  it('when a new drawing suggests another group than the engineer set, then the engineer\'s group is kept', () => {
+    const geometry = { joints: previous.joints, members: previous.members.map((m) => ({ id: m.id, tag: m.tag, from: m.from, to: m.to, group: 'web' as const })) };
+    const { model } = modelRebase(previous, geometry, 0.001);
+    expect(model.members[0].group).toBe('bottom-chord');
   });
 });

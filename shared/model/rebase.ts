@@ -18,7 +18,9 @@ export function modelRebase(
   tolerance: number,
 ): RebaseResult {
   const joints = geometry.joints.map(({ id, tag, x, y }) => ({ id, tag, x, y }));
-  const members: Member[] = geometry.members.map(({ id, tag, from, to }) => ({ id, tag, from, to }));
+  // The group a drawing suggests (from its layer names or outline) comes along; a group the
+  // engineer set on the previous model wins over it below.
+  const members: Member[] = geometry.members.map(({ id, tag, from, to, group }) => ({ id, tag, from, to, ...(group ? { group } : {}) }));
   const dropped: RebaseResult['dropped'] = { supports: [], loads: [], memberProperties: [] };
   if (!previous) {
     return { model: { joints, members, supports: [], loadCases: [], combinations: [] }, dropped };

@@ -135,7 +135,7 @@ const DIAGONAL_TRIALS = 40;
  * ring, neither diagonal drawn) with a joint that moves in the mechanism, the first whose
  * diagonal raises the rank of the equilibrium matrix. Null when no such panel is found.
  */
-function openPanelFind(pm: PreparedModel, rank: number, moving: Set<number>): { ring: number[]; from: number; to: number; stable: boolean } | null {
+export function openPanelFind(pm: PreparedModel, rank: number, moving: Set<number>): { ring: number[]; from: number; to: number; stable: boolean } | null {
   const n = pm.jointIds.length;
   const nbr: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
   for (const mb of pm.members) {

@@ -51,6 +51,7 @@ const EXPECTED: Record<string, 'public' | readonly Who[]> = {
   'GET /api/trusses/:id/sheets': ALL,
   'POST /api/trusses/:id/sheets': ['engineer'],
   'GET /api/sheets/:id': ALL,
+  'GET /api/sheets/:id/compare': ALL,
   'POST /api/sheets/:id/submit': ['engineer'],
   'POST /api/sheets/:id/return': ['reviewer'],
   'POST /api/sheets/:id/check': ['reviewer'],

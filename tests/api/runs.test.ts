@@ -169,7 +169,8 @@ describe('analysis runs', () => {
     const ends = `${tagOf[J.L]},${tagOf[J.M]}`;
     const endsLM = lines.find((l) => l.startsWith(`case,D,${lm.tag},`))!;
     // 20/3 = 6.667 kN (T) to three decimals; LT −25/3 = −8.333 (C).
-    expect([`case,D,${lm.tag},,${ends},6.667,T,`, `case,D,${lm.tag},,${tagOf[J.M]},${tagOf[J.L]},6.667,T,`]).toContain(endsLM);
+    // L–M lies along the lower edge of the outline: the import grouped it as bottom chord.
+    expect([`case,D,${lm.tag},bottom-chord,${ends},6.667,T,`, `case,D,${lm.tag},bottom-chord,${tagOf[J.M]},${tagOf[J.L]},6.667,T,`]).toContain(endsLM);
     expect(lines.find((l) => l.startsWith(`case,D,${MB.LT.tag},`))).toMatch(/,-8\.333,C,$/);
     // RFC 4180: a field with a comma or quote is quoted, inner quotes doubled. 1.4 × 20/3 = 9.333.
     expect(lines.find((l) => l.startsWith('combination,') && l.includes(`,${lm.tag},`))).toMatch(

@@ -48,3 +48,47 @@ export function deepNesting(depth: number): Buffer {
 }
 export const zeroLengthOnly = () => dxf([line(1, 1, 1, 1), line(2, 2, 2, 2), line(0, 0, 0, 0)]);
 export const lineMissingEnd = () => dxf([line(0, 0, 1, 0), lineWithoutEnd(1, 0)]);
+
+/**
+ * A POLYLINE with VERTEX records (group 70 flag 8 = 3D polyline, vertex flag 32 = 3D polyline
+ * vertex; DXF Reference, Autodesk, POLYLINE and VERTEX, from memory), closed by SEQEND.
+ */
+export function polyline(vertices: [number, number, number][], layer = 'TRUSS', flags = 8): string[] {
+  const out = pairs(0, 'POLYLINE', 5, '2F', 8, layer, 66, 1, 70, flags, 10, 0, 20, 0, 30, 0);
+  for (const [x, y, z] of vertices) out.push(...pairs(0, 'VERTEX', 8, layer, 10, x, 20, y, 30, z, 70, flags & 8 ? 32 : 0));
+  out.push(...pairs(0, 'SEQEND', 8, layer));
+  return out;
+}
+
+/** A CIRCLE: something that is not a line. */
+export const circle = (x: number, y: number, r: number, layer = 'TRUSS') => pairs(0, 'CIRCLE', 8, layer, 10, x, 20, y, 30, 0, 40, r);
+
+/** {@link dxf} with another $INSUNITS (0: unitless, as every R12 file). */
+export function dxfIn(insunits: number, entities: string[][]): Buffer {
+  const text = [
+    ...pairs(0, 'SECTION', 2, 'HEADER', 9, '$INSUNITS', 70, insunits, 0, 'ENDSEC'),
+    ...pairs(0, 'SECTION', 2, 'ENTITIES'),
+    ...entities.flat(),
+    ...pairs(0, 'ENDSEC', 0, 'EOF'),
+  ].join('\r\n');
+  return Buffer.from(`${text}\r\n`, 'latin1');
+}
+
+/**
+ * A parallel-chord truss of `panels` panels, `a` by `h` (drawing units), chords per panel on
+ * `chordLayer`, posts and one diagonal per panel (rising to the middle) on `webLayer`;
+ * `skipDiagonal` leaves panel k (0-based) open.
+ */
+export function parallelChordTruss(opts: { panels: number; a: number; h: number; chordLayer?: string; topLayer?: string; bottomLayer?: string; webLayer?: string; skipDiagonal?: number }): string[][] {
+  const { panels, a, h, skipDiagonal } = opts;
+  const top = opts.topLayer ?? opts.chordLayer ?? 'CHORDS';
+  const bottom = opts.bottomLayer ?? opts.chordLayer ?? 'CHORDS';
+  const web = opts.webLayer ?? 'WEBS';
+  const out: string[][] = [];
+  for (let i = 0; i < panels; i++) {
+    out.push(line(i * a, 0, (i + 1) * a, 0, bottom), line(i * a, h, (i + 1) * a, h, top));
+    if (i !== skipDiagonal) out.push(i < panels / 2 ? line(i * a, 0, (i + 1) * a, h, web) : line(i * a, h, (i + 1) * a, 0, web));
+  }
+  for (let i = 0; i <= panels; i++) out.push(line(i * a, 0, i * a, h, web));
+  return out;
+}

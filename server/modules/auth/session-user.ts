@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize';
+import { readRows } from '../../db/read-rows';
 import type { Role } from '@shared/schemas/auth.schema';
 import { User } from '../../db/models';
 
@@ -85,9 +85,10 @@ export function sessionUserCache(options: { ttlMs?: number; now?: () => number }
 
   async function read(id: number): Promise<SessionUserRow | null> {
     // One plain read of the columns needed (no model instance, no query building).
-    const rows = await User.sequelize!.query<UserDbRow>(
+    const rows = await readRows<UserDbRow>(
+      User.sequelize!,
       'SELECT "id", "email", "name", "role", "disabled", "sessionEpoch", "passwordHash" IS NOT NULL AS "hasPassword", "createdAt", "updatedAt" FROM "users" WHERE "id" = :id',
-      { type: QueryTypes.SELECT, replacements: { id }, raw: true },
+      { id },
     );
     const r = rows[0];
     if (!r) return null;

@@ -6,15 +6,19 @@ import { SheetBuildError, SheetBuildPoolClosedError, type SheetBuildPool } from 
 import { SheetPrintError, type SheetPrinter } from './sheet-printer';
 import { draftInput, draftFileName, loadRunSheet } from './run-sheet.service';
 import { runName } from '@shared/text/citations';
+import type { JobAttempt, JobQueue } from '../../workers/job-queue';
 
 /**
  * Calc sheet PDFs made in the background. A request stores a job (migration 0011) and is
- * answered at once (202); a runner in this process takes the jobs one at a time, oldest first:
- * it builds the sheet's HTML in the sheet-build worker thread (so the main thread keeps
+ * answered at once (202) and the job is handed to the job queue ('print-sheet'): the in-process
+ * queue (SQLite) or pg-boss's (PostgreSQL), whose workers take the jobs one at a time each. The
+ * process that takes a job builds the sheet's HTML in the sheet-build worker thread (so the main thread keeps
  * answering everyone), prints it in the printer's background lane (so issuing and previews are
  * never held up by it) and stores the PDF in the print-jobs file store. Each step is written to
- * the row as stage and percent, which the app polls. Jobs left queued, building or printing by
- * a server that stopped are queued again at the next start, up to three tries.
+ * the row as stage and percent, which the app polls. How many unfinished jobs a person holds
+ * is counted from the table, so every app process sees the same count. With the in-process
+ * queue, jobs left queued, building or printing by a server that stopped are queued again at the
+ * next start, up to three tries; pg-boss keeps its jobs and tries again itself (three tries).
  */
 
 /** Unfinished jobs one person may hold at once; one more is refused with 429. */
@@ -98,12 +102,18 @@ export function pdfPageCount(pdf: Buffer): number {
 
 export interface PrintJobsDeps {
   sequelize: Sequelize;
-  printer: SheetPrinter;
-  builder: SheetBuildPool;
-  /** Where finished PDFs are kept (the data folder's print-jobs store). */
+  /** Where a new job is sent; the process that works the queue calls `work`. */
+  queue: Pick<JobQueue, 'send' | 'durable' | 'idle'>;
+  /** Where finished PDFs are kept (the print-jobs store: the data folder, or the object store). */
   files: FileStore;
   log: (msg: string, err?: unknown) => void;
   now?: () => Date;
+}
+
+/** What the process that prints needs besides the table and the store. */
+export interface PrintJobsWorkDeps {
+  printer: SheetPrinter;
+  builder: SheetBuildPool;
 }
 
 export interface PrintJobs {
@@ -115,11 +125,15 @@ export interface PrintJobs {
   listForRun(runId: number, personId: number): Promise<PrintJobView[]>;
   /** The finished PDF, for the person who asked for it only. */
   pdf(jobId: number, personId: number): Promise<{ bytes: Buffer; fileName: string }>;
-  /** Queues again what a stopped server left unfinished, then starts the runner. */
+  /** In-process queue only: queues again what a stopped server left unfinished (nothing to do on a durable queue). */
   resume(): Promise<{ requeued: number; failed: number }>;
-  /** Resolves when no job is waiting or running (tests). */
+  /** The queue's handler for 'print-sheet': makes the job's PDF in this process. */
+  work(jobId: number, attempt: JobAttempt, deps: PrintJobsWorkDeps): Promise<void>;
+  /** The queue gave up on a job (every try ran out of time): it fails with a sentence. */
+  givenUp(jobId: number): Promise<void>;
+  /** Resolves when no job is waiting or running in this process (tests). */
   idle(): Promise<void>;
-  /** Stops taking jobs; the one running is left to the next start. */
+  /** Stops taking jobs; the one running is left to the next start or another process. */
   close(): Promise<void>;
 }
 
@@ -135,7 +149,6 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
   const Jobs = bindModel(sequelize);
   const now = deps.now ?? (() => new Date());
   let closed = false;
-  let pumping: Promise<void> | null = null;
   let msPerByte = START_MS_PER_BYTE;
 
   async function update(id: number, values: Partial<Omit<JobRow, 'id'>>): Promise<void> {
@@ -173,20 +186,21 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
     await update(id, { state: 'failed', stage: 'failed', error: message, finishedAt: now() });
   }
 
-  /** Takes the oldest queued job, or null. */
-  async function claim(): Promise<JobRow | null> {
-    for (;;) {
-      const next = (await Jobs.findOne({ where: { state: 'queued' }, order: [['id', 'ASC']], raw: true })) as unknown as JobRow | null;
-      if (!next) return null;
-      const [taken] = await Jobs.update(
-        { state: 'building', stage: 'reading the run', percent: 5, attempts: Number(next.attempts) + 1, startedAt: now() },
-        { where: { id: next.id, state: 'queued' } },
-      );
-      if (taken === 1) return { ...next, attempts: Number(next.attempts) + 1 };
-    }
+  /**
+   * Takes the job for this try: a queued job, or one a stopped process left building or printing
+   * (the queue tries it again). Null when it is finished already or gone.
+   */
+  async function claim(jobId: number): Promise<JobRow | null> {
+    const row = (await Jobs.findByPk(jobId, { raw: true })) as unknown as JobRow | null;
+    if (!row || !UNFINISHED.includes(row.state)) return null;
+    const [taken] = await Jobs.update(
+      { state: 'building', stage: 'reading the run', percent: 5, attempts: Number(row.attempts) + 1, startedAt: now() },
+      { where: { id: jobId, state: row.state, attempts: row.attempts } },
+    );
+    return taken === 1 ? { ...row, attempts: Number(row.attempts) + 1 } : null;
   }
 
-  async function runJob(job: JobRow): Promise<void> {
+  async function runJob(job: JobRow, attempt: JobAttempt, workDeps: PrintJobsWorkDeps): Promise<void> {
     const id = Number(job.id);
     const [person] = await sequelize.query<{ disabled: number | boolean }>('SELECT disabled FROM users WHERE id = ?', {
       replacements: [job.requestedById],
@@ -200,14 +214,14 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
     try {
       const base = await loadRunSheet(Number(job.runId));
       await update(id, { stage: 'typesetting the equations', percent: 10 });
-      const built = await deps.builder.build(draftInput(base, now()), () => {
+      const built = await workDeps.builder.build(draftInput(base, now()), () => {
         void update(id, { stage: 'filling in the sheet templates', percent: 25 }).catch(() => {});
       });
       const htmlBytes = Buffer.byteLength(built.html);
       await update(id, { state: 'printing', stage: 'loading the sheet into the printer', percent: 30, htmlBytes });
       let pdfStarted = 0;
       const expectedMs = htmlBytes * msPerByte;
-      const pdf = await deps.printer.print(built.html, built.paper, {
+      const pdf = await workDeps.printer.print(built.html, built.paper, {
         priority: 'background',
         person: `job-${job.requestedById}`,
         label: `print-job-${id}`,
@@ -246,8 +260,12 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
       });
     } catch (err) {
       clearInterval(ticker);
-      // Shutting down: the row stays as it is and the next start queues it again.
-      if (closed && (err instanceof SheetBuildPoolClosedError || (err instanceof SheetPrintError && err.code === 'printer-closed'))) return;
+      // Shutting down: the row stays as it is; the next start (in-process) or another process
+      // (the durable queue, which is told so by the throw) takes it again.
+      if (err instanceof SheetBuildPoolClosedError || (err instanceof SheetPrintError && err.code === 'printer-closed')) {
+        if (attempt.last && closed) return;
+        if (!attempt.last) throw err;
+      }
       if (err instanceof AppError || err instanceof SheetPrintError) {
         await fail(id, err.message);
         return;
@@ -256,25 +274,6 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
       const why = err instanceof SheetBuildError ? 'the sheet could not be built' : 'the server could not finish it';
       await fail(id, `The calc sheet PDF could not be made (${why}). Ask for it again; if it keeps happening, tell your admin.`);
     }
-  }
-
-  function pump(): Promise<void> {
-    if (!pumping) {
-      pumping = (async () => {
-        try {
-          while (!closed) {
-            const job = await claim();
-            if (!job) break;
-            await runJob(job);
-          }
-        } catch (err) {
-          if (!closed) deps.log('The print job runner stopped', err);
-        } finally {
-          pumping = null;
-        }
-      })();
-    }
-    return pumping;
   }
 
   return {
@@ -291,8 +290,15 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
         );
       }
       const created = await Jobs.create({ runId, requestedById: personId, state: 'queued', stage: 'waiting for its turn', percent: 0, attempts: 0 });
-      void pump();
-      return viewOf(created.get({ plain: true }) as JobRow);
+      const row = created.get({ plain: true }) as JobRow;
+      try {
+        await deps.queue.send('print-sheet', { id: Number(row.id) }, { priority: 'background' });
+      } catch (err) {
+        deps.log(`Print job ${row.id} could not be queued`, err);
+        await fail(Number(row.id), 'This PDF could not be handed to the print queue; ask for it again, and if it keeps happening tell your admin.').catch(() => {});
+        throw new AppError('print-job-not-queued', 'The calc sheet PDF could not be handed to the print queue; ask for it again, and if it keeps happening tell your admin.', 503);
+      }
+      return viewOf(row);
     },
     async get(jobId, personId) {
       return viewOf(await ownRow(jobId, personId));
@@ -314,6 +320,8 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
       }
     },
     async resume() {
+      // pg-boss keeps its jobs across restarts and tries them again itself.
+      if (deps.queue.durable) return { requeued: 0, failed: 0 };
       const tired = (await Jobs.findAll({ where: { state: ['building', 'printing'], attempts: { [Op.gte]: JOB_TRIES } }, attributes: ['id'], raw: true })) as unknown as { id: number }[];
       for (const row of tired) {
         await fail(
@@ -325,11 +333,24 @@ export function printJobsCreate(deps: PrintJobsDeps): PrintJobs {
         { state: 'queued', stage: 'waiting for its turn (queued again after a server restart)', percent: 0 },
         { where: { state: ['building', 'printing'] } },
       );
-      void pump();
+      const waiting = (await Jobs.findAll({ where: { state: 'queued' }, attributes: ['id'], order: [['id', 'ASC']], raw: true })) as unknown as { id: number }[];
+      for (const row of waiting) await deps.queue.send('print-sheet', { id: Number(row.id) }, { priority: 'background' });
       return { requeued, failed: tired.length };
     },
+    async work(jobId, attempt, workDeps) {
+      if (closed) throw new Error('This process is stopping; the print job is left to another.');
+      const job = await claim(jobId);
+      if (!job) return;
+      await runJob(job, attempt, workDeps);
+    },
+    async givenUp(jobId) {
+      await Jobs.update(
+        { state: 'failed', stage: 'failed', error: `The calc sheet PDF was not made in its time limit after ${JOB_TRIES} tries; ask for it again, and if it keeps happening tell your admin.`, finishedAt: now() },
+        { where: { id: jobId, state: UNFINISHED } },
+      );
+    },
     async idle() {
-      while (pumping) await pumping;
+      await deps.queue.idle();
     },
     async close() {
       closed = true;

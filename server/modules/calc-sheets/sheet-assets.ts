@@ -67,6 +67,7 @@ const HAN_AND_KANA: [number, number][] = [
   [0xfe10, 0xfe1f], // Vertical Forms
   [0xfe30, 0xfe4f], // CJK Compatibility Forms
   [0xff00, 0xffef], // Halfwidth and Fullwidth Forms
+  [0x1f200, 0x1f2ff], // Enclosed Ideographic Supplement (🈀 U+1F200, a squared hiragana, is in the Japanese package)
   [0x20000, 0x3ffff], // Supplementary and Tertiary Ideographic Planes
 ];
 const HANGUL: [number, number][] = [
@@ -78,7 +79,7 @@ const HANGUL: [number, number][] = [
 const THAI: [number, number][] = [[0x0e00, 0x0e7f]];
 
 /**
- * Chinese (with Japanese kana), Korean and Thai: @fontsource/noto-sans-sc, -kr and -thai. The CJK
+ * Chinese, Japanese, Korean and Thai: @fontsource/noto-sans-sc, -jp, -tc, -kr and -thai. The CJK
  * packages split their font into about a hundred numbered subsets by unicode-range; each subset is
  * its own face here, so a sheet carries only the subsets its characters fall in. Each face's range
  * is cut down to its script's blocks (`blocks`): the numbered subsets also hold Latin letters and
@@ -87,19 +88,42 @@ const THAI: [number, number][] = [[0x0e00, 0x0e7f]];
  * These faces join the 'Noto Sans' family (one family may be made of faces with different
  * unicode-ranges, CSS Fonts Level 4 §4.5), so every font stack that names 'Noto Sans' (the sheet's
  * CSS, KaTeX's stacks, the drawings' SVG) reaches them without being edited. Where two faces of
- * the family cover one character the face declared last is tried first (§4.5): Korean comes before
- * Chinese in the list, so a Han character prints in the Chinese face when it has it and in the
- * Korean face otherwise.
+ * the family cover one character the face declared last is tried first (§4.5). The list runs
+ * Korean, Traditional Chinese, Japanese, Simplified Chinese, so a Han character or kana prints in
+ * the Simplified Chinese face when that has it (as before the Japanese and Traditional Chinese
+ * packages joined), else in the Japanese face (the seven rare kana ゔゕゖヷヸヹヺ and some 500 Han
+ * characters), else the Traditional Chinese one, else the Korean one. Each package's numbered
+ * subsets hold only the characters its language uses most, so together they still leave out
+ * 3 914 of the 20 992 code points of CJK Unified Ideographs U+4E00–9FFF (tests/sheet-fonts.test.ts).
  */
-const nfcStable = (c: number) => String.fromCodePoint(c).normalize('NFC') === String.fromCodePoint(c);
-const CJK_FACES: { pkg: string; family: string; subsets: RegExp; blocks: [number, number][]; keep?: (c: number) => boolean }[] = [
+const CJK_FACES: { pkg: string; family: string; subsets: RegExp; blocks: [number, number][] }[] = [
   { pkg: 'noto-sans-kr', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: [...HANGUL, ...HAN_AND_KANA] },
-  // Of the CJK Compatibility Ideographs block the Chinese package keeps only the twelve unified
-  // ideographs in it (﨑 U+FA11, …: the characters NFC leaves alone). Its unicode-ranges also name
-  // compatibility ideographs it has no glyph for (U+F9E1, for one), which the Korean package has.
-  { pkg: 'noto-sans-sc', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: HAN_AND_KANA, keep: (c) => c < 0xf900 || c > 0xfaff || nfcStable(c) },
+  { pkg: 'noto-sans-tc', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: HAN_AND_KANA },
+  { pkg: 'noto-sans-jp', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: HAN_AND_KANA },
+  { pkg: 'noto-sans-sc', family: 'Noto Sans', subsets: /^\[(\d+)\]$/, blocks: HAN_AND_KANA },
   { pkg: 'noto-sans-thai', family: 'Noto Sans', subsets: /^(thai)$/, blocks: THAI },
 ];
+
+/**
+ * The CJK packages' unicode-ranges name code points their font files have no glyph for: the
+ * Simplified Chinese one 994 (compatibility ideographs such as U+F9E1, U+9FF0–9FFF, …), the
+ * Traditional Chinese one 3 145, the Korean one 100, the Japanese one none. A face chosen for
+ * such a character would print an empty box while another package has the glyph, so each face's
+ * range leaves them out. The list is read from the font files' character maps by fc-query
+ * (scripts/cjk-range-gaps.mjs writes cjk-range-gaps.json; tests/sheet-fonts.test.ts checks it
+ * against the installed files).
+ */
+function cjkRangeGaps(): Map<string, Set<number>> {
+  const file = path.join(path.dirname(fileURLToPath(import.meta.url)), 'cjk-range-gaps.json');
+  const data = JSON.parse(fs.readFileSync(file, 'utf8')) as Record<string, { version: string; gaps: string }>;
+  const out = new Map<string, Set<number>>();
+  for (const [pkg, { gaps }] of Object.entries(data)) {
+    const set = new Set<number>();
+    if (gaps) for (const [lo, hi] of parseUnicodeRange(gaps)) for (let c = lo; c <= hi; c++) set.add(c);
+    out.set(pkg, set);
+  }
+  return out;
+}
 
 export interface FontFace {
   family: string;
@@ -177,8 +201,11 @@ function notoFaces(): FontFace[] {
       }
     }
   }
-  for (const [rank, { pkg, family, subsets, blocks, keep }] of CJK_FACES.entries()) {
+  const gaps = cjkRangeGaps();
+  for (const [rank, { pkg, family, subsets, blocks }] of CJK_FACES.entries()) {
     const { dir, ranges } = fontsourceRanges(pkg);
+    const lacking = gaps.get(pkg);
+    const keep = lacking?.size ? (c: number) => !lacking.has(c) : undefined;
     let found = 0;
     for (const [key, range] of Object.entries(ranges)) {
       const m = subsets.exec(key);

@@ -84,6 +84,11 @@ async function readInWorker(bytes: Buffer, options: DxfImportOptions, listLayers
         return { status: 'imported', layers: outcome.layers, result: JSON.parse(resultJson) as DxfImportResult, resultJson };
       }
       if (!FIXED_BY_OPTIONS.has(outcome.imported.error.code)) throw new AppError(outcome.imported.error.code, outcome.imported.error.message, 422);
+      // No layer holds a line: no choice of layers or units can fix that, so the upload is
+      // refused with that sentence (never first asked for its units, never kept).
+      if (outcome.imported.error.code === 'no-lines' && outcome.layers && !outcome.layers.some((l) => l.holdsLines)) {
+        throw new AppError('no-lines', outcome.imported.error.message, 422);
+      }
       return { status: 'failed', layers: outcome.layers, error: outcome.imported.error };
     case 'refused':
       throw new AppError(outcome.error.code, outcome.error.message, 422);

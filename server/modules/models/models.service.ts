@@ -1,4 +1,5 @@
 import { QueryTypes, type Transaction } from 'sequelize';
+import { readRows } from '../../db/read-rows';
 import { capitalised, modelSaveName } from '@shared/text/citations';
 import type { JointLoad, TrussModel } from '@shared/model/truss';
 import { roofLoadsProblem } from '@shared/model/roof-loads';
@@ -28,7 +29,7 @@ async function toView(r: TrussModelRecord): Promise<TrussModelView> {
 export async function getModel(trussId: number): Promise<TrussModelView> {
   // Read on every visit to a truss: the truss, its model and the name of who saved it last in
   // one hand-written query of plain rows, not three model reads (bench:api).
-  const rows = await TrussModelRecord.sequelize!.query<{
+  const rows = await readRows<{
     truss: number;
     trussId: number | null;
     drawingId: number | null;
@@ -38,12 +39,13 @@ export async function getModel(trussId: number): Promise<TrussModelView> {
     updatedAt: string | Date;
     updatedBy: string | null;
   }>(
+    TrussModelRecord.sequelize!,
     `SELECT t."id" AS "truss", m."trussId", m."drawingId", m."model", m."takeoff", m."version", m."updatedAt", u."name" AS "updatedBy"
        FROM "trusses" t
        LEFT JOIN "truss_models" m ON m."trussId" = t."id"
        LEFT JOIN "users" u ON u."id" = m."updatedById"
       WHERE t."id" = :trussId`,
-    { type: QueryTypes.SELECT, replacements: { trussId }, raw: true },
+    { trussId },
   );
   const r = rows[0];
   if (!r) throw notFound('That truss');

@@ -1,4 +1,5 @@
-import { fn, col, QueryTypes } from 'sequelize';
+import { fn, col } from 'sequelize';
+import { readRows } from '../../db/read-rows';
 import type { ProjectView, TrussView } from '@shared/schemas/project.schema';
 import { Project, Truss } from '../../db/models';
 import { sqlDateIso } from '../../db/sql-dates';
@@ -47,14 +48,15 @@ export const projectsRepository = {
   async list(includeArchived: boolean): Promise<ProjectView[]> {
     // The list is read on every visit to the projects page: one hand-written query with the
     // truss counts joined in, plain rows (no model instances, no query building; bench:api).
-    const rows = await Project.sequelize!.query<ProjectRow & { trussCount: number | string }>(
+    const rows = await readRows<ProjectRow & { trussCount: number | string }>(
+      Project.sequelize!,
       `SELECT p."id", p."name", p."jobNumber", p."client", p."site", p."designBasis", p."unitSystem", p."archived", p."createdAt", p."updatedAt",
               COUNT(t."id") AS "trussCount"
          FROM "projects" p LEFT JOIN "trusses" t ON t."projectId" = p."id"
         ${includeArchived ? '' : 'WHERE p."archived" = :no'}
         GROUP BY p."id"
         ORDER BY p."updatedAt" DESC`,
-      { type: QueryTypes.SELECT, replacements: { no: false }, raw: true },
+      includeArchived ? {} : { no: false },
     );
     return rows.map((p) => toProjectView(p, Number(p.trussCount)));
   },

@@ -17,7 +17,8 @@ export async function searchArchive(query: { q?: string; jobNumber?: string; pro
   }
   return lines
     .map((l) => archiveEntry(l.row, l.context, labels))
-    .sort((a, b) => b.issuedAt.localeCompare(a.issuedAt) || b.sheetId - a.sheetId);
+    // Newest first. ISO texts of one form order as their code units do: no locale collation needed.
+    .sort((a, b) => (a.issuedAt < b.issuedAt ? 1 : a.issuedAt > b.issuedAt ? -1 : b.sheetId - a.sheetId));
 }
 
 export async function getIssuedPdf(id: number, store: FileStore): Promise<{ bytes: Buffer; name: string }> {
@@ -66,12 +67,17 @@ export function archiveEntry(r: ArchiveRevisionRow, c: TrussContext, labels: Map
     number: r.number,
     label: sheetRevisionLabel(r.number),
     status: r.status as 'issued' | 'superseded',
-    issuedAt: r.issuedAt?.toISOString() ?? '',
+    issuedAt: isoOf(r.issuedAt),
     sha256: r.sha256 ?? '',
     size: r.pdfSize ?? 0,
     signers: safeSigners(r),
     supersededBy: r.supersededById === null ? null : { id: r.supersededById, label: labels.get(r.supersededById) ?? '' },
   };
+}
+
+function isoOf(d: Date | string | null): string {
+  if (typeof d === 'string') return d;
+  return d && !Number.isNaN(d.getTime()) ? d.toISOString() : '';
 }
 
 function safeSigners(r: ArchiveRevisionRow) {

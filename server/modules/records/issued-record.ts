@@ -26,13 +26,19 @@ export interface IssuedRecord {
   issuedAt: string;
 }
 
-const iso = (d: Date | null, what: string, id: number): string => {
-  if (!d || Number.isNaN(d.getTime())) throw new Error(`Sheet revision ${id} has no ${what} date; it cannot be signed or verified.`);
+/** The date as ISO text; text is taken as already that (the archive list reads its dates so). */
+const iso = (d: Date | string | null, what: string, id: number): string => {
+  if (typeof d === 'string' && d) return d;
+  if (!d || typeof d === 'string' || Number.isNaN(d.getTime())) throw new Error(`Sheet revision ${id} has no ${what} date; it cannot be signed or verified.`);
   return d.toISOString();
 };
 
-/** The columns of a revision that name its signers and their dates. */
-export type SignerColumns = Pick<RevisionRow, 'id' | 'preparedById' | 'preparedByName' | 'submittedAt' | 'checkedById' | 'checkedByName' | 'checkedAt' | 'issuedById' | 'issuedByName' | 'issuedAt'>;
+/** The columns of a revision that name its signers and their dates (Dates, or ISO text from the archive list). */
+export type SignerColumns = Pick<RevisionRow, 'id' | 'preparedById' | 'preparedByName' | 'checkedById' | 'checkedByName' | 'issuedById' | 'issuedByName'> & {
+  submittedAt: Date | string | null;
+  checkedAt: Date | string | null;
+  issuedAt: Date | string | null;
+};
 
 export function issuedSigners(row: SignerColumns): SheetSignerView[] {
   return [

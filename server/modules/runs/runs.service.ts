@@ -14,8 +14,16 @@ import { reactionsCsv } from './reactions-csv';
 import * as repo from './runs.repository';
 import type { RunRow } from './runs.repository';
 import { SolvePoolClosedError, type SolvePool, type SolveSummary } from './solve-pool';
+import type { JobAttempt, JobQueue } from '../../workers/job-queue';
 
+/** What the routes need: the queue a new run is handed to (in this process or pg-boss's). */
 export interface RunsDeps {
+  queue: Pick<JobQueue, 'send'>;
+  log: (msg: string, err?: unknown) => void;
+}
+
+/** What the process that solves needs (the app with the in-process queue, or `npm run worker`). */
+export interface RunSolveDeps {
   pool: SolvePool;
   log: (msg: string, err?: unknown) => void;
 }
@@ -78,7 +86,16 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
     startedAt: null,
     finishedAt: error ? now : null,
   });
-  if (!error) void solveRun(row.id, model, deps);
+  if (!error) {
+    try {
+      await deps.queue.send('solve-run', { id: row.id }, { priority: 'run' });
+    } catch (err) {
+      deps.log(`Analysis run ${row.id} (row id) could not be queued`, err);
+      const message = 'The run could not be handed to the solver queue. Run it again; if it keeps happening, tell your admin.';
+      await repo.updateRun(row.id, { status: 'failed', error: JSON.stringify({ code: 'run-not-queued', message }), finishedAt: new Date(), progress: progress('done', 1) }).catch(() => {});
+      throw new AppError('run-not-queued', message, 503);
+    }
+  }
   return summaryView(row, record.version);
 }
 
@@ -183,8 +200,18 @@ export async function recheckDesign(runId: number, input: DesignRecheckInput): P
   return summaryView({ ...row, modelVersion: record.version, summary: JSON.stringify(summary) }, record.version);
 }
 
-/** Runs the solve in the pool and records each change of status; never throws. */
-async function solveRun(runId: number, model: TrussModel, deps: RunsDeps): Promise<void> {
+/**
+ * The queue's handler for 'solve-run': solves the run's stored snapshot in this process's pool
+ * and records each change of status, progress and the outcome on the run's row (which every app
+ * process reads). A run already finished (a retry after its result was stored) or removed is
+ * left alone. A model the solver refuses or that stops the solver is a failed run with its
+ * sentence, never retried; a fault of the database or a shutdown is thrown for the queue to try
+ * again, and on the queue's last try the run is marked failed instead.
+ */
+export async function solveRunJob(runId: number, attempt: JobAttempt, deps: RunSolveDeps): Promise<void> {
+  const row = await repo.findRun(runId);
+  if (!row || (row.status !== 'queued' && row.status !== 'running')) return;
+  const model = JSON.parse(row.model) as TrussModel;
   let started: Promise<void> = Promise.resolve();
   try {
     const outcome = await deps.pool.solve(model, () => {
@@ -204,21 +231,48 @@ async function solveRun(runId: number, model: TrussModel, deps: RunsDeps): Promi
       progress: progress('done', 1),
     });
   } catch (err) {
-    // Shutting down: the run stays queued/running in the table and can be run again.
-    if (err instanceof SolvePoolClosedError) return;
-    try {
-      await started;
-      await repo.updateRun(runId, {
-        status: 'failed',
-        error: JSON.stringify({ code: 'run-not-stored', message: 'The server could not store this run. Run it again; if it keeps happening, tell your admin.' }),
-        finishedAt: new Date(),
-        progress: progress('done', 1),
-      });
-    } catch {
-      // The database itself is gone (shutdown); nothing more to record.
+    // Shutting down: the run stays queued/running; a durable queue tries again in another
+    // process, the in-process queue leaves it to the next start (runsFailInterrupted).
+    if (err instanceof SolvePoolClosedError) {
+      if (attempt.last) return;
+      throw err;
     }
+    if (!attempt.last) {
+      deps.log(`Analysis run ${runId} (row id) could not be completed on try ${attempt.attempt}; the queue tries again`, err);
+      throw err;
+    }
+    await runFailedNotStored(runId, started);
     deps.log(`Analysis run ${runId} (row id) could not be completed`, err);
   }
+}
+
+async function runFailedNotStored(runId: number, started: Promise<void> = Promise.resolve()): Promise<void> {
+  try {
+    await started;
+    await repo.updateRun(runId, {
+      status: 'failed',
+      error: JSON.stringify({ code: 'run-not-stored', message: 'The server could not store this run. Run it again; if it keeps happening, tell your admin.' }),
+      finishedAt: new Date(),
+      progress: progress('done', 1),
+    });
+  } catch {
+    // The database itself is gone (shutdown); nothing more to record.
+  }
+}
+
+/**
+ * The queue gave up on a run (every try ran out of time or its process died): the run, if it is
+ * still unfinished, fails with a sentence instead of spinning in the list.
+ */
+export async function solveRunGivenUp(runId: number): Promise<void> {
+  const row = await repo.findRun(runId);
+  if (!row || (row.status !== 'queued' && row.status !== 'running')) return;
+  await repo.updateRun(runId, {
+    status: 'failed',
+    error: JSON.stringify({ code: 'run-given-up', message: 'The solver did not finish this run in its time limit after three tries. Run it again; if it keeps happening, tell your admin.' }),
+    finishedAt: new Date(),
+    progress: progress('done', 1),
+  });
 }
 
 /** A truss's runs, newest first, each marked stale when the model was saved after it. */

@@ -42,10 +42,11 @@ const WORKER_ENTRY = new URL('./solve-worker-entry.mjs', import.meta.url);
 
 /**
  * A small pool of solver worker threads (default one: the main thread keeps the other core).
+ * With `timeLimitMs` a solve still working then is stopped (a failed run with a sentence).
  * Workers start on the first job and stay for the next; a worker that dies fails its job with
  * 'solver-stopped' and is replaced on demand.
  */
-export function solvePoolCreate(options: { size?: number } = {}): SolvePool {
+export function solvePoolCreate(options: { size?: number; timeLimitMs?: number } = {}): SolvePool {
   const pool = threadPoolCreate<Omit<SolveJob, 'jobId'>, SolveReply>({
     entry: WORKER_ENTRY,
     size: options.size,
@@ -53,8 +54,14 @@ export function solvePoolCreate(options: { size?: number } = {}): SolvePool {
   });
   return {
     async solve(model, onStart) {
-      const outcome = await pool.run({ model }, { onStart });
+      const outcome = await pool.run({ model }, { onStart, timeLimitMs: options.timeLimitMs });
       if (outcome.type === 'done' && outcome.reply.type !== 'started') return outcome.reply;
+      if (outcome.type === 'timed-out') {
+        return {
+          type: 'failed',
+          error: { code: 'solver-time-limit', message: `The solver was still working after ${outcome.seconds} s, its time limit, and was stopped. Check the model (a very large or badly connected truss), then run it again.` },
+        };
+      }
       const why = outcome.type === 'stopped' ? outcome.why : outcome.type;
       return {
         type: 'failed',

@@ -4,6 +4,7 @@ import type { SheetPrinter } from '../calc-sheets/sheet-printer';
 import type { SheetBuildPool } from '../calc-sheets/sheet-build-pool';
 import type { RunSheetInput } from '../calc-sheets/run-sheet.service';
 import type { SheetRenderer } from './sheet-renderer';
+import { revisionHistoryOf } from './revision-compare.service';
 
 /**
  * The issued calc sheet through the calc-sheet module: view builder → Handlebars HTML → the
@@ -20,9 +21,12 @@ export function calcSheetRenderer(deps: {
   return {
     async renderPdf({ runId, revisionLabel, signatures, issue }) {
       const base = await deps.loadRunSheet(runId);
+      // The revision table: the issued copy prints the history up to itself, dated as issued now.
+      const revisionHistory = issue ? await revisionHistoryOf(issue.sheetId, signatures ? { issuedAt: signatures.issuedBy.date } : {}) : undefined;
       const input: CalcSheetInput = {
         ...base,
         revision: revisionLabel,
+        ...(revisionHistory ? { revisionHistory } : {}),
         preparedBy: signatures ? { name: signatures.preparedBy.name, date: signatures.preparedBy.date.slice(0, 10) } : undefined,
         checkedBy: signatures ? { name: signatures.checkedBy.name, date: signatures.checkedBy.date.slice(0, 10) } : undefined,
         issuedBy: signatures ? { name: signatures.issuedBy.name, date: signatures.issuedBy.date.slice(0, 10) } : undefined,

@@ -5,6 +5,8 @@ import { idParam, validateBody } from '../../middleware/validate';
 import * as review from './sheet-revisions.service';
 import * as comments from './sheet-comments.service';
 import { revisionSheetHtml } from './revision-preview';
+import { compareRevisions } from './revision-compare.service';
+import { AppError } from '../../errors/app-error';
 
 const actorOf = (req: Request): review.Actor => ({ id: req.user!.id, name: req.user!.name, role: req.user!.role });
 
@@ -21,6 +23,18 @@ export function sheetRevisionsRoutes(registry: RouteSpec[], deps: review.ReviewS
   });
   routes.add('get', '/sheets/:id', ANY_ROLE, async (req, res) => {
     res.json(await review.getRevision(idParam(req.params.id, 'That sheet revision'), deps));
+  });
+  routes.add('get', '/sheets/:id/compare', ANY_ROLE, async (req, res) => {
+    const id = idParam(req.params.id, 'That sheet revision');
+    const raw = req.query.with;
+    let withId: number | undefined;
+    if (raw !== undefined) {
+      withId = typeof raw === 'string' && /^[1-9][0-9]{0,15}$/.test(raw) ? Number(raw) : NaN;
+      if (!Number.isSafeInteger(withId)) {
+        throw new AppError('bad-compare-with', '"with" must be the id of another sheet revision of this truss, a whole number (e.g. ?with=12).', 422);
+      }
+    }
+    res.json(await compareRevisions(id, withId));
   });
   routes.add('get', '/sheets/:id/preview', ANY_ROLE, async (req, res) => {
     res.type('html').send(await revisionSheetHtml(idParam(req.params.id, 'That sheet revision'), deps.publicUrl));

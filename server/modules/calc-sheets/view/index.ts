@@ -16,6 +16,7 @@ import { residualSection } from './residual';
 import type { CalcSheetInput, CalcSheetView, StepView } from './types';
 import { deflectionSection } from './deflection';
 import { designChecksSection } from './design-checks';
+import { revisionTableSection } from './revision-table';
 
 /**
  * The sections of the sheet in the order of its contents. A new section is a new file in this
@@ -23,6 +24,7 @@ import { designChecksSection } from './design-checks';
  */
 const SECTIONS = [
   titleBlockSection,
+  revisionTableSection,
   designBasisSection,
   geometrySection,
   supportsSection,

@@ -45,6 +45,12 @@ export interface CalcSheetInput {
   generatedAt: Date | string;
   /** Set on the issued print only: the copy's id, fingerprint and verify address (every page, last page). */
   issue?: { sheetId: number; fingerprint: string; fingerprintOf: string; verifyUrl: string } | null;
+  /**
+   * The revision table of a sheet revision: every revision of the truss up to this one, with its
+   * date and what changed against the one before (sheet-revisions/revision-compare.service.ts).
+   * Absent on a run's draft, which is no revision yet.
+   */
+  revisionHistory?: { revision: string; date: string; status: string; lines: string[] }[];
 }
 
 /** A step of the sheet: a stable anchor id (the solver's step id), a title and typeset lines. */
@@ -200,6 +206,8 @@ export interface CalcSheetView {
     units: { length: string; force: string; area: string; stress: string };
   };
   generatedAt: string;
+  /** The cover's revision table (view/revision-table.ts); no rows on a draft. */
+  revisionTable: { rows: { revision: string; date: string; status: string; lines: string[] }[] };
 }
 
 /** One design group on the sheet. */

@@ -19,6 +19,10 @@ interface SheetPreviewProps {
   onAnchors?: (anchors: string[]) => void;
   /** Each anchor's heading on the sheet, once it has loaded. */
   onTitles?: (titles: Record<string, string>) => void;
+  /** Steps that changed since the revision compared with: anchor → 'changed' or 'added'. */
+  changed?: ReadonlyMap<string, 'changed' | 'added'>;
+  /** Unchanged steps to fold (runs of them collapse behind a button with their count); null: fold nothing. */
+  fold?: ReadonlySet<string> | null;
 }
 
 // Marks drawn into the sheet's own document: which steps can be clicked, carry threads, are chosen.
@@ -29,13 +33,42 @@ const PREVIEW_STYLE = `
   [data-pp-threads][data-pp-open] { box-shadow: -5px 0 0 -1px #a33a2b; }
   [data-pp-threads]::after {
     content: attr(data-pp-threads); position: absolute; top: 0; right: calc(100% + 9px); padding: 1px 5px; white-space: nowrap;
-    font: 600 10px/1.4 Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans KR', 'Noto Sans Thai', system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
+    font: 600 10px/1.4 Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', 'Noto Sans SC', 'Noto Sans JP', 'Noto Sans KR', 'Noto Sans TC', 'Noto Sans Thai', system-ui, sans-serif; color: #55585c; background: #f3efe7; border-radius: 3px;
   }
   [data-pp-threads][data-pp-open]::after { color: #a33a2b; background: #faeeec; }
   [data-pp-selected] { outline: 2px solid #12605a !important; outline-offset: 3px; background-color: rgba(217, 235, 232, 0.35); }
   @keyframes pp-flash { from { background-color: rgba(217, 235, 232, 0.9); } to { background-color: transparent; } }
   [data-pp-flash] { animation: pp-flash 1.4s ease-out; }
+  [data-pp-changed] { position: relative; background-color: rgba(219, 232, 228, 0.45); }
+  [data-pp-changed]::before {
+    content: attr(data-pp-changed); position: absolute; top: 0; right: 0; padding: 1px 6px;
+    font: 600 10px/1.4 Inter, 'Noto Sans', system-ui, sans-serif; color: #fdfcf9; background: #0f5a55; border-radius: 2px;
+  }
+  [data-pp-folded] { display: none !important; }
+  .pp-fold {
+    display: block; width: 100%; margin: 2mm 0; padding: 4px 8px; text-align: left; cursor: pointer;
+    font: 500 11px/1.4 Inter, 'Noto Sans', system-ui, sans-serif; color: #4f5357; background: #f4f1ea; border: 1px dashed #8a8275; border-radius: 2px;
+  }
+  .pp-fold:hover { color: #26292b; border-color: #4f5357; }
 `;
+
+/** "6.1–6.4" from the first and last printed numbers of a run of steps. */
+function numberRange(steps: Element[]): string {
+  const numbers = steps.map((el) => el.querySelector('.step-no')?.textContent?.trim()).filter((n): n is string => Boolean(n));
+  if (numbers.length === 0) return '';
+  return numbers.length === 1 ? numbers[0]! : `${numbers[0]}\u2013${numbers[numbers.length - 1]}`;
+}
+
+/** Opens the folded run a step lies in (the run's button stands just before its first step). */
+function unfold(el: Element): void {
+  if (!el.hasAttribute('data-pp-folded')) return;
+  for (let prev = el.previousElementSibling; prev; prev = prev.previousElementSibling) {
+    if (prev.classList.contains('pp-fold')) {
+      (prev as HTMLButtonElement).click();
+      return;
+    }
+  }
+}
 
 function threadLabel(open: number): string {
   return open > 0 ? `${open} open` : 'resolved';
@@ -47,7 +80,7 @@ type LoadState = { kind: 'loading' } | { kind: 'ready' } | { kind: 'missing'; me
  * The revision's calc sheet, in a same-origin frame, as the PDF will print it. Clicking a step
  * picks its anchor for a comment; steps with threads carry a mark in the margin.
  */
-export function SheetPreview({ src, commented, selected, focus, onPickStep, onAnchors, onTitles }: SheetPreviewProps) {
+export function SheetPreview({ src, commented, selected, focus, onPickStep, onAnchors, onTitles, changed, fold }: SheetPreviewProps) {
   const frame = useRef<HTMLIFrameElement>(null);
   const [doc, setDoc] = useState<Document | null>(null);
   const [state, setState] = useState<LoadState>({ kind: 'loading' });
@@ -114,9 +147,48 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
   }, [doc, selected]);
 
   useEffect(() => {
+    if (!doc) return;
+    for (const el of doc.querySelectorAll('[data-pp-changed]')) el.removeAttribute('data-pp-changed');
+    for (const el of doc.querySelectorAll('[data-pp-folded]')) el.removeAttribute('data-pp-folded');
+    for (const el of doc.querySelectorAll('.pp-fold')) el.remove();
+    for (const [anchor, kind] of changed ?? []) doc.getElementById(anchor)?.setAttribute('data-pp-changed', kind === 'added' ? 'new step' : 'changed');
+    if (!fold) return;
+    // Runs of unchanged steps standing next to one another collapse behind one button each.
+    let run: Element[] = [];
+    const flush = () => {
+      if (run.length === 0) return;
+      const steps = run;
+      run = [];
+      const button = doc.createElement('button');
+      button.type = 'button';
+      button.className = 'pp-fold';
+      button.setAttribute('data-pp-fold-count', String(steps.length));
+      button.textContent = `${steps.length} unchanged step${steps.length === 1 ? '' : 's'} (${numberRange(steps)}) folded — show`;
+      button.addEventListener('click', (event) => {
+        // Not a pick of the section around it for a comment.
+        event.stopPropagation();
+        for (const step of steps) step.removeAttribute('data-pp-folded');
+        button.remove();
+      });
+      steps[0]!.before(button);
+      for (const step of steps) step.setAttribute('data-pp-folded', '');
+    };
+    for (const el of doc.querySelectorAll('article.step[id]')) {
+      if (!fold.has(el.id)) {
+        flush();
+        continue;
+      }
+      if (run.length && run[run.length - 1]!.nextElementSibling !== el) flush();
+      run.push(el);
+    }
+    flush();
+  }, [doc, changed, fold]);
+
+  useEffect(() => {
     if (!doc || !focus) return;
     const el = doc.getElementById(focus.anchor);
     if (!el) return;
+    unfold(el);
     el.scrollIntoView({ block: 'start', behavior: 'smooth' });
     el.removeAttribute('data-pp-flash');
     void el.getBoundingClientRect();

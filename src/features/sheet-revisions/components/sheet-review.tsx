@@ -9,6 +9,8 @@ import { canCommentOnSheet, isSheetFrozen } from '../utils/sheet-actions';
 import { stepLabel } from '../utils/step-anchor';
 import { CommentComposer, CommentThreads } from './comment-threads';
 import { SheetPreview, type StepFocus } from './sheet-preview';
+import { useSheetCompare } from '../api/get-sheet-compare';
+import { RevisionChanges } from './revision-changes';
 
 /**
  * Reading and commenting: the sheet as it prints on the left, its comment threads by step on the
@@ -25,6 +27,19 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
   const [show, setShow] = useState<'all' | 'open'>('all');
   const siblings = useTrussSheets(sheet.trussId);
   const canComment = canCommentOnSheet(user, sheet.status);
+  // What changed since the revision before (or one chosen): a first revision has nothing to compare with.
+  const [compareWith, setCompareWith] = useState<number | undefined>(undefined);
+  const [folded, setFolded] = useState(true);
+  const compare = useSheetCompare(sheet.id, { enabled: sheet.number > 1 || compareWith !== undefined, withId: compareWith });
+  const changedSteps = useMemo(
+    () => (compare.data ? new Map(compare.data.steps.changed.map((s) => [s.id, s.change] as const)) : undefined),
+    [compare.data],
+  );
+  const foldSteps = useMemo(() => (compare.data && folded ? new Set(compare.data.steps.unchanged) : null), [compare.data, folded]);
+  const compareOthers = useMemo(
+    () => (siblings.data ?? []).filter((r) => r.id !== sheet.id).sort((a, b) => a.number - b.number).map((r) => ({ id: r.id, label: r.label })),
+    [siblings.data, sheet.id],
+  );
 
   const groups = useMemo(() => groupCommentsByStep(sheet.comments, stepOrder, show), [sheet.comments, stepOrder, show]);
   const commented = useMemo(() => {
@@ -86,6 +101,28 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
         </section>
       )}
 
+      {compare.data && (
+        <RevisionChanges
+          compare={compare.data}
+          others={compareOthers}
+          withId={compareWith}
+          onWith={setCompareWith}
+          folded={folded}
+          onFolded={setFolded}
+          onFocusStep={focusStep}
+        />
+      )}
+      {compare.isPending && (sheet.number > 1 || compareWith !== undefined) && (
+        <p role="status" className="text-xs text-ink-soft">
+          Comparing with the revision before…
+        </p>
+      )}
+      {compare.isError && (
+        <p role="alert" className="text-xs text-danger">
+          The changes since the revision before could not be shown: {compare.error.message}
+        </p>
+      )}
+
       <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <SheetPreview
           // The sheet's title block follows the revision's moves: lay it out again after each.
@@ -97,6 +134,8 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
           onPickStep={canComment ? pickStep : undefined}
           onAnchors={setStepOrder}
           onTitles={setStepTitles}
+          changed={changedSteps}
+          fold={foldSteps}
         />
 
         <aside className="flex max-h-[78vh] flex-col overflow-hidden rounded-xs border border-paper-line bg-paper-raised" aria-label="Comments">
