@@ -16,6 +16,7 @@ import { authRoutes } from './modules/auth/auth.routes';
 import { signInLimiterCreate } from './modules/auth/signin-limiter';
 import { addressLimiterCreate } from './modules/auth/request-limiter';
 import { usersRoutes } from './modules/users/users.routes';
+import { myWorkRoutes } from './modules/my-work/my-work.routes';
 import { firmRoutes } from './modules/firm/firm.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { projectsRoutes } from './modules/projects/projects.routes';
@@ -154,6 +155,7 @@ export function createApp(deps: AppDeps): CreatedApp {
   });
   app.use('/api', authRoutes(registry, passport, config, csrf.tokenFor, signInLimiter, { mailer: deps.mailer, publicUrl, log }));
   app.use('/api', usersRoutes(registry, { mailer: deps.mailer, publicUrl }));
+  app.use('/api', myWorkRoutes(registry));
   app.use('/api', firmRoutes(registry));
   app.use('/api', outboxRoutes(registry));
   app.use('/api', projectsRoutes(registry));

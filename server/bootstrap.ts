@@ -6,6 +6,7 @@ import { publicUrlRequired, type Config } from './config';
 import { createApp, type CreatedApp, type ReviewDeps } from './app';
 import { openDatabase } from './db/sequelize';
 import { migrate } from './db/migrate';
+import { withStartLock } from './db/start-lock';
 import { Drawing, initModels } from './db/models';
 import { createMailer, type Mailer } from './mail/mailer';
 import { startSmtpSink, type SmtpSink } from './mail/smtp-sink';
@@ -55,16 +56,37 @@ export interface Services extends CreatedApp {
   shutdown(): Promise<void>;
 }
 
-/** Kept in the data folder so sessions survive a restart without a configured secret. */
-function sessionSecretFor(config: Config): string {
+/**
+ * The secret that signs session cookies and derives signed-out visitors' CSRF tokens
+ * (middleware/csrf.ts). Every server process behind one address must hold the same one, or a
+ * cookie set by one is refused by the other: SESSION_SECRET when given (the same value for
+ * every process), else the file `session-secret` in DATA_DIR, made once by whichever process
+ * starts first and read by every later start (processes sharing DATA_DIR share it). A random
+ * secret per start is used only for a :memory: database, which no second process can share.
+ * The file is written under a temporary name and hard-linked into place, so a process starting
+ * at the same moment either makes it or reads the complete file the other made, never a half
+ * written or second secret.
+ */
+export function sessionSecretFor(config: Pick<Config, 'sessionSecret' | 'databaseStorage' | 'dataDir'>): string {
   if (config.sessionSecret) return config.sessionSecret;
   if (config.databaseStorage === ':memory:') return crypto.randomBytes(32).toString('hex');
   const file = path.join(config.dataDir, 'session-secret');
   if (!fs.existsSync(file)) {
-    fs.mkdirSync(config.dataDir, { recursive: true });
-    fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+    fs.mkdirSync(config.dataDir, { recursive: true, mode: 0o700 });
+    const temp = `${file}.${process.pid}.${crypto.randomBytes(4).toString('hex')}.part`;
+    fs.writeFileSync(temp, crypto.randomBytes(32).toString('hex'), { mode: 0o600, flag: 'wx' });
+    try {
+      fs.linkSync(temp, file);
+    } catch (err) {
+      // Another process made it first: use theirs.
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw err;
+    } finally {
+      fs.rmSync(temp, { force: true });
+    }
   }
-  return fs.readFileSync(file, 'utf8').trim();
+  const secret = fs.readFileSync(file, 'utf8').trim();
+  if (secret.length < 16) throw new Error(`Configuration: the session secret file ${file} holds fewer than 16 characters; delete it to have a new one made (everyone is signed out), or set SESSION_SECRET.`);
+  return secret;
 }
 
 /** Opens the database, runs migrations, seeds the demo, starts the mail route, builds the app. */
@@ -84,65 +106,68 @@ export async function startServices(config: Config, options: { clientDir?: strin
     stores.close();
     throw err;
   }
-  await migrate(sequelize);
-  initModels(sequelize);
-  // The local folders (none on an object store): 0700, files 0600, including files an older
-  // version wrote with the default mode. The issued-sheets folder is made at its first write.
-  if (stores.kind === 'local') fs.mkdirSync(config.uploadsDir, { recursive: true, mode: 0o700 });
-  if (config.databaseStorage !== ':memory:') {
-    const tightened = await tightenModes([config.dataDir, ...stores.folders]);
-    if (tightened) say(`Made ${tightened} file(s) and folder(s) in the data and uploads folders readable by this user only (files 0600, folders 0700).`);
-  } else if (stores.kind === 'local') {
-    await tightenModes([config.uploadsDir]);
-  }
-  // The audit key (a file beside the signing key), before anything writes an audit line: a keyed
-  // log whose key file is missing or replaced refuses the start with one sentence.
+  const dataDirOrMemory = config.databaseStorage === ':memory:' ? null : config.dataDir;
+  // Everything from the migrations to the first admin's link runs under the start lock, so
+  // processes started together on one PostgreSQL database take turns (db/start-lock.ts). Any
+  // failure closes the database and the store before it is passed on: nothing half-started.
+  let signingKeys: SigningKeys;
+  let sessionSecret: string;
+  let queue: JobQueue | undefined;
   try {
-    await auditKeyOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
+    ({ signingKeys, sessionSecret } = await withStartLock(sequelize, async () => {
+      await migrate(sequelize);
+      initModels(sequelize);
+      // The local folders (none on an object store): 0700, files 0600, including files an older
+      // version wrote with the default mode. The issued-sheets folder is made at its first write.
+      if (stores.kind === 'local') fs.mkdirSync(config.uploadsDir, { recursive: true, mode: 0o700 });
+      if (dataDirOrMemory) {
+        const tightened = await tightenModes([config.dataDir, ...stores.folders]);
+        if (tightened) say(`Made ${tightened} file(s) and folder(s) in the data and uploads folders readable by this user only (files 0600, folders 0700).`);
+      } else if (stores.kind === 'local') {
+        await tightenModes([config.uploadsDir]);
+      }
+      // The audit key (a file beside the signing key), before anything writes an audit line: a keyed
+      // log whose key file is missing or replaced refuses the start with one sentence.
+      await auditKeyOpen(sequelize, { dataDir: dataDirOrMemory });
+      // The job queue: pg-boss's schema on the same PostgreSQL server, or this process.
+      queue = config.databaseUrl && config.jobQueue === 'pg-boss'
+        ? await pgBossQueueOpen(config.databaseUrl, { log: options.log, application: 'panelpoint-app' })
+        : inProcessQueueCreate({ log: options.log });
+      // Runs left unfinished by a stopped server can never finish with the in-process queue; a
+      // durable queue (pg-boss) keeps their jobs, and another process may be solving them now.
+      if (!queue.durable) await runsFailInterrupted();
+      await sweepLeftovers(stores, say);
+      if (config.seedDemo) await seedDemo(config.bcryptRounds, stores.drawings);
+      // Refuses to start (one sentence naming the file and how to restore it) when issued sheets
+      // exist and the key file is missing or holds another key; never silently makes a new one.
+      const keys = await signingKeysOpen(sequelize, { dataDir: dataDirOrMemory });
+      await auditChainSealExisting(sequelize);
+      const firstLink = config.env !== 'production' ? null : await firstAdminLink({
+        email: config.firstAdminEmail ?? 'admin@panelpoint.local',
+        publicUrl: config.publicUrl ?? `http://localhost:${config.port}`,
+      });
+      if (firstLink?.kind === 'made') {
+        say(
+          `No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (a later start of any server process on this database makes a new one and this one stops working, unless it is under two minutes old): ${firstLink.link}`,
+        );
+      } else if (firstLink?.kind === 'recent') {
+        say(
+          `No account has a password yet. Another server process printed the first admin's one-time link at ${firstLink.madeAt.toISOString()} (in its log); this start made no new one, so that link still works.`,
+        );
+      }
+      return { signingKeys: keys, sessionSecret: sessionSecretFor(config) };
+    }));
   } catch (err) {
-    await sequelize.close();
+    await queue?.close().catch(() => {});
+    await sequelize.close().catch(() => {});
     stores.close();
     throw err;
   }
-  // The job queue: pg-boss's schema on the same PostgreSQL server, or this process.
-  let queue: JobQueue;
-  try {
-    queue = config.databaseUrl && config.jobQueue === 'pg-boss'
-      ? await pgBossQueueOpen(config.databaseUrl, { log: options.log, application: 'panelpoint-app' })
-      : inProcessQueueCreate({ log: options.log });
-  } catch (err) {
-    await sequelize.close();
-    stores.close();
-    throw err;
-  }
-  // Runs left unfinished by a stopped server can never finish with the in-process queue; a
-  // durable queue (pg-boss) keeps their jobs, and another process may be solving them now.
-  if (!queue.durable) await runsFailInterrupted();
-  await sweepLeftovers(stores, say);
+  const jobQueue: JobQueue = queue!;
   const sweeper = setInterval(() => {
     sweepLeftovers(stores, say).catch((err) => say(`Sweeping left-over uploads failed: ${err instanceof Error ? err.message : String(err)}`));
   }, SWEEP_EVERY_MS);
   sweeper.unref();
-  if (config.seedDemo) await seedDemo(config.bcryptRounds, stores.drawings);
-  // Refuses to start (one sentence naming the file and how to restore it) when issued sheets
-  // exist and the key file is missing or holds another key; never silently makes a new one.
-  let signingKeys;
-  try {
-    signingKeys = await signingKeysOpen(sequelize, { dataDir: config.databaseStorage === ':memory:' ? null : config.dataDir });
-  } catch (err) {
-    await queue.close();
-    await sequelize.close();
-    stores.close();
-    throw err;
-  }
-  await auditChainSealExisting(sequelize);
-  const firstLink = config.env !== 'production' ? null : await firstAdminLink({
-    email: config.firstAdminEmail ?? 'admin@panelpoint.local',
-    publicUrl: config.publicUrl ?? `http://localhost:${config.port}`,
-  });
-  if (firstLink) {
-    say(`No account has a password yet. Open this one-time link within 24 hours to choose the first admin's password (it changes at every start until used): ${firstLink}`);
-  }
 
   // Chromium and profile folders left by a server that died without closing its printer (kill -9).
   const swept = chromiumLeftoversSweep();
@@ -156,10 +181,10 @@ export async function startServices(config: Config, options: { clientDir?: strin
     config,
     sequelize,
     mailer,
-    sessionSecret: sessionSecretFor(config),
+    sessionSecret,
     signingKeys,
     stores,
-    queue,
+    queue: jobQueue,
     clientDir: options.clientDir,
     log: options.log,
     review: options.review,
@@ -172,12 +197,12 @@ export async function startServices(config: Config, options: { clientDir?: strin
     mailer,
     signingKeys,
     stores,
-    queue,
+    queue: jobQueue,
     sink,
     async shutdown() {
       clearInterval(sweeper);
       // First stop taking jobs (pg-boss waits a few seconds for the ones running here), then the rest.
-      await queue.close();
+      await jobQueue.close();
       await created.close();
       await sink?.close();
       await sequelize.close();

@@ -1,3 +1,4 @@
+import http from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from './config';
@@ -11,10 +12,24 @@ async function main() {
   process.umask(0o077);
   const config = loadConfig();
   const services = await startServices(config, { clientDir: path.join(root, 'dist', 'client') });
-  const server = services.app.listen(config.port, () => {
-    console.log(`Panelpoint is running on http://localhost:${config.port}`);
-    if (services.sink) console.log(`Local mail sink on 127.0.0.1:${services.sink.port}; admins read it at /admin/outbox`);
-  });
+  // Express 5's app.listen hands a listen error to its callback as an argument: a taken port
+  // printed "is running" and left a server that served nothing. The error is taken here
+  // instead, and stops the start with one sentence naming PORT once the services are closed.
+  const server = http.createServer(services.app);
+  try {
+    await new Promise<void>((resolve, reject) => {
+      server.once('error', reject);
+      server.listen(config.port, () => {
+        server.off('error', reject);
+        resolve();
+      });
+    });
+  } catch (err) {
+    await services.shutdown().catch(() => {});
+    throw new Error(listenRefusal(err, config.port));
+  }
+  console.log(`Panelpoint is running on http://localhost:${config.port}`);
+  if (services.sink) console.log(`Local mail sink on 127.0.0.1:${services.sink.port}; admins read it at /admin/outbox`);
   let closing = false;
   const stop = async () => {
     if (closing) return;
@@ -25,6 +40,14 @@ async function main() {
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
+}
+
+/** The one sentence a failed listen stops with. */
+function listenRefusal(err: unknown, port: number): string {
+  const code = (err as NodeJS.ErrnoException).code;
+  if (code === 'EADDRINUSE') return `Configuration: PORT ${port} is already in use by another program (perhaps another Panelpoint); stop it or give this process another PORT.`;
+  if (code === 'EACCES') return `Configuration: PORT ${port} may not be opened by this user (ports below 1024 need extra rights); use a port of 1024 or above behind a reverse proxy.`;
+  return `Configuration: could not listen on PORT ${port}: ${err instanceof Error ? err.message : String(err)}.`;
 }
 
 main().catch((err) => {

@@ -12,6 +12,7 @@ import * as m0011 from './migrations/0011-print-jobs';
 import * as m0014 from './migrations/0014-run-numbers';
 import * as m0015 from './migrations/0015-email-settings';
 import * as m0016 from './migrations/0016-audit-chain-head';
+import * as m0017 from './migrations/0017-sheet-checker';
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 const MIGRATIONS = [
@@ -27,6 +28,7 @@ const MIGRATIONS = [
   { name: '0014-run-numbers', ...m0014 },
   { name: '0015-email-settings', ...m0015 },
   { name: '0016-audit-chain-head', ...m0016 },
+  { name: '0017-sheet-checker', ...m0017 },
 ];
 
 /** The migrations' names, in the order they run. */

@@ -139,6 +139,8 @@ export class SheetRevision extends Model<InferAttributes<SheetRevision>, InferCr
   declare status: 'draft' | 'in-check' | 'returned' | 'checked' | 'issued' | 'superseded';
   declare preparedById: number;
   declare checkedById: CreationOptional<number | null>;
+  /** The checker the preparer chose on submitting (0017); null on drafts and on rows submitted before 0017. */
+  declare checkerId: CreationOptional<number | null>;
   declare issuedById: CreationOptional<number | null>;
   declare preparedByName: CreationOptional<string | null>;
   declare checkedByName: CreationOptional<string | null>;
@@ -345,6 +347,7 @@ function initSheetModels(sequelize: Sequelize): void {
       status: { type: DataTypes.STRING(16), allowNull: false },
       preparedById: { type: DataTypes.INTEGER, allowNull: false },
       checkedById: { type: DataTypes.INTEGER, allowNull: true },
+      checkerId: { type: DataTypes.INTEGER, allowNull: true },
       issuedById: { type: DataTypes.INTEGER, allowNull: true },
       preparedByName: { type: DataTypes.STRING(120), allowNull: true },
       checkedByName: { type: DataTypes.STRING(120), allowNull: true },

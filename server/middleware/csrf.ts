@@ -34,6 +34,12 @@ function cookieValue(req: Request, name: string): string | undefined {
  * token in the session. A visitor who is not signed in (the sign-in and invitation pages) gets
  * a token derived by HMAC from a random cookie of their own instead, so looking at the sign-in
  * page stores no session row.
+ *
+ * Nothing here lives in one process's memory: a signed-in token is in the session row (the
+ * database), a visitor's is derived from their cookie and `secret`, which is the session
+ * secret every process behind one address shares (SESSION_SECRET or DATA_DIR/session-secret,
+ * bootstrap.ts), so a token handed out by one process is accepted by another
+ * (tests/api/two-apps.test.ts).
  */
 export function createCsrf(secret: string, secureCookie: boolean) {
   const tokenFor = (req: Request): string => {

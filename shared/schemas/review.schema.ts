@@ -12,9 +12,12 @@ import { z } from 'zod';
  * | GET    /api/trusses/:id/sheets     | any role | — | SheetRevisionSummaryView[] (newest first) |
  * | POST   /api/trusses/:id/sheets     | engineer | NewSheetRevisionInput | 201 SheetRevisionView (draft) |
  * | GET    /api/sheets/:id             | any role | — | SheetRevisionView |
- * | POST   /api/sheets/:id/submit      | engineer (its preparer) | SheetTransitionInput | SheetRevisionView (in-check) |
- * | POST   /api/sheets/:id/return      | reviewer (not its preparer) | SheetTransitionInput | SheetRevisionView (returned) |
- * | POST   /api/sheets/:id/check       | reviewer (not its preparer) | SheetTransitionInput | SheetRevisionView (checked) |
+ * | GET    /api/checkers               | engineer, admin | — | CheckerView[] (who may be chosen as checker) |
+ * | POST   /api/sheets/:id/submit      | engineer (its preparer) | SheetSubmitInput | SheetRevisionView (in-check) |
+ * | POST   /api/sheets/:id/checker     | admin | SheetCheckerInput | SheetRevisionView (in check, another checker) |
+ * | POST   /api/sheets/:id/return      | reviewer (its checker) | SheetTransitionInput | SheetRevisionView (returned) |
+ * | POST   /api/sheets/:id/check       | reviewer (its checker) | SheetTransitionInput | SheetRevisionView (checked) |
+ * | GET    /api/me/work                | any role | — | MyWorkView |
  * | POST   /api/sheets/:id/issue       | engineer | SheetTransitionInput | SheetRevisionView (issued) |
  * | GET    /api/sheets/:id/pdf         | any role | — | the archived PDF bytes (issued or superseded only) |
  * | POST   /api/sheets/:id/comments    | engineer, reviewer | NewSheetCommentInput | 201 SheetCommentView |
@@ -31,7 +34,10 @@ import { z } from 'zod';
  * Refusals answer `{ error: { code, message } }` (shared/api/errors.ts). Codes of this area:
  * 'sheet-status-conflict' (409, a transition out of order or lost to someone acting at the same
  * time; the message names the current status), 'not-preparer' (403, only the preparer submits),
- * 'own-sheet' (403, a reviewer cannot check or return a sheet they prepared), 'sheet-issued'
+ * 'own-sheet' (403, a reviewer cannot check or return a sheet they prepared), 'not-checker' (403,
+ * only the checker chosen on submitting returns or checks), 'checker-missing' / 'checker-self' /
+ * 'checker-unknown' / 'checker-not-reviewer' / 'checker-inactive' (422, the chosen checker),
+ * 'sheet-issued'
  * (409, an issued or superseded revision cannot change), 'open-comments' (409, checking while
  * comments are unresolved), 'run-not-solved' / 'run-of-other-truss' (409/422, a revision needs a
  * solved run of its own truss), 'newer-revision-issued' (409), 'not-a-pdf' (400),
@@ -59,6 +65,30 @@ export type NewSheetRevisionInput = z.input<typeof newSheetRevisionSchema>;
 /** Body of submit / return / check / issue: an optional note kept in the audit log. */
 export const sheetTransitionSchema = z.object({ note: note.default('') });
 export type SheetTransitionInput = z.input<typeof sheetTransitionSchema>;
+
+const checkerId = z
+  .number({ error: 'Choose the checker: the reviewer who will check this revision.' })
+  .int('Choose the checker from the list of reviewers.')
+  .positive('Choose the checker from the list of reviewers.');
+
+/**
+ * Body of submit: the checker the preparer chooses (a reviewer, never themselves) and an
+ * optional note. checkerId is optional here so that leaving it out gets the service's own
+ * sentence ('checker-missing', 422) rather than a field list; the service requires it.
+ */
+export const sheetSubmitSchema = z.object({ note: note.default(''), checkerId: checkerId.optional() });
+export type SheetSubmitInput = z.input<typeof sheetSubmitSchema>;
+
+/** Body of an admin's re-assignment of a revision in check to another checker. */
+export const sheetCheckerSchema = z.object({ note: note.default(''), checkerId });
+export type SheetCheckerInput = z.input<typeof sheetCheckerSchema>;
+
+/** A person who may be chosen as the checker of a revision. */
+export interface CheckerView {
+  id: number;
+  name: string;
+  email: string;
+}
 
 /**
  * A comment on one step of the sheet. `anchor` is the solver's step id as printed on the sheet
@@ -171,10 +201,14 @@ export interface SheetRevisionSummaryView {
   status: SheetStatus;
   preparedBy: PersonRef;
   checkedBy: PersonRef | null;
+  /** The checker chosen on submitting; null on drafts and on revisions submitted before checkers were chosen. */
+  checker: PersonRef | null;
   issuedBy: PersonRef | null;
   createdAt: string;
   updatedAt: string;
   supersededBy: { id: number; label: string } | null;
+  /** A returned revision that has been revised: the next revision of the truss, which replaces it. */
+  replacedBy: { id: number; label: string } | null;
   /** Unresolved threads made on this revision. */
   openCommentCount: number;
 }
@@ -320,4 +354,48 @@ export function sheetRevisionLabel(n: number): string {
     rest = Math.floor((rest - 1) / 26);
   }
   return label;
+}
+
+/** One revision waiting for someone, with where it belongs; the link is the sheet page (/sheets/:id). */
+export interface WorkRevisionItem {
+  id: number;
+  label: string;
+  status: SheetStatus;
+  project: { id: number; name: string; jobNumber: string };
+  truss: { id: number; name: string };
+  preparedBy: PersonRef;
+  checker: PersonRef | null;
+  /** When it came to this list: submitted, returned or checked (ISO 8601). */
+  since: string;
+  openCommentCount: number;
+}
+
+/** A truss whose newest drawing version failed to import or imported with warnings; the link is the truss page. */
+export interface WorkDrawingItem {
+  drawingId: number;
+  /** The drawing version, 1, 2, … per truss. */
+  version: number;
+  originalName: string;
+  status: 'imported' | 'failed';
+  project: { id: number; name: string; jobNumber: string };
+  truss: { id: number; name: string };
+  /** The failure's sentence, or the warnings' sentences (at most five). */
+  problems: string[];
+  /** All warnings (a failed import counts as one). */
+  problemCount: number;
+  importedAt: string;
+}
+
+/** GET /api/me/work: what waits for the signed-in person, by role. Lists a role has no part in are empty. */
+export interface MyWorkView {
+  /** Reviewer: in check, I am the checker (or no checker was chosen and I did not prepare it). */
+  toCheck: WorkRevisionItem[];
+  /** Engineer: returned revisions I prepared that no later revision of the truss has replaced yet. */
+  returnedToMe: WorkRevisionItem[];
+  /** Engineer: my checked revisions, ready to issue. */
+  readyToIssue: WorkRevisionItem[];
+  /** Drafter: drawings whose newest version failed to import or has warnings, in the firm's open projects. */
+  drawingsToFix: WorkDrawingItem[];
+  /** The number of rows in all four lists (the navigation's count). */
+  total: number;
 }

@@ -5,6 +5,7 @@ import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { Wordmark } from '@/components/ui/wordmark';
 import { useSession } from '@/features/auth/api/get-session';
 import { useSignOut } from '@/features/auth/api/sign-out';
+import { useMyWork } from '@/features/my-work/api/get-my-work';
 import { Notices } from '@/lib/notices';
 import { isAdmin, ROLE_LABELS } from '@/lib/permissions';
 import { useCurrentUser } from './current-user';
@@ -69,6 +70,26 @@ function NavItem({ to, children }: { to: string; children: ReactNode }) {
   );
 }
 
+/** "My work" with the number of things waiting, refreshed by its query (every minute and after each move). */
+function MyWorkNavItem() {
+  const work = useMyWork();
+  const count = work.data?.total ?? 0;
+  return (
+    <NavItem to="/my-work">
+      My work
+      {count > 0 && (
+        <span
+          data-testid="my-work-count"
+          aria-label={`${count} waiting`}
+          className="ml-1.5 inline-flex min-w-5 justify-center border-l-2 border-accent pl-1 text-[12px] leading-4 font-semibold text-accent tabular-nums"
+        >
+          {count}
+        </span>
+      )}
+    </NavItem>
+  );
+}
+
 /** The frame around every signed-in page: the bar with navigation for the role, the page, the caution line. */
 export function AppShell() {
   const user = useCurrentUser();
@@ -84,6 +105,7 @@ export function AppShell() {
           </NavLink>
           <nav aria-label="Main" className="flex h-14 items-stretch">
             <NavItem to="/projects">Projects</NavItem>
+            <MyWorkNavItem />
             <NavItem to="/archive">Archive</NavItem>
             <NavItem to="/verify">Verify</NavItem>
             {isAdmin(user.role) && (

@@ -37,6 +37,7 @@ export function createAppRouter() {
                 // The truss page will carry the drawing, loads and solver: loaded when first opened.
                 { path: '/trusses/:trussId', lazy: async () => ({ Component: (await import('./routes/truss')).TrussRoute }) },
                 { path: '/sheets/:sheetId', lazy: async () => ({ Component: (await import('./routes/sheet')).SheetRoute }) },
+                { path: '/my-work', lazy: async () => ({ Component: (await import('./routes/my-work')).MyWorkRoute }) },
                 { path: '/archive', lazy: async () => ({ Component: (await import('./routes/archive')).ArchiveRoute }) },
                 { path: '/account', lazy: async () => ({ Component: (await import('./routes/account')).AccountRoute }) },
                 { path: '/verify', lazy: async () => ({ Component: (await import('./routes/verify')).VerifyRoute }) },

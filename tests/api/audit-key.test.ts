@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { SheetRevisionEvent } from '../../server/db/models';
-import { databaseEnv, demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
+import { databaseEnv, demoEmail, demoUserId, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
 import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
@@ -85,7 +85,7 @@ const solvedRun = fixtureRun;
 /** A draft sheet and its submission: two audit lines. */
 async function twoLines() {
   const id = (await post(engineer, '/api/trusses/1/sheets', { runId: await solvedRun(1) }).expect(201)).body.id as number;
-  await post(engineer, `/api/sheets/${id}/submit`).expect(200);
+  await post(engineer, `/api/sheets/${id}/submit`, { checkerId: await demoUserId() }).expect(200);
 }
 
 async function start() {

@@ -4,7 +4,7 @@ import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunSummaryView, RunView } from '@shared/schemas/run.schema';
 import type { DesignInput } from '@shared/model/design-input';
 import type { LoadCase, Support } from '@shared/model/truss';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
  * Member design through the API on a real SQLite file: saving a design basis with groups,
@@ -270,7 +270,7 @@ describe('design checks with each run', () => {
     const draft = await post(engineer, `/api/runs/${r.id}/design`);
     expect(draft.status).toBe(409);
     expect(draft.body.error.code).toBe('run-has-sheet');
-    await post(engineer, `/api/sheets/${sheet.body.id}/submit`).expect(200);
+    await post(engineer, `/api/sheets/${sheet.body.id}/submit`, { checkerId: await demoUserId() }).expect(200);
     await post(reviewer, `/api/sheets/${sheet.body.id}/check`).expect(200);
     const issued = await post(engineer, `/api/sheets/${sheet.body.id}/issue`);
     expect(issued.status).toBe(200);

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunSummaryView, RunView } from '@shared/schemas/run.schema';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
  * The job file carries the member design: a two-pin king-post truss (an R12 DXF in metres:
@@ -226,7 +226,7 @@ describe('job file with the member design', () => {
     const reviewer = await signIn(services.app, demoEmail('reviewer'));
     const sheet = await post(engineer, `/api/trusses/${trussId}/sheets`, { runId: run.id });
     expect(sheet.status).toBe(201);
-    await post(engineer, `/api/sheets/${sheet.body.id}/submit`).expect(200);
+    await post(engineer, `/api/sheets/${sheet.body.id}/submit`, { checkerId: await demoUserId() }).expect(200);
     await post(reviewer, `/api/sheets/${sheet.body.id}/check`).expect(200);
     expect((await post(engineer, `/api/sheets/${sheet.body.id}/issue`)).status).toBe(200);
     const job = JSON.parse(await exportOf(trussId)) as Job;

@@ -278,7 +278,9 @@ describe.skipIf(!on)('two app processes and a worker on one PostgreSQL and one o
     const reviewer = await signIn(app2, demoEmail('reviewer'));
     const sheet = await engineer.post('/api/trusses/1/sheets', { runId });
     expect(sheet.status).toBe(201);
-    expect((await engineer.post(`/api/sheets/${sheet.json.id}/submit`)).status).toBe(200);
+    const checkers = (await engineer.get('/api/checkers')).json as { id: number; email: string }[];
+    const checkerId = checkers.find((c) => c.email === demoEmail('reviewer'))!.id;
+    expect((await engineer.post(`/api/sheets/${sheet.json.id}/submit`, { checkerId })).status).toBe(200);
     expect((await reviewer.post(`/api/sheets/${sheet.json.id}/check`)).status).toBe(200);
     const issued = await engineer.post(`/api/sheets/${sheet.json.id}/issue`);
     expect(issued.status).toBe(200);

@@ -7,7 +7,7 @@ import { ORPHAN_GRACE_MS, sweepLeftovers, type Services } from '../../server/boo
 import { Drawing, SheetRevision } from '../../server/db/models';
 import { sweepOrphans } from '../../server/storage/file-hygiene';
 import { fakeS3Start, type FakeS3 } from '../support/s3-fake';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
@@ -54,7 +54,7 @@ const solvedRun = fixtureRun;
 async function issue(trussId: number): Promise<number> {
   const runId = await solvedRun(trussId);
   const id = (await post(tab.engineer, `/api/trusses/${trussId}/sheets`, { runId }).expect(201)).body.id as number;
-  await post(tab.engineer, `/api/sheets/${id}/submit`).expect(200);
+  await post(tab.engineer, `/api/sheets/${id}/submit`, { checkerId: await demoUserId() }).expect(200);
   await post(tab.reviewer, `/api/sheets/${id}/check`).expect(200);
   await post(tab.engineer, `/api/sheets/${id}/issue`).expect(200);
   return id;

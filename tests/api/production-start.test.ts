@@ -6,6 +6,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { loadConfig, PUBLIC_URL_MISSING } from '../../server/config';
 import { startServices, type Services } from '../../server/bootstrap';
 import { User } from '../../server/db/models';
+import { FIRST_ADMIN_FRESH_MS } from '../../server/modules/users/first-admin';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { openTab } from '../support/test-services';
 
@@ -59,6 +60,8 @@ describe('a production start', () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
     const first = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
     const oldToken = linkIn(first.lines);
+    // Older than FIRST_ADMIN_FRESH_MS: not another process's link of a moment ago.
+    await first.services.sequelize.query(`UPDATE "invitations" SET "createdAt" = :at`, { replacements: { at: new Date(Date.now() - FIRST_ADMIN_FRESH_MS - 1000) } });
     await started.pop()!.shutdown();
 
     const second = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
@@ -72,6 +75,18 @@ describe('a production start', () => {
 
     const third = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
     expect(linkIn(third.lines)).toBeUndefined();
+  });
+
+  it('a start within two minutes of another (two app processes started together) keeps the link the first printed and says where it is', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'pp-prod-'));
+    const first = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
+    const token = linkIn(first.lines);
+    await started.pop()!.shutdown();
+    const second = await start(dir, { PUBLIC_URL: 'http://panelpoint.lan' });
+    expect(linkIn(second.lines)).toBeUndefined();
+    expect(second.lines.join('\n')).toMatch(/Another server process printed the first admin's one-time link at \d{4}-\d\d-\d\dT[\d:.]+Z \(in its log\); this start made no new one, so that link still works\./);
+    const tab = await openTab(second.services.app);
+    await tab.agent.post('/api/invitations/accept').set('X-CSRF-Token', tab.csrf).send({ token, name: 'Office admin', password: 'a long office passphrase 42' }).expect(200);
   });
 
   it('loads the demo only when SEED_DEMO=true says so', async () => {

@@ -7,7 +7,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { SheetRevision } from '../../server/db/models';
-import { demoEmail, openTab, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, openTab, signIn, startTestServices, type Tab } from '../support/test-services';
 import { solvedDemoRun as solvedDemoRunOf } from '../support/fixtures';
 
 /**
@@ -53,7 +53,7 @@ beforeAll(async () => {
   reviewer = await signIn(services.app, demoEmail('reviewer'));
   const run = await solvedDemoRun();
   sheetId = (await engineer.agent.post('/api/trusses/1/sheets').set('X-CSRF-Token', engineer.csrf).send({ runId: run.id }).expect(201)).body.id;
-  await engineer.agent.post(`/api/sheets/${sheetId}/submit`).set('X-CSRF-Token', engineer.csrf).send({}).expect(200);
+  await engineer.agent.post(`/api/sheets/${sheetId}/submit`).set('X-CSRF-Token', engineer.csrf).send({ checkerId: await demoUserId() }).expect(200);
   await reviewer.agent.post(`/api/sheets/${sheetId}/check`).set('X-CSRF-Token', reviewer.csrf).send({}).expect(200);
   await engineer.agent.post(`/api/sheets/${sheetId}/issue`).set('X-CSRF-Token', engineer.csrf).send({}).expect(200);
   pdf = (await binary(reviewer.agent.get(`/api/sheets/${sheetId}/pdf`)).expect(200)).body as Buffer;

@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent, SigningKey } from '../../server/db/models';
-import { databaseEnv, demoEmail, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
+import { databaseEnv, demoEmail, demoUserId, dropGuard, signIn, startTestServices, type Tab } from '../support/test-services';
 import { fixtureRun } from '../support/fixtures';
 import { tinyPdfRenderer } from '../support/tiny-pdf';
 
@@ -63,7 +63,7 @@ const solvedRun = fixtureRun;
 /** Draft → in check (with a resolved comment) → checked → issued; returns the revision id and its issue view. */
 async function issue(trussId: number, runId: number) {
   const id = (await post(tab.engineer, `/api/trusses/${trussId}/sheets`, { runId }).expect(201)).body.id as number;
-  await post(tab.engineer, `/api/sheets/${id}/submit`).expect(200);
+  await post(tab.engineer, `/api/sheets/${id}/submit`, { checkerId: await demoUserId() }).expect(200);
   const c = await post(tab.reviewer, `/api/sheets/${id}/comments`, { anchor: 'reactions', body: 'Show the reaction directions.' }).expect(201);
   await tab.reviewer.agent.patch(`/api/sheet-comments/${c.body.id}`).set('X-CSRF-Token', tab.reviewer.csrf).send({ resolved: true }).expect(200);
   await post(tab.reviewer, `/api/sheets/${id}/check`).expect(200);

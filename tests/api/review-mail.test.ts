@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import { EmailOptOut, OutboxMessage, User } from '../../server/db/models';
 import { DEMO_PASSWORD } from '../../server/seed/demo';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 import { solvedDemoRun } from '../support/fixtures';
 
 /**
@@ -100,11 +100,11 @@ describe('review e-mails people act on', () => {
     expect(steps.every((s) => /^\d+\.\d+$/.test(s.number))).toBe(true);
   });
 
-  it('when a reviewer has turned off "sent for checking", then the submit mail goes to the other reviewer only, with a link on PUBLIC_URL', async () => {
+  it('when the engineer chooses the demo reviewer as checker, then the submit mail goes to that checker only, with a link on PUBLIC_URL', async () => {
     await put(reviewer2, '/api/me/email-settings', { submitted: false }).expect(200);
     sheetId = (await post(engineer, '/api/trusses/1/sheets', { runId }).expect(201)).body.id;
     const before = await lastMailId();
-    await post(engineer, `/api/sheets/${sheetId}/submit`).expect(200);
+    await post(engineer, `/api/sheets/${sheetId}/submit`, { checkerId: await demoUserId() }).expect(200);
     const mails = await mailsSince(before);
     expect(mails).toHaveLength(1);
     expect(mails[0].to).toEqual(['reviewer@demo.panelpoint.test']);

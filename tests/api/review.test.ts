@@ -58,6 +58,7 @@ async function rawRefusal(sql: string): Promise<string> {
   }
   return 'not refused';
 }
+const userIdOf = async (email: string) => (await User.findOne({ where: { email } }))!.id;
 const sha = (b: Buffer) => crypto.createHash('sha256').update(b).digest('hex');
 
 async function mailsSince(id: number) {
@@ -127,14 +128,15 @@ describe('check, sign and archive', () => {
     expect((await SheetRevision.findByPk(a))!.status).toBe('draft');
   });
 
-  it('when the preparer submits, then it is in check and every active reviewer gets an e-mail naming job, project, truss, revision and link', async () => {
+  it('when the preparer submits choosing a checker, then it is in check with that checker and only the checker gets an e-mail naming job, project, truss, revision and link', async () => {
     const before = await lastMailId();
-    const res = await post(tab.engineer, `/api/sheets/${a}/submit`);
+    const res = await post(tab.engineer, `/api/sheets/${a}/submit`, { checkerId: await userIdOf('second.reviewer@demo.panelpoint.test') });
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('in-check');
+    expect(res.body.checker).toMatchObject({ name: 'Priya Okafor' });
     const mails = await mailsSince(before);
     expect(mails).toHaveLength(1);
-    expect(mails[0].to).toEqual(['reviewer@demo.panelpoint.test', 'second.reviewer@demo.panelpoint.test']);
+    expect(mails[0].to).toEqual(['second.reviewer@demo.panelpoint.test']);
     expect(mails[0].subject).toContain('HV-2417');
     expect(mails[0].subject).toContain('Kestrel Logistics');
     expect(mails[0].subject).toContain('T1');
@@ -187,7 +189,7 @@ describe('check, sign and archive', () => {
   });
 
   it('when the preparer is made a reviewer, then they still cannot check their own revision', async () => {
-    await post(tab.engineer, `/api/sheets/${b}/submit`).expect(200);
+    await post(tab.engineer, `/api/sheets/${b}/submit`, { checkerId: await userIdOf(demoEmail('reviewer')) }).expect(200);
     const engineerId = (await User.findOne({ where: { email: demoEmail('engineer') } }))!.id;
     await patch(tab.admin, `/api/users/${engineerId}`, { role: 'reviewer' }).expect(200);
     try {
@@ -297,7 +299,7 @@ describe('check, sign and archive', () => {
 
   it('when a later revision is issued, then the earlier one becomes superseded, logged, and the verify route says so', async () => {
     c = (await post(tab.engineer, '/api/trusses/1/sheets', { runId: 102, note: 'title block fix' })).body.id;
-    await post(tab.engineer, `/api/sheets/${c}/submit`).expect(200);
+    await post(tab.engineer, `/api/sheets/${c}/submit`, { checkerId: await userIdOf('second.reviewer@demo.panelpoint.test') }).expect(200);
     await post(tab.reviewer2, `/api/sheets/${c}/check`).expect(200);
     const issued = await post(tab.engineer2, `/api/sheets/${c}/issue`);
     expect(issued.status).toBe(200);
@@ -354,10 +356,11 @@ describe('check, sign and archive', () => {
     expect(await lastMailId()).toBe(mails);
   });
 
-  it('when two reviewers act on the same revision at once, then one wins and the other gets a 409 naming the status', async () => {
+  it('when the checker returns and checks the same revision at once (two tabs), then one wins and the other gets a 409 naming the status', async () => {
     const id = (await post(tab.engineer, '/api/trusses/2/sheets', { runId: 201 })).body.id;
-    await post(tab.engineer, `/api/sheets/${id}/submit`).expect(200);
-    const [checked, returned] = await Promise.all([post(tab.reviewer, `/api/sheets/${id}/check`), post(tab.reviewer2, `/api/sheets/${id}/return`)]);
+    await post(tab.engineer, `/api/sheets/${id}/submit`, { checkerId: await userIdOf(demoEmail('reviewer')) }).expect(200);
+    const otherTab = await signIn(services.app, demoEmail('reviewer'));
+    const [checked, returned] = await Promise.all([post(tab.reviewer, `/api/sheets/${id}/check`), post(otherTab, `/api/sheets/${id}/return`)]);
     expect([checked.status, returned.status].sort()).toEqual([200, 409]);
     const loser = checked.status === 409 ? checked : returned;
     const winner = checked.status === 200 ? checked : returned;

@@ -10,7 +10,7 @@ import { trussSolve } from '@shared/solver';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent } from '../../server/db/models';
 import { binaryBody, fixtureRun, runToEnd } from '../support/fixtures';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
  * Revision comparison through the API, on a real database file (SQLite, or PostgreSQL under the
@@ -174,8 +174,8 @@ describe('GET /api/sheets/:id/compare', () => {
   });
 
   it('when revision B is issued, then the issued PDF prints the revision table with B dated as issued and the load line', async () => {
-    const post = (t: Tab, url: string) => t.agent.post(url).set('X-CSRF-Token', t.csrf).send({});
-    await post(engineer, `/api/sheets/${sheetB}/submit`).expect(200);
+    const post = (t: Tab, url: string, body: object = {}) => t.agent.post(url).set('X-CSRF-Token', t.csrf).send(body);
+    await post(engineer, `/api/sheets/${sheetB}/submit`, { checkerId: await demoUserId() }).expect(200);
     await post(reviewer, `/api/sheets/${sheetB}/check`).expect(200);
     const issued = await post(engineer, `/api/sheets/${sheetB}/issue`);
     expect(issued.status).toBe(200);

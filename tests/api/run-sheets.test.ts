@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Services } from '../../server/bootstrap';
 import type { RunView } from '@shared/schemas/run.schema';
 import { binaryBody, solvedDemoRun } from '../support/fixtures';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
  * The demo truss T1 (12 m span, 3 m rise, six 2 m panels, diagonals from the upper joints
@@ -87,7 +87,7 @@ describe('calc sheet of an analysis run', () => {
     expect(preview.status).toBe(200);
     expect(preview.text).toContain('Eli Marsh');
 
-    await engineer.agent.post(`/api/sheets/${id}/submit`).set('X-CSRF-Token', engineer.csrf).send({}).expect(200);
+    await engineer.agent.post(`/api/sheets/${id}/submit`).set('X-CSRF-Token', engineer.csrf).send({ checkerId: await demoUserId() }).expect(200);
     await reviewer.agent.post(`/api/sheets/${id}/check`).set('X-CSRF-Token', reviewer.csrf).send({}).expect(200);
     const issued = await engineer.agent.post(`/api/sheets/${id}/issue`).set('X-CSRF-Token', engineer.csrf).send({});
     expect(issued.status).toBe(200);

@@ -5,7 +5,7 @@ import { FORCES_CSV_COLUMNS, REACTIONS_CSV_COLUMNS, type RunSummaryView, type Ru
 import type { LoadCase, Support } from '@shared/model/truss';
 import { TrussModelRecord } from '../../server/db/models';
 import { csvField } from '../../server/modules/runs/forces-csv';
-import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
+import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
  * The truss of these tests, drawn in the test as an R12 DXF (DXF Reference, Autodesk: LINE
@@ -445,7 +445,7 @@ describe('roof loading', () => {
     const run = await runToEnd();
     expect(run.status).toBe('solved');
     const sheet = (await post(engineer, `/api/trusses/${trussId}/sheets`, { runId: run.id })).body as { id: number; number: number };
-    await post(engineer, `/api/sheets/${sheet.id}/submit`).expect(200);
+    await post(engineer, `/api/sheets/${sheet.id}/submit`, { checkerId: await demoUserId() }).expect(200);
     await post(reviewer, `/api/sheets/${sheet.id}/check`).expect(200);
     expect((await post(engineer, `/api/sheets/${sheet.id}/issue`)).status).toBe(200);
     const before = await modelRow();

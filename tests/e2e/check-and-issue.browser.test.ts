@@ -132,9 +132,10 @@ async function newRevision(page: Page, runNumber: number): Promise<string> {
   return page.url();
 }
 
-/** Makes a review move through the sheet's buttons: the button, then its confirm box. */
+/** Makes a review move through the sheet's buttons: the button, then its confirm box (submitting names the demo reviewer as checker). */
 async function move(page: Page, label: string, note?: string): Promise<void> {
   await page.getByRole('button', { name: label, exact: true }).first().click();
+  if (label === 'Submit for check') await page.getByLabel('Checker').selectOption({ label: `Rosa Quint (${REVIEWER})` });
   if (note !== undefined) await page.getByLabel(/Why it goes back|Note for the audit log/).fill(note);
   await page.getByRole('button', { name: label, exact: true }).last().click();
 }
@@ -330,7 +331,7 @@ describe('check and issue: from a drafter’s DXF to a verified issued PDF, in C
         .map((m) => ({ subject: m.subject, to: (JSON.parse(m.to) as string[]).map((a) => a.toLowerCase()).sort() }));
     await expect.poll(async () => (await mails()).length, { timeout: 15_000 }).toBe(5);
     const got = (await mails()).map((m) => ({ what: m.subject.replace(/^.*revision /, ''), to: m.to }));
-    // Who hears of each move, as issue 7 sets it: submitted → the reviewers; returned or
+    // Who hears of each move, as issues 7 and 15 set it: submitted → the chosen checker; returned or
     // checked → the preparer; issued → the project's people (drawing uploaders, preparers, checkers).
     expect(got).toEqual([
       { what: 'A submitted for check', to: [REVIEWER] },

@@ -66,7 +66,9 @@ describe('public verify page', () => {
       await new Promise((r) => setTimeout(r, 50));
     }
     const sheetId = ((await (await engineer.api.post(url('/api/trusses/1/sheets'), { ...w, data: { runId } })).json()) as { id: number }).id;
-    expect((await engineer.api.post(url(`/api/sheets/${sheetId}/submit`), { ...w, data: {} })).status()).toBe(200);
+    const checkers = (await (await engineer.api.get(url('/api/checkers'))).json()) as { id: number; email: string }[];
+    const checkerId = checkers.find((c) => c.email === 'reviewer@demo.panelpoint.test')!.id;
+    expect((await engineer.api.post(url(`/api/sheets/${sheetId}/submit`), { ...w, data: { checkerId } })).status()).toBe(200);
     expect((await reviewer.api.post(url(`/api/sheets/${sheetId}/check`), { headers: { 'X-CSRF-Token': reviewer.csrf }, data: {} })).status()).toBe(200);
     expect((await engineer.api.post(url(`/api/sheets/${sheetId}/issue`), { ...w, data: {} })).status()).toBe(200);
     const pdf = Buffer.from(await (await reviewer.api.get(url(`/api/sheets/${sheetId}/pdf`))).body());

@@ -1,3 +1,4 @@
+import { User } from '../../server/db/models';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -70,6 +71,13 @@ export async function dropGuard(sequelize: Sequelize, sqliteTrigger: 'sheet_revi
 }
 
 export const demoEmail = (role: 'drafter' | 'engineer' | 'reviewer' | 'admin') => `${role}@demo.panelpoint.test`;
+
+/** The id of a demo account in the current test database (the checker tests choose on submitting is the demo reviewer). */
+export async function demoUserId(role: 'drafter' | 'engineer' | 'reviewer' | 'admin' = 'reviewer'): Promise<number> {
+  const user = await User.findOne({ attributes: ['id'], where: { email: demoEmail(role) } });
+  if (!user) throw new Error(`no demo ${role} in the test database`);
+  return user.id;
+}
 
 /** A cookie-keeping client with its CSRF token, like a browser tab. */
 export interface Tab {

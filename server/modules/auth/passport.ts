@@ -40,11 +40,18 @@ export function createPassport(): PassportInstance {
     try {
       // Sessions made before epochs existed hold the bare id, which counts as epoch 0.
       const { id, epoch } = typeof stored === 'number' ? { id: stored, epoch: 0 } : stored;
-      const user = await users.get(id);
+      const accepts = (u: Awaited<ReturnType<typeof users.get>>) => Boolean(u && !u.disabled && u.hasPassword && u.sessionEpoch === epoch);
+      let user = await users.get(id);
+      // A refusal is never made on a cached row: the row may be older than the session (a
+      // password changed through another server process signs that person in again there with
+      // the next epoch, which this process's cached row does not know yet), so before saying no
+      // the row is read again from the database. Only an acceptance may be up to the cache's
+      // age old.
+      if (!accepts(user)) user = await users.get(id, { fresh: true });
       // A disabled or removed user's existing sessions stop working (at once in this process,
       // within the cache's time in another), and so do sessions from before the user's last
       // password change.
-      done(null, user && !user.disabled && user.hasPassword && user.sessionEpoch === epoch ? user : false);
+      done(null, accepts(user) ? user : false);
     } catch (err) {
       done(err);
     }

@@ -19,6 +19,7 @@ export const MIN_SCORE = 3;
  */
 const SCORED_LENGTH = 100;
 
+/** Per process and harmless: the dictionaries, the same in every process, no one's state. */
 let factory: ZxcvbnFactory | null = null;
 function estimator(): ZxcvbnFactory {
   factory ??= new ZxcvbnFactory({

@@ -1,6 +1,7 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { RequestHandler } from 'express';
 import { AppError } from '../../errors/app-error';
+import { dbWriteLock } from '../../db/sequelize';
 import { addressKey } from './signin-limiter';
 
 /**
@@ -41,6 +42,10 @@ export function addressLimiterCreate(sequelize: Sequelize, options: AddressLimit
     const key = `${options.prefix}:${addressKey(address)}`;
     return serial(() =>
       sequelize.transaction(async (transaction) => {
+        // Read, decide, write: on PostgreSQL (READ COMMITTED) two processes could both read a
+        // count of n and both write n + 1, letting a request past the limit; the advisory lock
+        // makes them take turns, as BEGIN IMMEDIATE does on SQLite.
+        await dbWriteLock(sequelize, transaction, 'signin_limits');
         const t = now();
         const [row] = await sequelize.query<{ failures: number; windowStartedAt: number }>(
           'SELECT failures, "windowStartedAt" FROM signin_limits WHERE key = ?',

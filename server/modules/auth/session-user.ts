@@ -27,7 +27,10 @@ export interface SessionUserRow {
  * is immediate. Another server process sharing the database (several processes behind one
  * address) learns of the change when its entry expires: a disabled user, or a session signed
  * out by a password change, keeps access there for at most this long. Two seconds is the bound
- * we accept for that; it saves one database read on nearly every request.
+ * we accept for that; it saves one database read on nearly every request. The cache only ever
+ * errs towards letting a request through for that long, never towards refusing one: passport.ts
+ * reads the row again before it refuses a session (a session newer than the cached row, made
+ * by a password change through another process, would otherwise be signed out).
  */
 export const SESSION_USER_TTL_MS = 2000;
 
@@ -106,11 +109,12 @@ export function sessionUserCache(options: { ttlMs?: number; now?: () => number }
   }
 
   return {
-    async get(id: number): Promise<SessionUserRow | null> {
+    /** The row, from the cache when young enough; `fresh` reads the database whatever the cache holds. */
+    async get(id: number, options: { fresh?: boolean } = {}): Promise<SessionUserRow | null> {
       ensureHooks();
       const hit = entries.get(id);
       const t = now();
-      if (hit && hit.generation === generation && t - hit.at < ttlMs) return hit.row;
+      if (!options.fresh && hit && hit.generation === generation && t - hit.at < ttlMs) return hit.row;
       const startedUnder = generation;
       const row = await read(id);
       // A write that landed while this read was in flight may not be in it: keep it only if none did.

@@ -20,6 +20,7 @@ export function cssString(value: unknown): string {
 }
 
 type Render = (context: unknown) => string;
+/** Per process and harmless: the compiled templates of the package. */
 let compiled: Render | null = null;
 
 function compile(): Render {

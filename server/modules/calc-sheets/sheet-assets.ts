@@ -285,6 +285,7 @@ export interface SheetAssets {
   notoFaces: FontFace[];
 }
 
+/** Per process and harmless: files read from the package, the same in every process. */
 let cached: SheetAssets | null = null;
 
 /** Reads (once) and returns the inlined fonts and style sheets. */

@@ -165,7 +165,7 @@ export function printBudgetMs(htmlLength: number, timeoutMs: number): number {
 /** Profile folders of this server: `panelpoint-chromium-<pid>-XXXXXX` in the temp folder. */
 const PROFILE_PREFIX = 'panelpoint-chromium-';
 
-/** Browser process groups alive in this process, killed synchronously if the process exits. */
+/** Browser process groups alive in this process, killed synchronously if the process exits (this process's own children: nothing another process needs). */
 const liveGroups = new Set<number>();
 let exitHookSet = false;
 function trackGroup(pid: number): void {

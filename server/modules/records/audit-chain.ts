@@ -97,7 +97,11 @@ const macEqual = (a: string, b: string) => a.length === b.length && crypto.timin
 
 const keyIdOf = (secret: Buffer) => crypto.createHash('sha256').update(secret).digest('hex').slice(0, 16);
 
-/** The key each open database seals with (a test process may hold several servers at once). */
+/**
+ * The key each open database seals with (a test process may hold several servers at once).
+ * Per process, but not state of its own: every process reads the same key file in the shared
+ * DATA_DIR at start, and auditKeyOpen refuses a start whose key did not seal the chain head.
+ */
 const keys = new WeakMap<Sequelize, AuditKey>();
 
 function keyOf(sequelize: Sequelize): AuditKey {

@@ -19,6 +19,8 @@ export interface RevisionRow {
   status: SheetStatus;
   preparedById: number;
   checkedById: number | null;
+  /** The checker chosen on submitting (0017); null before submission and on older rows. */
+  checkerId: number | null;
   issuedById: number | null;
   preparedByName: string | null;
   checkedByName: string | null;

@@ -19,6 +19,8 @@ export interface ReviewMailInput {
   /** The open comment threads, in the sheet's order; the mail quotes the first MAIL_COMMENTS. */
   comments?: MailComment[];
   sha256?: string;
+  /** Submitted: the mail goes to the chosen checker only, and says so. */
+  toChecker?: boolean;
 }
 
 /** A comment thread as a mail quotes it: where it is on the sheet, who wrote it, what it says. */
@@ -62,7 +64,9 @@ export function reviewMailMessage(m: ReviewMailInput): { subject: string; text: 
   const lines: string[] = [];
   switch (m.kind) {
     case 'submitted':
-      lines.push(`${m.actorName} submitted the calc sheet ${sheet} for check.`, 'Please read it step by step, comment where needed, then return it or mark it checked.');
+      lines.push(`${m.actorName} submitted the calc sheet ${sheet} for check.`);
+      if (m.toChecker) lines.push('You are its checker: only you can return it or mark it checked.');
+      lines.push('Please read it step by step, comment where needed, then return it or mark it checked.');
       break;
     case 'returned':
       lines.push(`${m.actorName} returned the calc sheet ${sheet}.`, `Open comments: ${m.openComments ?? 0}. Address them in a new revision and submit it again.`);

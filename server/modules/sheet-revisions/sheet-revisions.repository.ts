@@ -1,6 +1,7 @@
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import type { SheetStatus } from '@shared/schemas/review.schema';
-import { Drawing, EmailOptOut, SheetComment, SheetRevision, Truss, User } from '../../db/models';
+import type { Role } from '@shared/schemas/auth.schema';
+import { Drawing, EmailOptOut, SheetComment, SheetRevision, SheetRevisionEvent, Truss, User } from '../../db/models';
 import { dbWriteLock } from '../../db/sequelize';
 import { auditChainSeal } from '../records/audit-chain';
 import { revisionRow, type RevisionRow } from '../records/records.repository';
@@ -99,6 +100,40 @@ export const sheetRevisionsRepository = {
       SheetRevision.update({ ...fields, status: to, lastActorId: actorId, lastNote: note }, { where: { id, status: from }, transaction }),
     );
     return count === 1;
+  },
+
+  /**
+   * Hands a revision in check from one checker to another, only if it is still in check with
+   * the same checker; the audit log gets a line (in check → in check) with the note, sealed
+   * onto the chain in the same transaction. False when someone moved it first (nothing written).
+   */
+  async checkerChange(id: number, fromCheckerId: number | null, toCheckerId: number, actorId: number, note: string): Promise<boolean> {
+    return withSealedLog(async (transaction) => {
+      const [count] = await SheetRevision.update(
+        { checkerId: toCheckerId, lastActorId: actorId, lastNote: note },
+        { where: { id, status: 'in-check', checkerId: fromCheckerId }, transaction },
+      );
+      if (count !== 1) return false;
+      await SheetRevisionEvent.create({ revisionId: id, fromStatus: 'in-check', toStatus: 'in-check', actorId, note, at: new Date() }, { transaction });
+      return true;
+    });
+  },
+
+  /** One person as the checker rules need them; null when there is nobody with that id. */
+  async userById(id: number): Promise<{ id: number; name: string; role: Role; disabled: boolean; active: boolean } | null> {
+    const u = await User.findByPk(id, { attributes: ['id', 'name', 'role', 'disabled', 'passwordHash'] });
+    return u ? { id: u.id, name: u.name, role: u.role, disabled: Boolean(u.disabled), active: u.passwordHash !== null } : null;
+  },
+
+  /** Reviewers who can sign in (invitation accepted, not disabled), by name. */
+  async activeReviewers(): Promise<{ id: number; name: string; email: string }[]> {
+    const rows = await User.findAll({
+      attributes: ['id', 'name', 'email'],
+      where: { role: 'reviewer', disabled: false, passwordHash: { [Op.ne]: null } },
+      order: [['name', 'ASC'], ['id', 'ASC']],
+      raw: true,
+    });
+    return rows.map((u) => ({ id: u.id, name: u.name, email: u.email }));
   },
 
   async hasIssuedAfter(trussId: number, number: number): Promise<RevisionRow | null> {

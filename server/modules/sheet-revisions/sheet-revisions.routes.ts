@@ -1,5 +1,5 @@
 import type { Request } from 'express';
-import { newSheetCommentSchema, newSheetRevisionSchema, sheetCommentResolveSchema, sheetTransitionSchema, type SheetAction } from '@shared/schemas/review.schema';
+import { newSheetCommentSchema, newSheetRevisionSchema, sheetCheckerSchema, sheetCommentResolveSchema, sheetSubmitSchema, sheetTransitionSchema, type SheetAction } from '@shared/schemas/review.schema';
 import { ANY_ROLE, ApiRoutes, type RouteSpec } from '../../middleware/access';
 import { idParam, validateBody } from '../../middleware/validate';
 import * as review from './sheet-revisions.service';
@@ -40,11 +40,21 @@ export function sheetRevisionsRoutes(registry: RouteSpec[], deps: review.ReviewS
     res.type('html').send(await revisionSheetHtml(idParam(req.params.id, 'That sheet revision'), deps.publicUrl));
   });
 
+  routes.add('get', '/checkers', ['engineer', 'admin'], async (req, res) => {
+    res.json(await review.listCheckers(actorOf(req)));
+  });
+  routes.add('post', '/sheets/:id/submit', ['engineer'], validateBody(sheetSubmitSchema), async (req, res) => {
+    const id = idParam(req.params.id, 'That sheet revision');
+    res.json(await review.transitionRevision(id, 'submit', req.body.note, actorOf(req), deps, { checkerId: req.body.checkerId }));
+  });
+  routes.add('post', '/sheets/:id/checker', ['admin'], validateBody(sheetCheckerSchema), async (req, res) => {
+    res.json(await review.reassignChecker(idParam(req.params.id, 'That sheet revision'), req.body.checkerId, req.body.note, actorOf(req), deps));
+  });
+
   const transition = (action: SheetAction, who: readonly ('engineer' | 'reviewer')[]) =>
     routes.add('post', `/sheets/:id/${action}`, who, validateBody(sheetTransitionSchema), async (req, res) => {
       res.json(await review.transitionRevision(idParam(req.params.id, 'That sheet revision'), action, req.body.note, actorOf(req), deps));
     });
-  transition('submit', ['engineer']);
   transition('return', ['reviewer']);
   transition('check', ['reviewer']);
   transition('issue', ['engineer']);

@@ -8,11 +8,11 @@ import { keyIdOf } from '../records/firm-key';
 import type { SigningKeys } from '../records/signing-keys';
 import { ISSUE_FINGERPRINT_OF, issuedRecordText, issuedSigners, issueFingerprint, verifyUrlOf } from '../records/issued-record';
 import { recordsRepository as records, type RevisionRow, type TrussContext } from '../records/records.repository';
-import { statusConflict, TRANSITIONS } from './revision-status';
+import { FROZEN, frozenError, STATUS_WORDS, statusConflict, TRANSITIONS } from './revision-status';
 import { reviewMailSend, type MailComment, type ReviewMailKind } from './sheet-revisions.mail';
 import { placeOf, runSheetPlaces, type SheetPlace } from '../calc-sheets/step-numbers';
 import { sheetRevisionsRepository as repo } from './sheet-revisions.repository';
-import { commentThreads, pageUrl, peopleOf, person, summaryView } from './sheet-revisions.views';
+import { commentThreads, pageUrl, peopleOf, person, replacementsOf, summaryView } from './sheet-revisions.views';
 import type { RunRef, RunSource, SheetRenderer } from './sheet-renderer';
 import { modelSaveName, runName } from '@shared/text/citations';
 
@@ -75,7 +75,8 @@ export async function listTrussRevisions(trussId: number): Promise<SheetRevision
   const rows = await records.listRevisions({ trussId });
   const [names, open] = await Promise.all([repo.userNames(rows.flatMap(peopleOf)), repo.openThreadCounts(rows.map((r) => r.id))]);
   const labels = new Map(rows.map((r) => [r.id, sheetRevisionLabel(r.number)]));
-  return rows.map((r) => summaryView(r, context, names, open.get(r.id) ?? 0, labels));
+  const replacements = replacementsOf(rows);
+  return rows.map((r) => summaryView(r, context, names, open.get(r.id) ?? 0, labels, replacements));
 }
 
 export async function getRevision(id: number, deps: Pick<ReviewServiceDeps, 'publicUrl'>): Promise<SheetRevisionView> {
@@ -95,7 +96,7 @@ export async function getRevision(id: number, deps: Pick<ReviewServiceDeps, 'pub
   const threads = commentThreads(comments, names, labels);
   const openOnThis = threads.filter((t) => !t.resolved && t.revisionId === row.id).length;
   return {
-    ...summaryView(row, context, names, openOnThis, labels),
+    ...summaryView(row, context, names, openOnThis, labels, replacementsOf(siblings)),
     project: { id: context.projectId, name: context.projectName, jobNumber: context.jobNumber },
     truss: { id: context.trussId, name: context.trussName },
     events: events.map(
@@ -127,13 +128,53 @@ export async function getRevision(id: number, deps: Pick<ReviewServiceDeps, 'pub
   };
 }
 
+/** Active reviewers: the people a preparer may choose as checker (the preparer is an engineer, so never among them). */
+export async function listCheckers(actor: Actor): Promise<{ id: number; name: string; email: string }[]> {
+  return (await repo.activeReviewers()).filter((u) => u.id !== actor.id);
+}
+
+const ROLE_WORDS: Record<Role, string> = { drafter: 'a drafter', engineer: 'an engineer', reviewer: 'a reviewer', admin: 'an admin' };
+
+/**
+ * The checker chosen for a revision, or a 422 naming what is wrong with the choice. Who may
+ * check is the rule of the return and check routes: an active reviewer who did not prepare
+ * the revision ('own-sheet'). `byPreparer` words the refusal of the preparer themselves.
+ */
+async function checkerOr422(checkerId: number | undefined, row: RevisionRow, byPreparer: boolean): Promise<{ id: number; name: string }> {
+  if (checkerId === undefined) throw new AppError('checker-missing', 'Choose the checker: the reviewer who will check this revision.', 422);
+  if (checkerId === row.preparedById) {
+    throw new AppError(
+      'checker-self',
+      byPreparer ? 'You prepared this revision, so you cannot be its checker. Choose a reviewer.' : 'The preparer of a revision cannot be its checker. Choose another reviewer.',
+      422,
+    );
+  }
+  const user = await repo.userById(checkerId);
+  if (!user) throw new AppError('checker-unknown', `Nobody in the firm has the id ${checkerId}. Choose the checker from the list of reviewers.`, 422);
+  if (user.role !== 'reviewer') {
+    throw new AppError('checker-not-reviewer', `${user.name} is ${ROLE_WORDS[user.role]}, not a reviewer, so they cannot check sheets. Choose a reviewer.`, 422);
+  }
+  if (user.disabled) throw new AppError('checker-inactive', `${user.name}'s account is disabled. Choose an active reviewer.`, 422);
+  if (!user.active) throw new AppError('checker-inactive', `${user.name} has not accepted the invitation yet. Choose a reviewer who has signed in.`, 422);
+  return { id: user.id, name: user.name };
+}
+
 /**
  * Moves a revision one step along draft → in check → returned | checked → issued. Who may:
- * submit — the engineer who prepared it; return and check — a reviewer who did not prepare
- * it; issue — an engineer (role checks are on the route). The move is a conditional update, so
- * of two people acting at once one wins and the other gets a 409 naming the status now.
+ * submit — the engineer who prepared it, naming the checker; return and check — the checker
+ * chosen on submitting (on revisions submitted before checkers were chosen, any reviewer who
+ * did not prepare it); issue — an engineer (role checks are on the route). The move is a
+ * conditional update, so of two people acting at once one wins and the other gets a 409
+ * naming the status now. A refusal writes nothing.
  */
-export async function transitionRevision(id: number, action: SheetAction, note: string, actor: Actor, deps: ReviewServiceDeps): Promise<SheetRevisionView> {
+export async function transitionRevision(
+  id: number,
+  action: SheetAction,
+  note: string,
+  actor: Actor,
+  deps: ReviewServiceDeps,
+  options: { checkerId?: number } = {},
+): Promise<SheetRevisionView> {
   const rule = TRANSITIONS[action];
   const row = await revisionOr404(id);
   if (row.status !== rule.from) throw statusConflict(row, action);
@@ -143,6 +184,15 @@ export async function transitionRevision(id: number, action: SheetAction, note: 
   if ((action === 'return' || action === 'check') && row.preparedById === actor.id) {
     throw new AppError('own-sheet', 'You prepared this revision, so you cannot check or return it. Another reviewer must.', 403);
   }
+  if ((action === 'return' || action === 'check') && row.checkerId !== null && row.checkerId !== actor.id) {
+    const checker = (await repo.userNames([row.checkerId])).get(row.checkerId) ?? 'another reviewer';
+    throw new AppError(
+      'not-checker',
+      `Revision ${sheetRevisionLabel(row.number)} was sent to ${checker} to check, so only they can return it or mark it checked; an admin can hand it to you.`,
+      403,
+    );
+  }
+  const checker = action === 'submit' ? await checkerOr422(options.checkerId, row, true) : null;
   const now = (deps.now ?? (() => new Date()))();
   let moved: boolean;
   let sha256: string | undefined;
@@ -170,7 +220,7 @@ export async function transitionRevision(id: number, action: SheetAction, note: 
   } else {
     const fields =
       action === 'submit'
-        ? { submittedAt: now, preparedByName: actor.name }
+        ? { submittedAt: now, preparedByName: actor.name, checkerId: checker!.id }
         : action === 'check'
           ? { checkedAt: now, checkedById: actor.id, checkedByName: actor.name }
           : {};
@@ -178,7 +228,34 @@ export async function transitionRevision(id: number, action: SheetAction, note: 
   }
   if (!moved) throw statusConflict(await revisionOr404(id), action);
 
-  await notify(rule.mail, row, actor, note, deps, sha256);
+  await notify(rule.mail, checker ? { ...row, checkerId: checker.id } : row, actor, note, deps, sha256);
+  return getRevision(id, deps);
+}
+
+/**
+ * An admin hands a revision in check to another checker (someone away, say). The new checker
+ * gets the "submitted" e-mail; the audit log keeps a line naming both. Refused (nothing
+ * written) unless the revision is in check and the new checker could have been chosen.
+ */
+export async function reassignChecker(id: number, checkerId: number, note: string, actor: Actor, deps: ReviewServiceDeps): Promise<SheetRevisionView> {
+  const row = await revisionOr404(id);
+  if (row.status !== 'in-check') {
+    if (FROZEN.includes(row.status)) throw frozenError(row);
+    throw new AppError(
+      'sheet-status-conflict',
+      `Revision ${sheetRevisionLabel(row.number)} is ${STATUS_WORDS[row.status]}; only a revision in check can be given another checker. Reload the sheet to see its current status.`,
+      409,
+    );
+  }
+  const checker = await checkerOr422(checkerId, row, false);
+  if (checker.id === row.checkerId) throw new AppError('checker-unchanged', `${checker.name} is already the checker of this revision.`, 422);
+  const before = row.checkerId === null ? 'every reviewer' : ((await repo.userNames([row.checkerId])).get(row.checkerId) ?? 'the earlier checker');
+  const moved = await repo.checkerChange(row.id, row.checkerId, checker.id, actor.id, `Checker changed from ${before} to ${checker.name}.${note ? ` ${note}` : ''}`);
+  if (!moved) throw statusConflict(await revisionOr404(id), 'check');
+  // The e-mail reads as the preparer's submission (it is theirs), with a line saying who handed it over.
+  const preparer = row.preparedByName ?? (await repo.userNames([row.preparedById])).get(row.preparedById) ?? 'The preparer';
+  const handed = `${actor.name} handed this revision to you to check.${note ? ` ${note}` : ''}`;
+  await notify('submitted', { ...row, checkerId: checker.id }, { ...actor, name: preparer }, handed, deps);
   return getRevision(id, deps);
 }
 
@@ -254,7 +331,8 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
   try {
     const context = await contextOr404(row.trussId);
     let to: string[];
-    if (kind === 'submitted') to = await repo.activeEmails({ role: 'reviewer', kind });
+    // Submitted: the chosen checker only; every reviewer for a row without one (before 0017).
+    if (kind === 'submitted') to = await repo.activeEmails(row.checkerId !== null ? { ids: [row.checkerId], kind } : { role: 'reviewer', kind });
     else if (kind === 'issued') to = await repo.activeEmails({ ids: await repo.projectPeople(context.projectId), kind });
     else to = await repo.activeEmails({ ids: [row.preparedById], kind });
     if (to.length === 0) return;
@@ -272,6 +350,7 @@ async function notify(kind: ReviewMailKind, row: RevisionRow, actor: Actor, note
       openComments: comments?.length,
       comments,
       sha256,
+      toChecker: kind === 'submitted' && row.checkerId !== null,
     });
   } catch (err) {
     deps.log(`Review e-mail (${kind}) for sheet revision ${row.id} was not sent`, err);

@@ -28,14 +28,36 @@ export function commentThreads(rows: CommentRow[], names: Map<number, string>, l
 }
 
 export function peopleOf(r: RevisionRow): (number | null)[] {
-  return [r.preparedById, r.checkedById, r.issuedById];
+  return [r.preparedById, r.checkedById, r.checkerId, r.issuedById];
+}
+
+/**
+ * Returned revisions that have been revised, each with the revision that replaces it: the next
+ * revision of the same truss (the lowest number above it). `rows` are revisions of any trusses.
+ */
+export function replacementsOf(rows: Pick<RevisionRow, 'id' | 'trussId' | 'number' | 'status'>[]): Map<number, { id: number; label: string }> {
+  const out = new Map<number, { id: number; label: string }>();
+  for (const r of rows) {
+    if (r.status !== 'returned') continue;
+    let next: (typeof rows)[number] | undefined;
+    for (const s of rows) if (s.trussId === r.trussId && s.number > r.number && (!next || s.number < next.number)) next = s;
+    if (next) out.set(r.id, { id: next.id, label: sheetRevisionLabel(next.number) });
+  }
+  return out;
 }
 
 export function person(id: number | null, names: Map<number, string>): PersonRef | null {
   return id === null ? null : { id, name: names.get(id) ?? '(unknown)' };
 }
 
-export function summaryView(r: RevisionRow, c: TrussContext, names: Map<number, string>, openCommentCount: number, labels: Map<number, string>): SheetRevisionSummaryView {
+export function summaryView(
+  r: RevisionRow,
+  c: TrussContext,
+  names: Map<number, string>,
+  openCommentCount: number,
+  labels: Map<number, string>,
+  replacements: Map<number, { id: number; label: string }> = new Map(),
+): SheetRevisionSummaryView {
   return {
     id: r.id,
     projectId: c.projectId,
@@ -47,10 +69,12 @@ export function summaryView(r: RevisionRow, c: TrussContext, names: Map<number, 
     // Signed names are the ones printed; the live name is only for revisions not yet signed.
     preparedBy: { id: r.preparedById, name: r.preparedByName ?? names.get(r.preparedById) ?? '(unknown)' },
     checkedBy: r.checkedById === null ? null : { id: r.checkedById, name: r.checkedByName ?? names.get(r.checkedById) ?? '(unknown)' },
+    checker: person(r.checkerId, names),
     issuedBy: r.issuedById === null ? null : { id: r.issuedById, name: r.issuedByName ?? names.get(r.issuedById) ?? '(unknown)' },
     createdAt: r.createdAt.toISOString(),
     updatedAt: r.updatedAt.toISOString(),
     supersededBy: r.supersededById === null ? null : { id: r.supersededById, label: labels.get(r.supersededById) ?? '' },
+    replacedBy: replacements.get(r.id) ?? null,
     openCommentCount,
   };
 }

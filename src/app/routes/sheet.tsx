@@ -10,6 +10,8 @@ import { SheetIssueRecord } from '@/features/records/components/sheet-issue-reco
 import { SheetReview } from '@/features/sheet-revisions/components/sheet-review';
 import { SheetSigners } from '@/features/sheet-revisions/components/sheet-signers';
 import { SheetStatusBadge } from '@/features/sheet-revisions/components/sheet-status-badge';
+import { SheetCheckerChange } from '@/features/sheet-revisions/components/sheet-checker-change';
+import { isAdmin } from '@/lib/permissions';
 import { useCurrentUser } from '../current-user';
 
 export function SheetRoute() {
@@ -55,7 +57,7 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
         title={
           <span className="inline-flex flex-wrap items-center gap-3">
             Calc sheet, revision {s.label}
-            <SheetStatusBadge status={s.status} />
+            <SheetStatusBadge status={s.status} replacedBy={s.replacedBy} />
           </span>
         }
         description={<SheetSigners sheet={s} />}
@@ -81,6 +83,17 @@ function SheetRouteLoaded({ sheetId }: { sheetId: number }) {
           </SheetActions>
         }
       />
+
+      {s.replacedBy && (
+        <NoteLine className="mb-4">
+          Returned and replaced by{' '}
+          <Link to={`/sheets/${s.replacedBy.id}`} className="font-medium text-accent hover:underline">
+            revision {s.replacedBy.label}
+          </Link>
+          . Its comments carry over to the new revision.
+        </NoteLine>
+      )}
+      {s.status === 'in-check' && isAdmin(user.role) && <SheetCheckerChange key={`checker-${s.id}`} sheet={s} />}
 
       {s.supersededBy && (
         <NoteLine className="mb-4">

@@ -14,6 +14,7 @@ export { breakableTex };
  * KaTeX output by source: a sheet repeats many equations word for word (the same member's
  * substitution in several steps, headings of every case), and the typesetting is the view's
  * largest cost. Output depends on the source and the display flag only. Bounded: emptied when full.
+ * Per process and harmless to leave so: a pure function's memo, nobody's state.
  */
 const typeset = new Map<string, string>();
 const TYPESET_CACHE_MAX = 50_000;

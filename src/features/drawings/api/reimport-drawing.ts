@@ -14,6 +14,8 @@ export function useReimportDrawing() {
     meta: { errorsShownInline: true },
     onSuccess: (drawing) => {
       queryClient.setQueryData(['drawings', drawing.id], drawing);
+      // A drafter's My work lists drawings whose newest version failed or has warnings.
+      void queryClient.invalidateQueries({ queryKey: ['me', 'work'] });
       // The version list's counts and the truss's working model follow the import.
       return queryClient.invalidateQueries({
         predicate: (q) => q.queryKey[0] === 'trusses' && q.queryKey[1] === drawing.trussId && q.queryKey.length > 2,

@@ -19,10 +19,12 @@ const sheet: SheetRevisionView = {
   status: 'in-check',
   preparedBy: { id: 7, name: 'Ines Varga' },
   checkedBy: null,
+  checker: { id: 20, name: 'Noor Haddad' },
   issuedBy: null,
   createdAt: '2025-05-01T08:00:00Z',
   updatedAt: '2025-05-01T09:00:00Z',
   supersededBy: null,
+  replacedBy: null,
   openCommentCount: 0,
   project: { id: 1, name: 'Millpond barn roof', jobNumber: 'MB-0412' },
   truss: { id: 4, name: 'T3 hip girder' },
@@ -34,10 +36,10 @@ const sheet: SheetRevisionView = {
 };
 const reviewer = { id: 20, role: 'reviewer' as const };
 
-function renderActions(view: SheetRevisionView = sheet) {
+function renderActions(view: SheetRevisionView = sheet, user: { id: number; role: 'reviewer' | 'engineer' } = reviewer) {
   return render(
     <QueryClientProvider client={new QueryClient({ defaultOptions: { queries: { retry: false } } })}>
-      <SheetActions sheet={view} user={reviewer} />
+      <SheetActions sheet={view} user={user} />
     </QueryClientProvider>,
   );
 }
@@ -81,5 +83,25 @@ describe('SheetActions', () => {
     const check = screen.getByRole('button', { name: 'Mark checked' }) as HTMLButtonElement;
     expect(check.disabled).toBe(true);
     expect(screen.getByText(/2 comment threads are still open/)).toBeTruthy();
+  });
+
+  it('when the preparer submits, then a checker must be chosen first, and the chosen one is sent', async () => {
+    const draft: SheetRevisionView = { ...sheet, status: 'draft', checker: null };
+    const checkers = [{ id: 20, name: 'Noor Haddad', email: 'noor@millpond.example' }];
+    fetchMock.mockImplementation(async (url) =>
+      String(url) === '/api/checkers' ? new Response(JSON.stringify(checkers), { status: 200 }) : new Response(JSON.stringify({ ...draft, status: 'in-check' }), { status: 200 }),
+    );
+    renderActions(draft, { id: 7, role: 'engineer' });
+    fireEvent.click(screen.getByRole('button', { name: 'Submit for check' }));
+    await screen.findByRole('option', { name: 'Noor Haddad (noor@millpond.example)' });
+    fireEvent.click(screen.getAllByRole('button', { name: 'Submit for check' }).at(-1)!);
+    expect(screen.getByText('Choose the checker: the reviewer who will check this revision.')).toBeTruthy();
+    expect(fetchMock.mock.calls.map(([url]) => String(url))).toEqual(['/api/checkers']);
+
+    fireEvent.change(screen.getByLabelText('Checker'), { target: { value: '20' } });
+    fireEvent.click(screen.getAllByRole('button', { name: 'Submit for check' }).at(-1)!);
+    await waitFor(() => expect(fetchMock.mock.calls.some(([url]) => String(url) === '/api/sheets/12/submit')).toBe(true));
+    const [, init] = fetchMock.mock.calls.find(([url]) => String(url) === '/api/sheets/12/submit')!;
+    expect(JSON.parse(String(init?.body))).toEqual({ note: '', checkerId: 20 });
   });
 });

@@ -2,13 +2,14 @@ import { useState, type ReactNode } from 'react';
 import type { UserView } from '@shared/schemas/auth.schema';
 import type { SheetAction, SheetRevisionView } from '@shared/schemas/review.schema';
 import { Button } from '@/components/ui/button';
-import { FormError, TextareaField } from '@/components/ui/field';
+import { FormError, SelectField, TextareaField } from '@/components/ui/field';
 import { errorMessage } from '@/lib/api-client';
+import { useCheckers } from '../api/get-checkers';
 import { useTransitionSheet } from '../api/transition-sheet';
 import { SHEET_ACTION_LABELS, sheetActionsFor } from '../utils/sheet-actions';
 
 const CONFIRM_TEXT: Record<SheetAction, string> = {
-  submit: 'The reviewers get an e-mail asking them to check this revision. You can no longer change it while it is in check.',
+  submit: 'Choose who checks it: that reviewer gets an e-mail asking them to check this revision, and only they can return it or mark it checked. You can no longer change it while it is in check.',
   return: 'The preparer gets an e-mail with your note and the open comments. They revise the model and start a new revision.',
   check: 'You confirm the revision as checked; your name and today’s date go into its signature block.',
   issue: 'Panelpoint prints the final PDF with the signature block filled, stores it with its SHA-256 fingerprint and signs the record with the firm’s key. An issued revision can never change.',
@@ -23,7 +24,10 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
   const [pending, setPending] = useState<SheetAction | null>(null);
   const [note, setNote] = useState('');
   const [noteError, setNoteError] = useState<string>();
+  const [checkerId, setCheckerId] = useState('');
+  const [checkerError, setCheckerError] = useState<string>();
   const transition = useTransitionSheet();
+  const checkers = useCheckers(pending === 'submit');
   const openCount = sheet.openCommentIds.length;
 
   if (actions.length === 0) return <div className="flex flex-wrap justify-end gap-2">{children}</div>;
@@ -31,6 +35,7 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
   const start = (action: SheetAction) => {
     transition.reset();
     setNoteError(undefined);
+    setCheckerError(undefined);
     setPending(action);
   };
   const confirm = () => {
@@ -39,12 +44,17 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
       setNoteError('Say why it goes back: the preparer reads this first.');
       return;
     }
+    if (pending === 'submit' && !checkerId) {
+      setCheckerError('Choose the checker: the reviewer who will check this revision.');
+      return;
+    }
     transition.mutate(
-      { sheetId: sheet.id, action: pending, note: note.trim() },
+      { sheetId: sheet.id, action: pending, note: note.trim(), ...(pending === 'submit' ? { checkerId: Number(checkerId) } : {}) },
       {
         onSuccess: () => {
           setPending(null);
           setNote('');
+          setCheckerId('');
         },
       },
     );
@@ -75,6 +85,27 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
       {pending && (
         <div className="absolute top-11 right-0 z-20 w-[26rem] max-w-[90vw] rounded-xs border border-paper-line bg-paper-raised p-4 text-left outline outline-1 outline-ink-soft">
           <p className="mb-3 text-sm text-ink-soft">{CONFIRM_TEXT[pending]}</p>
+          {pending === 'submit' && (
+            <div className="mb-3">
+              <SelectField
+                label="Checker"
+                value={checkerId}
+                error={checkerError ?? (checkers.isError ? errorMessage(checkers.error) : undefined)}
+                hint={checkers.data && checkers.data.length === 0 ? 'The firm has no active reviewer yet: ask your admin to invite one.' : undefined}
+                onChange={(e) => {
+                  setCheckerId(e.target.value);
+                  setCheckerError(undefined);
+                }}
+              >
+                <option value="">{checkers.isPending ? 'Loading the reviewers…' : 'Choose a reviewer'}</option>
+                {checkers.data?.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.name} ({c.email})
+                  </option>
+                ))}
+              </SelectField>
+            </div>
+          )}
           <TextareaField
             label={pending === 'return' ? 'Why it goes back' : 'Note for the audit log (optional)'}
             rows={3}

@@ -17,6 +17,9 @@ export function SheetAuditLog({ events }: { events: SheetEventView[] }) {
               <span className="text-ink-soft">
                 {event.from === null ? (
                   <>started it as {SHEET_STATUS_LABELS[event.to].toLowerCase()}</>
+                ) : event.from === event.to ? (
+                  // A line that is no move (an admin handing the revision to another checker): its note says what changed.
+                  <>changed the checker (still {SHEET_STATUS_LABELS[event.to].toLowerCase()})</>
                 ) : (
                   <>
                     {SHEET_STATUS_LABELS[event.from].toLowerCase()} → <span className="font-medium text-ink">{SHEET_STATUS_LABELS[event.to].toLowerCase()}</span>

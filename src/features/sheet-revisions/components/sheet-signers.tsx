@@ -9,7 +9,9 @@ function lastMoveTo(sheet: SheetRevisionView, to: SheetStatus): string | undefin
 export function SheetSigners({ sheet }: { sheet: SheetRevisionView }) {
   const rows: { role: string; name?: string; at?: string }[] = [
     { role: 'Prepared', name: sheet.preparedBy.name, at: lastMoveTo(sheet, 'in-check') ?? sheet.createdAt },
-    { role: 'Checked', name: sheet.checkedBy?.name, at: lastMoveTo(sheet, 'checked') },
+    sheet.checkedBy || !sheet.checker
+      ? { role: 'Checked', name: sheet.checkedBy?.name, at: lastMoveTo(sheet, 'checked') }
+      : { role: 'Checker', name: sheet.checker.name },
     { role: 'Issued', name: sheet.issuedBy?.name, at: sheet.issue?.issuedAt ?? lastMoveTo(sheet, 'issued') },
   ];
   return (

@@ -12,13 +12,21 @@ const MARKS: Record<SheetStatus, { line: string; word: string }> = {
   superseded: { line: 'border-t border-ink-faint', word: 'text-ink-faint line-through decoration-ink-faint' },
 };
 
-/** A revision's status in words, marked by a line whose style follows how far along the way it is. */
-export function SheetStatusBadge({ status }: { status: SheetStatus }) {
+/**
+ * A revision's status in words, marked by a line whose style follows how far along the way it
+ * is. A returned revision that has been revised says which revision replaces it
+ * ("Returned — replaced by revision C"), in the faint ink of what is done with.
+ */
+export function SheetStatusBadge({ status, replacedBy }: { status: SheetStatus; replacedBy?: { label: string } | null }) {
   const mark = MARKS[status];
+  const replaced = status === 'returned' && replacedBy;
   return (
     <span className="inline-flex items-center gap-1.5 text-[13px] leading-4 font-medium whitespace-nowrap">
-      <span aria-hidden className={`inline-block w-4 ${mark.line}`} />
-      <span className={mark.word}>{SHEET_STATUS_LABELS[status]}</span>
+      <span aria-hidden className={`inline-block w-4 ${replaced ? MARKS.superseded.line : mark.line}`} />
+      <span className={replaced ? 'text-ink-soft' : mark.word}>
+        {SHEET_STATUS_LABELS[status]}
+        {replaced && <span className="font-normal"> — replaced by revision {replacedBy.label}</span>}
+      </span>
     </span>
   );
 }

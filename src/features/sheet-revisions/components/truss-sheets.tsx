@@ -33,9 +33,17 @@ export function TrussSheets({ trussId, user }: { trussId: number; user: Pick<Use
           </Link>
         ),
       }),
-      column.accessor('status', { header: 'Status', meta: { width: 'w-28' }, cell: (info) => <SheetStatusBadge status={info.getValue()} /> }),
+      column.accessor('status', {
+        header: 'Status',
+        meta: { width: 'w-28' },
+        cell: (info) => <SheetStatusBadge status={info.getValue()} replacedBy={info.row.original.replacedBy} />,
+      }),
       column.accessor((r) => r.preparedBy.name, { id: 'preparedBy', header: 'Prepared by' }),
-      column.accessor((r) => r.checkedBy?.name ?? '', { id: 'checkedBy', header: 'Checked by', cell: (info) => info.getValue() || <span className="text-ink-faint">—</span> }),
+      column.accessor((r) => r.checkedBy?.name ?? r.checker?.name ?? '', {
+        id: 'checkedBy',
+        header: 'Checker',
+        cell: (info) => info.getValue() || <span className="text-ink-faint">—</span>,
+      }),
       column.accessor('openCommentCount', {
         header: 'Open comments',
         meta: { align: 'right', width: 'w-32' },

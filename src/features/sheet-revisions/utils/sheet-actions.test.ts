@@ -33,6 +33,21 @@ describe('sheetActionsFor', () => {
   });
 });
 
+describe('sheetActionsFor with a chosen checker', () => {
+  // Issue 15: the preparer names the checker on submitting; only that reviewer returns or checks.
+  const inCheck = { status: 'in-check' as const, preparedBy: { id: PREPARER, name: 'Ines Varga' }, checker: { id: 21, name: 'Noor Haddad' } };
+  it('when the signed-in reviewer is the chosen checker, then return and check are offered', () => {
+    expect(sheetActionsFor(person('reviewer', 21), inCheck)).toEqual(['return', 'check']);
+  });
+  it('when another reviewer opens it, then no move is offered', () => {
+    expect(sheetActionsFor(person('reviewer', 20), inCheck)).toEqual([]);
+  });
+  it('when no checker was chosen (submitted before checkers were chosen), then any reviewer but the preparer may act', () => {
+    expect(sheetActionsFor(person('reviewer', 20), { ...inCheck, checker: null })).toEqual(['return', 'check']);
+    expect(sheetActionsFor(person('reviewer', PREPARER), { ...inCheck, checker: null })).toEqual([]);
+  });
+});
+
 describe('canCommentOnSheet', () => {
   it('when the revision is issued or superseded, then nobody may comment', () => {
     for (const role of ['engineer', 'reviewer', 'admin', 'drafter'] as const) {

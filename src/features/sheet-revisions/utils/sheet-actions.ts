@@ -4,7 +4,7 @@ import type { SheetAction, SheetRevisionSummaryView, SheetStatus } from '@shared
 // The client only hides what a person cannot do; the server checks every move again.
 
 type Person = Pick<UserView, 'id' | 'role'>;
-type Revision = Pick<SheetRevisionSummaryView, 'status' | 'preparedBy'>;
+type Revision = Pick<SheetRevisionSummaryView, 'status' | 'preparedBy'> & Partial<Pick<SheetRevisionSummaryView, 'checker'>>;
 
 /** Issued and superseded revisions never change: no moves, no comments, no resolving. */
 export function isSheetFrozen(status: SheetStatus): boolean {
@@ -13,14 +13,16 @@ export function isSheetFrozen(status: SheetStatus): boolean {
 
 /**
  * The moves this person may offer on this revision, in the order the page shows them:
- * submit — the engineer who prepared it, on a draft; return and check — a reviewer who did not
- * prepare it, while it is in check; issue — any engineer, once it is checked.
+ * submit — the engineer who prepared it, on a draft; return and check — the checker chosen on
+ * submitting (a revision submitted before checkers were chosen: any reviewer who did not
+ * prepare it), while it is in check; issue — any engineer, once it is checked.
  */
 export function sheetActionsFor(user: Person, revision: Revision): SheetAction[] {
   const actions: SheetAction[] = [];
   const preparer = revision.preparedBy.id === user.id;
+  const checker = revision.checker ? revision.checker.id === user.id : !preparer;
   if (revision.status === 'draft' && user.role === 'engineer' && preparer) actions.push('submit');
-  if (revision.status === 'in-check' && user.role === 'reviewer' && !preparer) actions.push('return', 'check');
+  if (revision.status === 'in-check' && user.role === 'reviewer' && !preparer && checker) actions.push('return', 'check');
   if (revision.status === 'checked' && user.role === 'engineer') actions.push('issue');
   return actions;
 }
