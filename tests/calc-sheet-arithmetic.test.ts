@@ -11,13 +11,13 @@ import { buildCalcSheetView, equationHtml, type CalcSheetInput, type CalcSheetVi
 /**
  * A checker redoes every printed equation of a calc sheet by hand, from the printed numbers.
  * This test does the same: it reads the KaTeX source of every typeset line of several sheets
- * (the demo truss with a roof takeoff by both methods, a K-truss, trusses solved partly by
+ * (the demo truss with a roof loading by both methods, a K-truss, trusses solved partly by
  * simultaneous equations, two stiffness solutions, a long truss with large forces, US units),
  * recomputes each line from its printed operands and compares with its printed result to the
  * printed precision: within half a unit of the result's last printed place.
  *
  * The recomputation is independent of the code under test: linear systems are solved with
- * mathjs (lusolve), and the takeoff's arithmetic with units is evaluated by mathjs's unit
+ * mathjs (lusolve), and the roof loading's arithmetic with units is evaluated by mathjs's unit
  * algebra (1 lbf = 4.4482216152605 N, 1 ft = 0.3048 m, exact by definition, NIST SP 811).
  */
 
@@ -376,12 +376,14 @@ function sheetCheck(sheet: string, view: CalcSheetView, bad: Mismatch[]): number
     }
     // Residual relative to the largest load, each as printed (3 significant figures).
     const [abs, rel] = c.check.tex;
-    const r = /= (\d\.\d\de[-+]\d+)\\ \\mathrm\{kN\}/.exec(abs);
-    const q = /load } (\d+\.\d+)\\ \\mathrm\{kN\}:\\ (\d\.\d\de[-+]\d+)/.exec(rel);
+    // Written m \times 10^{n} (texScientific), never 2.01e-14.
+    const sci = (m: string, e: string) => Number(m) * 10 ** Number(e);
+    const r = /= (\d\.\d\d) \\times 10\^\{(-?\d+)\}\\ \\mathrm\{kN\}/.exec(abs);
+    const q = /load } (\d+\.\d+)\\ \\mathrm\{kN\}:\\ (\d\.\d\d) \\times 10\^\{(-?\d+)\}/.exec(rel);
     if (r && q && Number(q[1]) > 0) {
       checked++;
-      const got = Number(r[1]) / Number(q[1]);
-      const printed = Number(q[2]);
+      const got = sci(r[1], r[2]) / Number(q[1]);
+      const printed = sci(q[2], q[3]);
       if (!(Math.abs(got - printed) <= 0.5 * 10 ** (Math.floor(Math.log10(printed)) - 2) * (1 + 1e-9))) {
         bad.push({ sheet, step: c.check.id, line: rel, got, printed });
       }

@@ -70,13 +70,13 @@ describe('R12 four-panel truss, unitless (hand-written, AC1009)', () => {
 
   it('when texts L0…U4 sit beside the joints, then they become the tags and the title and circle are ignored', () => {
     const r = dxfImport(parsed, { units: 'mm' });
-    expect(entry(r, 'joint-tags').message).toBe('took 10 joint tags from texts near the joints: joints U0, U1, U2, U3, U4, L0 and 4 more');
+    expect(entry(r, 'joint-tags').message).toBe('took 10 joint labels from texts near the joints: joints U0, U1, U2, U3, U4, L0 and 4 more');
     const ignored = r.report.filter((x) => x.kind === 'ignored-entity');
     expect(ignored.map((x) => [x.entityType, x.count, x.layers])).toEqual([
       ['CIRCLE', 1, ['ANNO']],
       ['TEXT', 1, ['ANNO']],
     ]);
-    expect(ignored[1].message).toBe('ignored 1 text (not a joint tag) on layer ANNO');
+    expect(ignored[1].message).toBe('ignored 1 text (not a joint label) on layer ANNO');
     for (const k of ['merged-endpoints', 'merged-duplicate', 'merged-overlap', 'crossing', 'dangling-member', 'isolated-piece'] as const) {
       expect(r.report.some((x) => x.kind === k), k).toBe(false);
     }

@@ -81,7 +81,7 @@ describe('job file on the command line', () => {
     ['an EA entry on no member', { ...king, EA: [{ from: [0, 0], to: [8, 0], EA: 1 }] }, /no member joins those joints/],
     ['a wind coefficient without a velocity pressure', { ...king, cases: [...king.cases, { id: 'W', name: 'Wind', category: 'wind' }], takeoff: { topChordJoints: ['A', 'C', 'B'], areaLoads: [], wind: { caseId: 'W', windward: 'left', cWindward: -0.9, cLeeward: -0.5 }, spacing: 5, trussCount: 3, trussIndex: 1, method: 'exact' } }, /In "takeoff": A wind pressure coefficient is given without a velocity pressure q/],
     ['a partial-loading request for a dead case', { ...king, takeoff: { topChordJoints: ['A', 'C', 'B'], areaLoads: [{ caseId: 'D', q: 1, basis: 'plan', patterns: true }], spacing: 5, trussCount: 3, trussIndex: 1, method: 'exact' } }, /Load case "D" is a dead case, and span patterns are checked only for roof live, live and snow load/],
-    ['a roof loading on a case not declared', { ...king, takeoff: { topChordJoints: ['A', 'C', 'B'], areaLoads: [{ caseId: 'Lr', q: 1, basis: 'plan' }], spacing: 5, trussCount: 3, trussIndex: 1, method: 'exact' } }, /In "takeoff": The roof takeoff writes load case "Lr"/],
+    ['a roof loading on a case not declared', { ...king, takeoff: { topChordJoints: ['A', 'C', 'B'], areaLoads: [{ caseId: 'Lr', q: 1, basis: 'plan' }], spacing: 5, trussCount: 3, trussIndex: 1, method: 'exact' } }, /In "takeoff": The roof loading writes load case "Lr"/],
   ];
   for (const [what, job, message] of bad) {
     it(`when the job has ${what}, then it exits 2 with one line on stderr and nothing on stdout`, async () => {

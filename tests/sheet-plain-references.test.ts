@@ -210,15 +210,15 @@ describe('every symbol on the sheet defined before or where it is first used', (
     expect([...new Set(undefinedAt)]).toEqual([]);
   });
 
-  it('when a sheet has a roof takeoff, then its symbols are listed under the takeoff\'s own heading with its section number, each with what it stands for', () => {
+  it('when a sheet has a roof loading, then its symbols are listed under the takeoff\'s own heading with its section number, each with what it stands for', () => {
     const sheet = SHEETS.find((s) => s.name === 'demo truss with wind and snow span patterns (exact)')!;
     const number = sheet.view.numbers.takeoff;
     expect(number).toMatch(/^\d+$/);
-    expect(sheet.html).toContain(`<dt class="symbols-group">In the roof load takeoff, section ${number}</dt>`);
+    expect(sheet.html).toContain(`<dt class="symbols-group">In the roof loading, section ${number}</dt>`);
     const takeoff = sheet.view.designBasis.symbols.filter((s) => s.group === 'takeoff');
     const families = new Set(takeoff.flatMap((s) => [...texSymbols(s.tex)]));
     // The roof loading's own symbols (tributary widths, spans and moments, c, q, q_p, wind, span patterns).
-    for (const f of ['b_{s}', 'b_{p}', 'L_{i}', 'M_{i}', 'c_{exact}', 'c_{trib}', 'q', 'q_{p}', 'w', 'R_{exact}', 'R_{trib}', '\\Delta', 'r_{j}', 'c_{all}', '\\theta_{i}', 'p_{i}', 'c_{i}', 'w_{n,i}', 'w_{x}', 'w_{y}', 's_{i}']) {
+    for (const f of ['b_{s}', 'b_{p}', 'L_{i}', 'M_{i}', 'c_{cont}', 'c_{trib}', 'q', 'q_{p}', 'w', 'R_{cont}', 'R_{trib}', '\\Delta', 'r_{j}', 'c_{all}', '\\theta_{i}', 'p_{i}', 'c_{i}', 'w_{n,i}', 'w_{x}', 'w_{y}', 's_{i}']) {
       expect(families.has(f.replace('r_{j}', 'r_{j}')) || families.has(f.replace(/_\{j\}/, '_{i}')), f).toBe(true);
     }
     expect(takeoff.every((s) => s.meaning.length > 20)).toBe(true);

@@ -77,7 +77,7 @@ function stepsOf(view: CalcSheetView): StepView[] {
 
 const demo = withTakeoff(demoTruss(), 'exact', 4.5);
 const SHEETS: [string, CalcSheetInput][] = [
-  ['demo truss with a roof takeoff, A4', input(demo.model, 'A4', { takeoffSteps: demo.takeoffSteps })],
+  ['demo truss with a roof loading, A4', input(demo.model, 'A4', { takeoffSteps: demo.takeoffSteps })],
   ['K-truss, US Letter', input(modelFromSketch(kTruss()), 'Letter')],
 ];
 

@@ -110,7 +110,7 @@ describe('calc sheet view', () => {
     expect(html).toMatch(/Unstable/);
   });
 
-  it('when the loads come from a roof takeoff, then every takeoff step is typeset under its own anchor with the purlin line load', () => {
+  it('when the loads come from a roof loading, then every takeoff step is typeset under its own anchor with the purlin line load', () => {
     const base = input();
     const top = base.model.joints.filter((j) => j.tag.startsWith('U'));
     const takeoff = roofTakeoff({

@@ -29,7 +29,7 @@ export class CombinationError extends Error {
 export interface CodeCombination extends Combination {
   clause: string;
   setId: CombinationSetId;
-  /** The rule of the set, e.g. "3" or "6.10b S-lead". */
+  /** The rule of the set, e.g. "3" or "6.10b leading snow". */
   rule: string;
   /** The combination as the standard writes it, e.g. "1.2D + 1.6(Lr or S or R) + (L or 0.5W)". */
   formula: string;
@@ -168,7 +168,7 @@ export function combinationsBuild(setId: CombinationSetId, loadCases: readonly C
 
 /** What one rule of a set gave over the load cases, for the reasons on the calc sheet. */
 export interface RuleOutcome {
-  /** The rule's id in its set, e.g. "3" or "6.10b S-lead". */
+  /** The rule's id in its set, e.g. "3" or "6.10b leading snow". */
   id: string;
   clause: string;
   formula: string;
@@ -245,7 +245,8 @@ export function combinationsExplain(setId: CombinationSetId, loadCases: readonly
         factors[caseId] = term.factor;
         factorNotes[caseId] = term.note;
       }
-      const label = `${set.prefix} ${rule.id}${expanded.length > 1 ? `${/[A-Za-z]$/.test(rule.id) ? '-' : ''}${suffix(i)}` : ''}`;
+      // "ASCE 3a", or for a rule named in words "EN 6.10 leading snow (a)".
+      const label = `${set.prefix} ${rule.id}${expanded.length > 1 ? (/[A-Za-z]$/.test(rule.id) ? ` (${suffix(i)})` : suffix(i)) : ''}`;
       const long = `${label}: ${actingText(choices, variableIds)}`;
       const combination: CodeCombination = {
         name: long.length <= NAME_MAX ? long : label,

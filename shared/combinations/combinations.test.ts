@@ -130,16 +130,16 @@ describe('EN 1990:2002+A1 fundamental combination', () => {
     expect(combos.map((c) => [c.rule, c.factors])).toEqual([
       ['6.10 G', { G: 1.35 }],
       ['6.10 G', { G: 1 }],
-      ['6.10 S-lead', { G: 1.35, S: 1.5, W: 0.9 }],
-      ['6.10 S-lead', { G: 1.35, S: 1.5 }],
-      ['6.10 S-lead', { G: 1, S: 1.5, W: 0.9 }],
-      ['6.10 S-lead', { G: 1, S: 1.5 }],
-      ['6.10 W-lead', { G: 1.35, W: 1.5, S: 0.75 }],
-      ['6.10 W-lead', { G: 1.35, W: 1.5 }],
-      ['6.10 W-lead', { G: 1, W: 1.5, S: 0.75 }],
-      ['6.10 W-lead', { G: 1, W: 1.5 }],
+      ['6.10 leading snow', { G: 1.35, S: 1.5, W: 0.9 }],
+      ['6.10 leading snow', { G: 1.35, S: 1.5 }],
+      ['6.10 leading snow', { G: 1, S: 1.5, W: 0.9 }],
+      ['6.10 leading snow', { G: 1, S: 1.5 }],
+      ['6.10 leading wind', { G: 1.35, W: 1.5, S: 0.75 }],
+      ['6.10 leading wind', { G: 1.35, W: 1.5 }],
+      ['6.10 leading wind', { G: 1, W: 1.5, S: 0.75 }],
+      ['6.10 leading wind', { G: 1, W: 1.5 }],
     ]);
-    expect(combos[9].name).toBe('EN 6.10 W-lead-d: G + W; S not acting');
+    expect(combos[9].name).toBe('EN 6.10 leading wind (d): G + W; S not acting');
     expect(combos[9].factorNotes.G).toContain('γ_G,inf = 1.00');
   });
 
@@ -149,7 +149,7 @@ describe('EN 1990:2002+A1 fundamental combination', () => {
     expect(combinationApply(byFactors(combos, { G: 1.1475, S: 1.5, W: 0.9 }), values)).toBeCloseTo(4.245, 10);
     expect(combinationApply(byFactors(combos, { G: 1.1475, W: 1.5, S: 0.75 }), values)).toBeCloseTo(3.795, 10);
     expect(extremes(combos, values).max.value).toBeCloseTo(4.245, 10);
-    // (6.10a): 2 × 2 × 2 presence patterns; (6.10b) S-lead and W-lead: 2 × 2 each.
+    // (6.10a): 2 × 2 × 2 presence patterns; (6.10b) leading snow and leading wind: 2 × 2 each.
     expect(combos.filter((c) => c.rule === '6.10a')).toHaveLength(8);
     expect(combos).toHaveLength(16);
     const b = byFactors(combos, { G: 1.1475, S: 1.5, W: 0.9 });
@@ -160,13 +160,13 @@ describe('EN 1990:2002+A1 fundamental combination', () => {
 
   it('when roof imposed load H is present with snow and wind, then H leads alone (EN 1991-1-1 §3.3.2(1)) and never accompanies (ψ0 = 0)', () => {
     const combos = combinationsBuild('en1990-6.10', cases(['G', 'dead'], ['H', 'roof-live'], ['S', 'snow'], ['W', 'wind']));
-    const hLead = combos.filter((c) => c.rule === '6.10 H-lead');
+    const hLead = combos.filter((c) => c.rule === '6.10 leading roof imposed');
     expect(hLead.map((c) => c.factors)).toEqual([
       { G: 1.35, H: 1.5 },
       { G: 1, H: 1.5 },
     ]);
     expect(hLead[0].clause).toContain('EN 1991-1-1:2002 §3.3.2(1)');
-    expect(combos.filter((c) => c.rule !== '6.10 H-lead').some((c) => 'H' in c.factors)).toBe(false);
+    expect(combos.filter((c) => c.rule !== '6.10 leading roof imposed').some((c) => 'H' in c.factors)).toBe(false);
     const notes = COMBINATION_SETS.find((s) => s.id === 'en1990-6.10')!.notes.join(' ');
     expect(notes).toContain('§3.3.2(1)');
     expect(notes).toMatch(/would not be "on the safe side"/);
@@ -174,8 +174,8 @@ describe('EN 1990:2002+A1 fundamental combination', () => {
 
   it('when there is no imposed-load case, then no combination is led by imposed load', () => {
     const combos = combinationsBuild('en1990-6.10ab', cases(['G', 'dead'], ['S', 'snow']));
-    expect(combos.some((c) => /Q-lead|H-lead/.test(c.rule))).toBe(false);
-    expect(combos.map((c) => c.rule)).toEqual(['6.10a', '6.10a', '6.10a', '6.10a', '6.10b S-lead', '6.10b S-lead']);
+    expect(combos.some((c) => /leading (imposed|roof imposed)/.test(c.rule))).toBe(false);
+    expect(combos.map((c) => c.rule)).toEqual(['6.10a', '6.10a', '6.10a', '6.10a', '6.10b leading snow', '6.10b leading snow']);
   });
 });
 

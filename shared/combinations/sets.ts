@@ -59,7 +59,7 @@ export type RuleGroup =
   | { kind: 'one-of'; options: RuleTerm[]; principal?: boolean };
 
 export interface CombinationRule {
-  /** Short id within the set, e.g. "3" or "6.10b S-lead". */
+  /** Short id within the set, e.g. "3" or "6.10b leading snow". */
   id: string;
   /** E.g. "ASCE/SEI 7-16 §2.3.1 (3)". */
   clause: string;
@@ -233,11 +233,12 @@ const GAMMA_Q = 1.5;
 const XI = 0.85;
 
 /** EN 1990 Table A1.1 ψ0 per category (recommended values, from memory). */
-const PSI0: Record<Exclude<LoadCategory, 'dead' | 'other'>, { psi0: number; why: string; symbol: string }> = {
-  live: { psi0: 0.7, why: 'imposed load, categories A/B assumed', symbol: 'Q' },
-  'roof-live': { psi0: 0, why: 'imposed load on roofs, category H', symbol: 'H' },
-  snow: { psi0: 0.5, why: 'snow, site altitude ≤ 1000 m a.s.l.', symbol: 'S' },
-  wind: { psi0: 0.6, why: 'wind', symbol: 'W' },
+/** `word`: the leading action in plain words for the rule's name ("6.10 leading snow"). */
+const PSI0: Record<Exclude<LoadCategory, 'dead' | 'other'>, { psi0: number; why: string; symbol: string; word: string }> = {
+  live: { psi0: 0.7, why: 'imposed load, categories A/B assumed', symbol: 'Q', word: 'imposed' },
+  'roof-live': { psi0: 0, why: 'imposed load on roofs, category H', symbol: 'H', word: 'roof imposed' },
+  snow: { psi0: 0.5, why: 'snow, site altitude ≤ 1000 m a.s.l.', symbol: 'S', word: 'snow' },
+  wind: { psi0: 0.6, why: 'wind', symbol: 'W', word: 'wind' },
 };
 const VARIABLE: Array<keyof typeof PSI0> = ['live', 'roof-live', 'snow', 'wind'];
 
@@ -304,7 +305,7 @@ function enSet(id: 'en1990-6.10' | 'en1990-6.10ab'): CombinationSet {
     );
   const leadingRules = (eq: string, xi: boolean): CombinationRule[] =>
     VARIABLE.map((lead) => ({
-      id: `${eq} ${PSI0[lead].symbol}-lead`,
+      id: `${eq} leading ${PSI0[lead].word}`,
       clause: lead === 'roof-live' ? `${clause(eq)}; ${H_EXCLUSION_CLAUSE}` : clause(eq),
       formula: xi
         ? `ξγ_G G + γ_Q ${PSI0[lead].symbol} + Σ γ_Q ψ0 Q_i`

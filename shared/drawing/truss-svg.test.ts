@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { trussSolve, type JointStep } from '../solver';
 import { modelFromSketch } from '../solver/test-trusses';
-import { jointFbdSvg, LOAD_STYLE, REACTION_STYLE, subscriptText } from './truss-svg';
+import { DRAWING_INK, jointFbdSvg, LOAD_STYLE, REACTION_STYLE, subscriptText } from './truss-svg';
 
 /**
  * A symmetric triangle of our own: A (0, 0) pin, B (4, 0) roller, apex C (2, 1.5), 10 kN down at
@@ -51,7 +51,7 @@ describe('joint free-body diagram', () => {
     expect(Math.abs(num(reactionLine, 'x1') - num(loadLine, 'x1'))).toBeGreaterThanOrEqual(10);
     // The load's head is filled; the reaction's is open (white with a violet outline).
     expect(svg).toMatch(new RegExp(`<path d="[^"]+" fill="${LOAD_STYLE.stroke}"/>`));
-    expect(svg).toMatch(new RegExp(`<path d="[^"]+" fill="#fff" stroke="${REACTION_STYLE.stroke}"`));
+    expect(svg).toMatch(new RegExp(`<path d="[^"]+" fill="${DRAWING_INK.paper}" stroke="${REACTION_STYLE.stroke}"`));
     // And the key says which is which.
     expect(text(svg)).toMatch(/load.*reaction/);
   });

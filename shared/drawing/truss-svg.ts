@@ -12,15 +12,33 @@ import type { DeflectedShape } from '@shared/design/deflected-shape';
  * style and a written (T)/(C), so a grey-scale print loses nothing.
  */
 
-/** Panelpoint's force colours (DESIGN.md "Look"): teal tension, amber compression, grey zero. */
-export const FORCE_STYLE = {
-  tension: { stroke: '#0f766e', ink: '#0b5a54', width: 3.2, dash: '' },
-  compression: { stroke: '#c2780a', ink: '#8a5200', width: 3.2, dash: '9 5' },
-  zero: { stroke: '#9aa1a8', ink: '#6b7178', width: 1.4, dash: '1.5 4' },
+/**
+ * Panelpoint's drawing inks (docs/visual-language.md, "Drawings"; the same hexes as the tailwind
+ * tokens): graphite for the truss, the paper for fills, the tension blue-green and the
+ * compression umber. Tension, compression and zero are told by line before colour: tension a
+ * thin continuous line, compression a heavy continuous line, zero force a faint dashed line.
+ */
+export const DRAWING_INK = {
+  ink: '#26292b',
+  soft: '#4f5357',
+  faint: '#65696c',
+  paper: '#fdfcf9',
+  line: '#cfc8ba',
+  accent: '#0f5a55',
+  tension: '#17706a',
+  compression: '#8a4b0f',
 } as const;
 
-const INK = '#23272b';
-const FAINT = '#8b9197';
+/** Member force lines: tension thin, compression heavy, zero faint and dashed. */
+export const FORCE_STYLE = {
+  tension: { stroke: DRAWING_INK.tension, ink: DRAWING_INK.tension, width: 2, dash: '' },
+  compression: { stroke: DRAWING_INK.compression, ink: DRAWING_INK.compression, width: 5, dash: '' },
+  zero: { stroke: DRAWING_INK.faint, ink: DRAWING_INK.faint, width: 1.2, dash: '6 4' },
+} as const;
+
+const INK = DRAWING_INK.ink;
+const FAINT = DRAWING_INK.faint;
+const PAPER = DRAWING_INK.paper;
 const VIEW_W = 1000;
 
 /** Escapes text for SVG content and attribute values. */
@@ -93,7 +111,7 @@ function haloText(x: number, y: number, text: string, attrs: string): string {
   const h = size * 1.05;
   const anchor = /text-anchor="(start|end|middle)"/.exec(attrs)?.[1] ?? 'start';
   const left = anchor === 'start' ? x - 1.5 : anchor === 'end' ? x - w + 1.5 : x - w / 2;
-  return `<rect x="${f1(left)}" y="${f1(y - size * 0.82)}" width="${f1(w)}" height="${f1(h)}" rx="2" fill="#fff" fill-opacity="0.88"/><text x="${f1(x)}" y="${f1(y)}" ${attrs}>${subscriptText(text, size)}</text>`;
+  return `<rect x="${f1(left)}" y="${f1(y - size * 0.82)}" width="${f1(w)}" height="${f1(h)}" rx="2" fill="${PAPER}" fill-opacity="0.88"/><text x="${f1(x)}" y="${f1(y)}" ${attrs}>${subscriptText(text, size)}</text>`;
 }
 
 /**
@@ -132,12 +150,12 @@ function supportSymbol(frame: Frame, x: number, y: number, kind: 'pin' | 'roller
   // Drawn with the reaction pointing up (toward the joint), then turned to the reaction line.
   const rot = -(angleDeg - 90);
   const s = 13;
-  const parts = [`<path d="M0 0 L${-s} ${s * 1.45} L${s} ${s * 1.45} Z" fill="#fff" stroke="${INK}" stroke-width="1.6"/>`];
+  const parts = [`<path d="M0 0 L${-s} ${s * 1.45} L${s} ${s * 1.45} Z" fill="${PAPER}" stroke="${INK}" stroke-width="1.6"/>`];
   let base = s * 1.45;
   if (kind === 'roller') {
     parts.push(
-      `<circle cx="${-s * 0.55}" cy="${base + 4.5}" r="4" fill="#fff" stroke="${INK}" stroke-width="1.4"/>`,
-      `<circle cx="${s * 0.55}" cy="${base + 4.5}" r="4" fill="#fff" stroke="${INK}" stroke-width="1.4"/>`,
+      `<circle cx="${-s * 0.55}" cy="${base + 4.5}" r="4" fill="${PAPER}" stroke="${INK}" stroke-width="1.4"/>`,
+      `<circle cx="${s * 0.55}" cy="${base + 4.5}" r="4" fill="${PAPER}" stroke="${INK}" stroke-width="1.4"/>`,
     );
     base += 9;
   }
@@ -230,14 +248,14 @@ export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions)
       const a = byId.get(m.from);
       const b = byId.get(m.to);
       if (!a || !b) continue;
-      out.push(haloText(frame.x((a.x + b.x) / 2), frame.y((a.y + b.y) / 2) + font * 0.35, m.tag, `text-anchor="middle" font-size="${font * 0.82}" font-style="italic" fill="#0b5a54"`));
+      out.push(haloText(frame.x((a.x + b.x) / 2), frame.y((a.y + b.y) / 2) + font * 0.35, m.tag, `text-anchor="middle" font-size="${font * 0.82}" font-style="italic" fill="${DRAWING_INK.soft}"`));
     }
   }
   for (const j of model.joints) {
     const [ox, oy] = openDirection(model, j.id);
     const cx = frame.x(j.x);
     const cy = frame.y(j.y);
-    out.push(`<circle cx="${f1(cx)}" cy="${f1(cy)}" r="${many ? 2.6 : 3.8}" fill="#fff" stroke="${INK}" stroke-width="1.6"/>`);
+    out.push(`<circle cx="${f1(cx)}" cy="${f1(cy)}" r="${many ? 2.6 : 3.8}" fill="${PAPER}" stroke="${INK}" stroke-width="1.6"/>`);
     const supported = model.supports.some((s) => s.joint === j.id);
     const loaded = loads.some((l) => l.joint === j.id);
     // A loaded joint's arrow runs along the open side: its tag moves beside the arrow instead.
@@ -276,11 +294,11 @@ export function trussGeometrySvg(model: TrussModel, options: GeometrySvgOptions)
       const tipY = push ? jy - uy * near : jy + uy * (near + len);
       const tailX = push ? tipX - ux * len : jx + ux * near;
       const tailY = push ? tipY - uy * len : jy + uy * near;
-      out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - ux * 8)}" y2="${f1(tipY - uy * 8)}" stroke="#1d4ed8" stroke-width="1.8"/>`);
-      out.push(arrowHead(tipX, tipY, ux, uy, 10, '#1d4ed8'));
+      out.push(`<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(tipX - ux * 8)}" y2="${f1(tipY - uy * 8)}" stroke="${DRAWING_INK.soft}" stroke-width="1.8"/>`);
+      out.push(arrowHead(tipX, tipY, ux, uy, 10, DRAWING_INK.soft));
       const endX = jx + side * ux * (near + len + 6);
       const endY = jy + side * uy * (near + len + 6);
-      out.push(haloText(endX, endY + (side * uy > 0.5 ? font * 0.8 : side * uy < -0.5 ? -3 : font * 0.3), options.formatForce(mag), `text-anchor="middle" font-size="${font * 0.8}" fill="#1d4ed8" class="tnum"`));
+      out.push(haloText(endX, endY + (side * uy > 0.5 ? font * 0.8 : side * uy < -0.5 ? -3 : font * 0.3), options.formatForce(mag), `text-anchor="middle" font-size="${font * 0.8}" fill="${DRAWING_INK.soft}" class="tnum"`));
     }
   }
 
@@ -322,8 +340,8 @@ export interface ForceDiagramOptions {
 }
 
 /**
- * The member force diagram: tension teal solid, compression amber dashed, zero-force thin grey
- * dotted; each member labelled with its magnitude and T or C (0 for zero-force).
+ * The member force diagram: tension a thin continuous line, compression a heavy continuous line,
+ * zero force a faint dashed line; each member labelled with its magnitude and T or C (0 for zero-force).
  */
 export function forceDiagramSvg(model: TrussModel, forces: Record<string, number>, options: ForceDiagramOptions): string {
   const ext = extentOf(model);
@@ -360,9 +378,9 @@ export function forceLegendSvg(): string {
   };
   return (
     `<svg class="force-legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 1000 28" font-family="Inter, 'Noto Sans', 'Noto Sans Arabic', 'Noto Sans Hebrew', 'Noto Sans Devanagari', sans-serif" role="img" aria-label="Legend">` +
-    item(0, FORCE_STYLE.tension, 'Tension (T), solid') +
-    item(300, FORCE_STYLE.compression, 'Compression (C), dashed') +
-    item(640, FORCE_STYLE.zero, 'Zero force (0), dotted') +
+    item(0, FORCE_STYLE.tension, 'Tension (T), thin line') +
+    item(300, FORCE_STYLE.compression, 'Compression (C), heavy line') +
+    item(640, FORCE_STYLE.zero, 'Zero force (0), dashed') +
     '</svg>'
   );
 }
@@ -409,9 +427,9 @@ function clampLabel(x: number, anchor: 'start' | 'middle' | 'end', text: string,
 }
 
 /** Applied loads: solid blue line, filled head. */
-export const LOAD_STYLE = { stroke: '#1d4ed8', width: 2 } as const;
-/** Support reactions: violet dashed line, open head, a short bar across the tail. */
-export const REACTION_STYLE = { stroke: '#6d28d9', width: 2, dash: '5 3' } as const;
+export const LOAD_STYLE = { stroke: DRAWING_INK.soft, width: 2 } as const;
+/** Support reactions: accent dashed line, open head, a short bar across the tail. */
+export const REACTION_STYLE = { stroke: DRAWING_INK.accent, width: 2, dash: '5 3' } as const;
 /** How far (view units) a reaction is drawn beside a load on the same line. */
 const REACTION_OFFSET = 14;
 
@@ -426,7 +444,7 @@ function reactionArrow(tailX: number, tailY: number, tipX: number, tipY: number,
   return (
     `<line x1="${f1(tailX)}" y1="${f1(tailY)}" x2="${f1(bx)}" y2="${f1(by)}" stroke="${st.stroke}" stroke-width="${st.width}" stroke-dasharray="${st.dash}"/>` +
     `<line x1="${f1(tailX + px * 5)}" y1="${f1(tailY + py * 5)}" x2="${f1(tailX - px * 5)}" y2="${f1(tailY - py * 5)}" stroke="${st.stroke}" stroke-width="${st.width}"/>` +
-    `<path d="M${f1(tipX)} ${f1(tipY)} L${f1(bx + px * size * 0.38)} ${f1(by + py * size * 0.38)} L${f1(bx - px * size * 0.38)} ${f1(by - py * size * 0.38)} Z" fill="#fff" stroke="${st.stroke}" stroke-width="1.6" stroke-linejoin="round"/>`
+    `<path d="M${f1(tipX)} ${f1(tipY)} L${f1(bx + px * size * 0.38)} ${f1(by + py * size * 0.38)} L${f1(bx - px * size * 0.38)} ${f1(by - py * size * 0.38)} Z" fill="${PAPER}" stroke="${st.stroke}" stroke-width="1.6" stroke-linejoin="round"/>`
   );
 }
 
@@ -489,7 +507,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
       const len = 78;
       const ex = cx + ux * len;
       const ey = cy + uy * len;
-      out.push(`<line x1="${cx}" y1="${cy}" x2="${f1(ex)}" y2="${f1(ey)}" stroke="#d5d9dd" stroke-width="9" stroke-linecap="butt"/>`);
+      out.push(`<line x1="${cx}" y1="${cy}" x2="${f1(ex)}" y2="${f1(ey)}" stroke="${DRAWING_INK.line}" stroke-width="9" stroke-linecap="butt"/>`);
       const s = f.value === null ? 'T' : forceSenseOf(f.value, options.zeroTolerance);
       const st = unknown ? { stroke: INK, ink: INK, dash: '' } : s === 'T' ? FORCE_STYLE.tension : s === 'C' ? FORCE_STYLE.compression : FORCE_STYLE.zero;
       const a0 = 16;
@@ -552,7 +570,7 @@ export function jointFbdSvg(step: JointStep, options: JointFbdOptions): string {
       labels.push(haloText(clampLabel(lx, anchor, text, W), ly + (ay > 0.5 ? 8 : ay < -0.5 ? -2 : 0), text, `text-anchor="${anchor}" font-size="12" font-weight="500" fill="${colour}" class="tnum"`));
     }
   }
-  out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="#fff" stroke="${INK}" stroke-width="2"/>`);
+  out.push(`<circle cx="${cx}" cy="${cy}" r="7" fill="${PAPER}" stroke="${INK}" stroke-width="2"/>`);
   out.push(haloText(cx + 10, cy - 10, step.jointTag, `font-size="14" font-weight="700" fill="${INK}"`));
   if (loadDirs.length || hasReaction) out.push(fbdKey(H, loadDirs.length > 0, hasReaction));
   out.push(...labels, '</svg>');

@@ -1,5 +1,6 @@
 import type { IDxf } from 'dxf-parser';
 import type { Joint, MemberGroup } from '@shared/model/truss';
+import { scientificFormat } from '../units/format';
 import { DxfImportError } from './errors';
 import { describeEntity, explodeDrawing, type DxfExplodeLimits, type ExplodedText } from './explode';
 import { memberGroupCodes } from './groups';
@@ -442,7 +443,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
       throw new DxfImportError('bad-coordinate', `The ${describeEntity(b.entity, b.layer)} has a coordinate that is not a number. Fix or delete it in your CAD program and upload again.`);
     }
     const far = Math.max(...b.v.map(Math.abs));
-    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(b.entity, b.layer)} lies ${far.toExponential(2)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
+    throw new DxfImportError('coordinate-too-large', `The ${describeEntity(b.entity, b.layer)} lies ${scientificFormat(far, 3)} m from the origin, more than the 10 000 km Panelpoint accepts. Check the drawing's units, or move the truss near the origin, and import again.`);
   }
   if (chosen.length < lineLayers.length) segs.keepLayers(chosenIndex);
   const n = segs.length / 4;
@@ -667,7 +668,7 @@ export function dxfImportGeometry(parsed: DxfParsed | IDxf, options: DxfImportOp
     message:
       tagged === 0
         ? `named ${plural(J, 'joint')} A, B, C, … in reading order (top to bottom, left to right)`
-        : `took ${plural(tagged, 'joint tag')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
+        : `took ${plural(tagged, 'joint label')} from texts near the joints${J - tagged > 0 ? `; named the other ${plural(J - tagged, 'joint')} in reading order` : ''}`,
     joints: jointIdsOf(tagResult.fromText),
   });
   for (const u of tagResult.unused) ignore(u.text.type, u.reason, u.text.layer, u.text.x, u.text.y);

@@ -143,7 +143,7 @@ export function assignTags(xy: Float64Array, texts: ExplodedText[], tol: number)
     if (textUsed[ti]) return;
     unused.push({
       text: t,
-      reason: !candidate[ti] ? 'not a joint tag' : duplicate[ti] ? 'repeats a tag already used' : 'not near a joint',
+      reason: !candidate[ti] ? 'not a joint label' : duplicate[ti] ? 'repeats a label already used' : 'not near a joint',
     });
   });
   fromText.sort((a, b) => a - b);

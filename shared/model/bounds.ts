@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { scientificFormat } from '../units/format';
 
 /**
  * Physically sensible bounds for the numbers an engineer or a drawing gives. They are far
@@ -25,7 +26,7 @@ export const BOUNDS = {
   spacingM: 1_000,
 } as const;
 
-const fmt = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(0) : v.toLocaleString('en-US'));
+const fmt = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? scientificFormat(v, 1) : v.toLocaleString('en-US'));
 
 /** A finite number within ±`max`, each refusal a sentence naming the value, its unit and the limit. */
 export function withinMagnitude(what: string, unit: string, max: number) {

@@ -23,7 +23,7 @@ describe('roof-takeoff loads', () => {
     expect(roofLoadsProblem([], [snow(computed.S)], null)?.code).toBe('roof-loads-without-takeoff');
   });
 
-  it('when the takeoff writes a case with loads and one without, then the change says replaced and added with counts and totals', () => {
+  it('when the roof loading writes a case with loads and one without, then the change says replaced and added with counts and totals', () => {
     const cases: LoadCase[] = [snow([{ joint: 'a', fx: 0, fy: -99 }], false), { id: 'D', name: 'Dead', category: 'dead', loads: [] }];
     const changes = roofLoadsChanges(cases, {
       S: [{ joint: 'a', fx: 0, fy: -4 }, { joint: 'b', fx: 0, fy: -6 }],

@@ -1,7 +1,7 @@
 import type { JointLoad, LoadCase } from './truss';
 
 /**
- * Loads that come from the roof takeoff, kept honest: a case marked `source: 'roof-loading'`
+ * Loads that come from the roof loading, kept honest: a case marked `source: 'roof-loading'`
  * holds exactly the joint loads the takeoff computes, so what the loads table shows is what a
  * run solves. Editing such a case by hand needs an explicit detach first.
  */
@@ -39,7 +39,7 @@ export function sameJointLoads(a: readonly JointLoad[], b: readonly JointLoad[])
  *    takeoff, `takeoffRemoved`, unmarks one);
  *  - a marked case that the takeoff does not write (no takeoff, or not one of its cases);
  *  - a marked case whose loads differ from what the takeoff computes.
- * `caseLoads` is the takeoff's result for the save (null when the save has no takeoff).
+ * `caseLoads` is the roof loading's result for the save (null when the save has no takeoff).
  */
 export function roofLoadsProblem(
   before: readonly Pick<LoadCase, 'id' | 'source'>[],
@@ -53,7 +53,7 @@ export function roofLoadsProblem(
       return {
         code: 'roof-loads-detach-first',
         caseId: c.id,
-        message: `The loads of load case "${c.id}" come from the roof takeoff; use "Detach and edit by hand" on the loads table before editing them, and nothing was saved.`,
+        message: `The loads of load case "${c.id}" come from the roof loading; use "Detach and edit by hand" on the loads table before editing them, and nothing was saved.`,
       };
     }
     if (c.source !== 'roof-loading') continue;
@@ -62,14 +62,14 @@ export function roofLoadsProblem(
       return {
         code: 'roof-loads-without-takeoff',
         caseId: c.id,
-        message: `Load case "${c.id}" is marked as from the roof takeoff, but the takeoff writes no loads into it; detach it or add it to the takeoff, and nothing was saved.`,
+        message: `Load case "${c.id}" is marked as from the roof loading, but the roof loading writes no loads into it; detach it or add it to the roof loading, and nothing was saved.`,
       };
     }
     if (!sameJointLoads(c.loads, computed)) {
       return {
         code: 'roof-loads-edited',
         caseId: c.id,
-        message: `The loads of load case "${c.id}" come from the roof takeoff and differ from what it computes; change the takeoff and use its loads again, or detach them to edit by hand, and nothing was saved.`,
+        message: `The loads of load case "${c.id}" come from the roof loading and differ from what it computes; change the roof loading and use its loads again, or detach them to edit by hand, and nothing was saved.`,
       };
     }
   }
@@ -79,7 +79,7 @@ export function roofLoadsProblem(
 /** What "Use these loads" changes in one case: its loads before and after, counted and summed. */
 export interface RoofLoadsChange {
   caseId: string;
-  /** 'added': the case had no loads; 'replaced': its loads are swapped for the takeoff's; 'unchanged': they are the same already. */
+  /** 'added': the case had no loads; 'replaced': its loads are swapped for the roof loading's; 'unchanged': they are the same already. */
   kind: 'added' | 'replaced' | 'unchanged';
   before: { count: number; totalFy: number };
   after: { count: number; totalFy: number };
@@ -87,7 +87,7 @@ export interface RoofLoadsChange {
 
 const totals = (loads: readonly Pick<JointLoad, 'fy'>[]) => ({ count: loads.length, totalFy: loads.reduce((s, l) => s + l.fy, 0) });
 
-/** Per case the takeoff writes (in the takeoff's order), what using its loads changes. */
+/** Per case the roof loading writes (in the roof loading's order), what using its loads changes. */
 export function roofLoadsChanges(cases: readonly LoadCase[], caseLoads: Readonly<Record<string, readonly JointLoad[]>>): RoofLoadsChange[] {
   return Object.entries(caseLoads).map(([caseId, next]) => {
     const current = cases.find((c) => c.id === caseId)?.loads ?? [];

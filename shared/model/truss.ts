@@ -78,7 +78,7 @@ export const loadCaseSchema = z.object({
   category: loadCategorySchema,
   loads: z.array(jointLoadSchema),
   /**
-   * 'roof-loading': the case's loads were written by the roof takeoff ("Use these loads") and are
+   * 'roof-loading': the case's loads were written by the roof loading ("Use these loads") and are
    * read-only until detached (shared/model/roof-loads.ts). Absent: loads entered by hand (every
    * model saved before this field existed).
    */

@@ -14,7 +14,7 @@ export const modelSaveSchema = z.object({
   loadCases: z.array(loadCaseSchema),
   combinations: z.array(combinationSchema),
   members: z.array(memberSchema.pick({ id: true, group: true, E: true, A: true, EA: true, material: true, section: true })),
-  /** The roof takeoff's inputs; null removes it, leaving it out keeps the saved one. */
+  /** The roof loading's inputs; null removes it, leaving it out keeps the saved one. */
   takeoff: takeoffInputSchema.nullable().optional(),
 });
 export type ModelSaveInput = z.infer<typeof modelSaveSchema>;

@@ -46,7 +46,7 @@ export type TakeoffAreaLoad = z.infer<typeof takeoffAreaLoadSchema>;
 
 /**
  * A number as sent. Wind values are only type-checked here: whether they are finite and in range
- * (q > 0 and at most 50 kPa, |c| ≤ 5) and whether they go together is the takeoff's own check,
+ * (q > 0 and at most 50 kPa, |c| ≤ 5) and whether they go together is the roof loading's own check,
  * answered 422 with one sentence (shared/takeoff WIND_LIMITS).
  */
 const windNumber = (what: string) => z.custom<number>((v) => typeof v === 'number', { error: `Enter ${what} as a number.` });
@@ -73,7 +73,7 @@ const spacingValue = z
   .max(BOUNDS.spacingM, { error: `The truss spacing is above ${BOUNDS.spacingM} m; check the value and its unit.` });
 
 /**
- * The roof takeoff as the engineer enters it and as it is saved in the model's `takeoff`:
+ * The roof loading as the engineer enters it and as it is saved in the model's `takeoff`:
  * the input of `roofTakeoff` without the joints (those always come from the truss).
  */
 export const takeoffInputSchema = z
@@ -100,7 +100,7 @@ export const takeoffInputSchema = z
       .int({ error: 'The truss index must be a whole number.' })
       .min(0, { error: 'The truss index counts from 0 (the first end truss); it cannot be negative.' }),
     /** Which purlin reaction feeds the joint loads. */
-    method: z.enum(['exact', 'tributary'], { error: "Choose 'exact' (continuous purlin) or 'tributary' (tributary length)." }),
+    method: z.enum(['exact', 'tributary'], { error: "Choose 'exact' (continuous purlin, three-moment equation) or 'tributary' (tributary length)." }),
   })
   .superRefine((v, ctx) => {
     if (v.areaLoads.length === 0 && !v.wind) {
@@ -198,7 +198,7 @@ export interface RunSummaryView {
   maxResidual: number | null;
   caseCount: number;
   combinationCount: number;
-  /** True when the run used the saved roof takeoff. */
+  /** True when the run used the saved roof loading. */
   usedTakeoff: boolean;
   /** The member design checks in brief; null when the model has no member design. */
   design: DesignSummary | null;
@@ -231,7 +231,7 @@ export type DesignRecheckInput = z.infer<typeof designRecheckSchema>;
 
 /** One run with everything it stored. */
 export interface RunView extends RunSummaryView {
-  /** The model as solved: the saved model with the takeoff's load cases put in. Immutable. */
+  /** The model as solved: the saved model with the roof loading's load cases put in. Immutable. */
   model: TrussModel;
   /** The saved takeoff input and its recomputed result; null when the model has no takeoff. */
   takeoff: { input: TakeoffInput; result: RoofTakeoffResult } | null;

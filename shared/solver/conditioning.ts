@@ -1,5 +1,9 @@
 import type { PreparedModel } from './prepare';
 import type { Conditioning } from './types';
+import { scientificFormat } from '../units/format';
+
+/** Three figures, written m × 10ⁿ outside 0.001…10⁶ (toPrecision would write 1.23e-7). */
+const fig3 = (v: number) => (v !== 0 && (Math.abs(v) < 1e-3 || Math.abs(v) >= 1e6) ? scientificFormat(v, 3) : v.toPrecision(3));
 
 /**
  * How near a stable truss is to a mechanism, from the joint-equilibrium matrix A (2j × (m + r),
@@ -214,7 +218,7 @@ const JOINT_LIST_LIMIT = 12;
 /** 1/σmin as the sheet writes it: whole kN from 100 up (3000), else three figures (22.7). */
 export function amplificationText(a: number | null): string {
   if (a === null || !Number.isFinite(a)) return '—';
-  return a >= 100 ? String(Math.round(a)) : a.toPrecision(3);
+  return a >= 100 ? String(Math.round(a)) : fig3(a);
 }
 
 /** The conditioning of a stable truss (see the top of this file); null for an empty model. */
@@ -277,9 +281,9 @@ export function conditioningOf(pm: PreparedModel): Conditioning | null {
   const shown = jointTags.slice(0, JOINT_LIST_LIMIT).join(', ') + (jointTags.length > JOINT_LIST_LIMIT ? ` and ${jointTags.length - JOINT_LIST_LIMIT} more` : '');
   const amp = amplificationText(amplification);
   const message = nearMechanism
-    ? `Near a mechanism: the smallest singular value of the joint-equilibrium matrix is σmin = ${sigmaMin.toPrecision(3)} (σmin/σmax = ${(sigmaMin / sigmaMax).toPrecision(3)}), so 1 kN of load can raise up to ${amp} kN of member and reaction force. ` +
+    ? `Near a mechanism: the smallest singular value of the joint-equilibrium matrix is σmin = ${fig3(sigmaMin)} (σmin/σmax = ${fig3(sigmaMin / sigmaMax)}), so 1 kN of load can raise up to ${amp} kN of member and reaction force. ` +
       `The joints that move most in that near-mechanism are ${shown}: the members there are almost in line, or a support line almost runs through the rest. Change the shape there (more depth or rise, a member across the panel, or a support turned), or the forces will be large and very sensitive to the drawn geometry.`
-    : `Well away from a mechanism: σmin = ${sigmaMin.toPrecision(3)} of the joint-equilibrium matrix (σmin/σmax = ${(sigmaMin / sigmaMax).toPrecision(3)}); 1 kN of load raises at most ${amp} kN of member and reaction force (root-sum-square), below the ${NEAR_MECHANISM_AMPLIFICATION} at which Panelpoint warns.`;
+    : `Well away from a mechanism: σmin = ${fig3(sigmaMin)} of the joint-equilibrium matrix (σmin/σmax = ${fig3(sigmaMin / sigmaMax)}); 1 kN of load raises at most ${amp} kN of member and reaction force (root-sum-square), below the ${NEAR_MECHANISM_AMPLIFICATION} at which Panelpoint warns.`;
   return {
     measure: 'smallest/largest singular value of the joint-equilibrium matrix',
     sigmaMin,

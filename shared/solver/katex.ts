@@ -6,6 +6,7 @@ import type {
   SolverStep,
 } from './types';
 import { texText } from '../text/safe-text';
+import { texScientific } from '../units/format';
 import { stepOperandDecimals, stepsOperandDecimals } from './printed-digits';
 
 /** Options for `stepToKatex`. */
@@ -150,12 +151,14 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
       ];
     }
     case 'zero-force': {
+      // Plain words, not rule numbers: what is seen at the joint that makes the member carry nothing.
       const why =
         step.rule === 1
-          ? ': two non-collinear members, no load, no support'
-          : ': three members, two collinear, no load, no support';
+          ? 'two members not in line meet there, with no load and no support'
+          : 'three members meet there, two of them in line, with no load and no support';
+      const later = step.pass > 1 ? ', once the zero-force members found before are set aside' : '';
       return [
-        `${symbolMember(step.memberTag)} = 0 \\quad \\text{(rule ${step.rule} at joint }${texText(step.jointTag)}\\text{${why}; pass ${step.pass})}`,
+        `${symbolMember(step.memberTag)} = 0 \\quad \\text{(at joint }${texText(step.jointTag)}\\text{: ${why}${later})}`,
       ];
     }
     case 'reaction': {
@@ -215,12 +218,13 @@ export function stepToKatex(step: SolverStep, options: KatexOptions = {}): strin
     case 'check': {
       const at = step.residualJointTag ? `\\ \\text{at joint }${texText(step.residualJointTag)}` : '';
       // The ratio is worked from the residual and the load as printed, so it divides out by hand.
-      const residualShown = step.residual.toExponential(2);
+      // Both written m × 10ⁿ (texScientific), never the computer's 2.01e-14.
+      const residualShown = Number(step.residual.toExponential(2));
       const largestShown = numberFormat(step.largestLoad, d);
-      const ratio = Number(largestShown) > 0 ? Number(residualShown) / Number(largestShown) : 0;
+      const ratio = Number(largestShown) > 0 ? residualShown / Number(largestShown) : 0;
       return [
-        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${residualShown}\\ \\mathrm{kN}${at}`,
-        `\\text{relative to the largest load } ${largestShown}\\ \\mathrm{kN}:\\ ${ratio.toExponential(2)}`,
+        `\\max_{\\text{joints}} \\left|\\Sigma \\mathbf{F}\\right| = ${texScientific(residualShown, 3)}\\ \\mathrm{kN}${at}`,
+        `\\text{relative to the largest load } ${largestShown}\\ \\mathrm{kN}:\\ ${texScientific(ratio, 3)}`,
       ];
     }
   }

@@ -1,4 +1,4 @@
-/** Stable codes of the takeoff's errors; callers branch on these, never on the message. */
+/** Stable codes of the roof loading's errors; callers branch on these, never on the message. */
 export type TakeoffErrorCode =
   | 'non-finite-value'
   | 'no-spans'

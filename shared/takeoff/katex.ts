@@ -173,7 +173,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
         '\\begin{aligned}',
         `&L_i M_{i-1} + 2(L_i + L_{i+1}) M_i + L_{i+1} M_{i+1} = -\\tfrac{1}{4}\\left(w L_i^3 + w L_{i+1}^3\\right), \\quad M_0 = M_{${n}} = 0 \\quad ${text('(three-moment equation)')} \\\\`,
         `&${text('per 1 unit of w:')}\\ ${statics.moments} \\\\`,
-        `&R = c\\,w, \\quad c_{\\mathrm{exact}} = ${statics.symbolic} = ${statics.numeric} = ${q('exactPerUnit')} \\\\`,
+        `&R = c\\,w, \\quad c_{\\mathrm{cont}} = ${statics.symbolic} = ${statics.numeric} = ${q('exactPerUnit')} \\\\`,
         `&c_{\\mathrm{trib}} = ${tributary} = ${spansHere.map((i) => `\\tfrac{1}{2}(${len(step.spans[i], eTrib)})`).join(' + ')} = ${q('tributaryPerUnit')} \\quad ${text('(tributary length)')}`,
         '\\end{aligned}',
       ].join('\n');
@@ -191,11 +191,11 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
       const eTrib = operandExtra(spansHere.map((i) => ({ value: step.spans[i], unit: 'm' as const })), (xs) => sum(xs) / 2, find(step, 'tributaryPerUnit'), system);
       const lines = [
         `&${text(`reaction on truss ${k + 1} per 1 unit of w on span j alone (three-moment equation):`)}\\ ${rList.replace(/\\,\\mathrm\{[^}]*\}/g, '')}\\ \\mathrm{${lengthUnit}} \\\\`,
-        `&c_{\\mathrm{exact}} = ${loadedIdx.map((j) => `r_{${j + 1}}`).join(' + ')}${
+        `&c_{\\mathrm{cont}} = ${loadedIdx.map((j) => `r_{${j + 1}}`).join(' + ')}${
           loadedIdx.length > 1 ? ` = ${loadedIdx.map((j) => `(${quantity(rValues[j], system, false, eSum)})`).join(' + ')}` : ''
         } = ${q('exactPerUnit')} \\quad ${text(`(${step.label}: the spans with `)}r_{j} > 0${text(')')} \\\\`,
         `&${text(`${step.label}, per 1 unit of w:`)}\\ ${statics.moments} \\\\`,
-        `&c_{\\mathrm{exact}} = ${statics.symbolic} = ${statics.numeric} = ${q('exactPerUnit')} \\quad ${text('(statics of the spans next to the truss)')} \\\\`,
+        `&c_{\\mathrm{cont}} = ${statics.symbolic} = ${statics.numeric} = ${q('exactPerUnit')} \\quad ${text('(statics of the spans next to the truss)')} \\\\`,
         `&c_{\\mathrm{trib}} = ${spansHere.map((i) => `\\tfrac{1}{2}L_{${i + 1}}`).join(' + ')} = ${spansHere
           .map((i) => `\\tfrac{1}{2}(${len(step.spans[i], eTrib)})`)
           .join(' + ')} = ${q('tributaryPerUnit')} \\quad ${text('(tributary length, loaded spans)')}`,
@@ -204,7 +204,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
         const eD = operandExtra([find(step, 'exactPerUnit'), find(step, 'allPerUnit')], ([a, b]) => ((a - b) / b) * 100, find(step, 'differencePct'), system);
         lines[lines.length - 1] += ' \\\\';
         lines.push(
-          `&\\Delta_{\\mathrm{all}} = \\frac{c_{\\mathrm{exact}} - c_{\\mathrm{all}}}{c_{\\mathrm{all}}} = \\frac{${q('exactPerUnit', false, eD)} - ${q('allPerUnit', false, eD)}}{${q('allPerUnit', false, eD)}} = ${q('differencePct')} \\quad ${text('(against all spans loaded)')}`,
+          `&\\Delta_{\\mathrm{all}} = \\frac{c_{\\mathrm{cont}} - c_{\\mathrm{all}}}{c_{\\mathrm{all}}} = \\frac{${q('exactPerUnit', false, eD)} - ${q('allPerUnit', false, eD)}}{${q('allPerUnit', false, eD)}} = ${q('differencePct')} \\quad ${text('(against all spans loaded)')}`,
         );
       }
       return ['\\begin{aligned}', ...lines, '\\end{aligned}'].join('\n');
@@ -240,7 +240,7 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
         const numeric = parts.length > 1 ? ` = ${ks.map((k) => `(${q(`w${axis}${k}`, true, e)})`).join(' + ')}` : '';
         lines.push(`&w_{${axis}} = ${symbolic}${numeric} = ${q(`w${axis}`)}`);
       }
-      const c = step.chosen === 'exact' ? 'c_{\\mathrm{exact}}' : 'c_{\\mathrm{trib}}';
+      const c = step.chosen === 'exact' ? 'c_{\\mathrm{cont}}' : 'c_{\\mathrm{trib}}';
       for (const axis of ['x', 'y'] as const) {
         const e = operandExtra([find(step, 'perUnit'), find(step, `w${axis}`)], ([a, b]) => a * b, find(step, `f${axis}`), system);
         lines.push(`&${L}_{${tag},${axis}} = ${c}\\,w_{${axis}} = ${q('perUnit', true, e)} \\times (${q(`w${axis}`, true, e)}) = ${q(`f${axis}`)}`);
@@ -265,16 +265,16 @@ export function takeoffStepKatex(step: TakeoffStep, options: TakeoffKatexOptions
       const eE = operandExtra([find(step, 'exactPerUnit'), find(step, 'w')], product, find(step, 'exact'), system);
       const eT = operandExtra([find(step, 'tributaryPerUnit'), find(step, 'w')], product, find(step, 'tributary'), system);
       const lines = [
-        `R_{\\mathrm{exact}} &= c_{\\mathrm{exact}}\\,w = ${q('exactPerUnit', true, eE)} \\times ${q('w', true, eE)} = ${q('exact')}`,
+        `R_{\\mathrm{cont}} &= c_{\\mathrm{cont}}\\,w = ${q('exactPerUnit', true, eE)} \\times ${q('w', true, eE)} = ${q('exact')}`,
         `R_{\\mathrm{trib}} &= c_{\\mathrm{trib}}\\,w = ${q('tributaryPerUnit', true, eT)} \\times ${q('w', true, eT)} = ${q('tributary')}`,
       ];
       if (step.differencePct !== null) {
         const eD = operandExtra([find(step, 'tributary'), find(step, 'exact')], ([t, x]) => ((t - x) / x) * 100, find(step, 'differencePct'), system);
         lines.push(
-          `\\Delta &= \\frac{R_{\\mathrm{trib}} - R_{\\mathrm{exact}}}{R_{\\mathrm{exact}}} = \\frac{${q('tributary', false, eD)} - ${q('exact', false, eD)}}{${q('exact', false, eD)}} = ${q('differencePct')}`,
+          `\\Delta &= \\frac{R_{\\mathrm{trib}} - R_{\\mathrm{cont}}}{R_{\\mathrm{cont}}} = \\frac{${q('tributary', false, eD)} - ${q('exact', false, eD)}}{${q('exact', false, eD)}} = ${q('differencePct')}`,
         );
       }
-      const chosen = step.chosen === 'exact' ? 'R_{\\mathrm{exact}}' : 'R_{\\mathrm{trib}}';
+      const chosen = step.chosen === 'exact' ? 'R_{\\mathrm{cont}}' : 'R_{\\mathrm{trib}}';
       lines.push(`${L}_{${tag},y} &= -${chosen} = ${q('fy')}${step.pattern ? ` \\quad ${text(`(${step.pattern})`)}` : ''}`);
       return ['\\begin{aligned}', lines.join(' \\\\\n'), '\\end{aligned}'].join('\n');
     }

@@ -22,7 +22,7 @@ function input(overrides: Partial<RoofTakeoffInput> = {}): RoofTakeoffInput {
   };
 }
 
-describe('pattern loading in the roof takeoff', () => {
+describe('pattern loading in the roof loading', () => {
   it('when snow is pattern-loaded over three equal spans, then the first interior truss takes 1.2 wL with spans 1 and 2 loaded, the dead case 1.1 wL', () => {
     const result = roofTakeoff(input());
     // AISC Manual Table 3-23, three equal spans (from memory): interior reaction 1.10 wL with all

@@ -222,7 +222,7 @@ function spansFrom(input: RoofTakeoffInput): number[] {
 
 function purlinJointsFrom(input: RoofTakeoffInput): Joint[] {
   if (!Array.isArray(input.joints) || !Array.isArray(input.topChordJoints)) {
-    throw new TakeoffError('unknown-joint', 'The takeoff needs the truss joints and the list of top-chord joints; pick the top chord on the drawing.');
+    throw new TakeoffError('unknown-joint', 'The roof loading needs the truss joints and the list of top-chord joints; pick the top chord on the drawing.');
   }
   if (input.purlinJoints !== undefined && !Array.isArray(input.purlinJoints)) {
     throw new TakeoffError('too-few-purlins', 'The purlin joints must be a list of joint ids in order along the roof.');
@@ -381,7 +381,7 @@ const value = (key: string, symbol: string, label: string, v: number, unit: Purl
 });
 
 /**
- * Roof load takeoff: area loads → purlin line loads → continuous-purlin reactions on the chosen
+ * Roof loading: area loads → purlin line loads → continuous-purlin reactions on the chosen
  * truss → joint loads.
  *
  * - Tributary width of a purlin: half the distance to each neighbouring purlin, along the slope
@@ -467,7 +467,7 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
     momentsPerUnit: beam.supportMoments,
     values: [
       ...spans.map((s, i) => value(`span${i}`, `L_{${i + 1}}`, `spacing between trusses ${i + 1} and ${i + 2}`, s, 'm')),
-      value('exactPerUnit', 'c_{\\mathrm{exact}}', 'reaction per 1 kN/m, three-moment equation', exactPerUnit, 'm'),
+      value('exactPerUnit', 'c_{\\mathrm{cont}}', 'reaction per 1 kN/m, three-moment equation', exactPerUnit, 'm'),
       value('tributaryPerUnit', 'c_{\\mathrm{trib}}', 'reaction per 1 kN/m, tributary length', tributaryPerUnit, 'm'),
     ],
   } satisfies PurlinBeamStep);
@@ -530,13 +530,13 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
         ...(pattern ? { pattern: pattern.label } : {}),
         values: [
           value('w', 'w', 'line load on the purlin', w, 'kN/m'),
-          value('exactPerUnit', 'c_{\\mathrm{exact}}', 'reaction per 1 kN/m, three-moment equation', caseExactPerUnit, 'm'),
+          value('exactPerUnit', 'c_{\\mathrm{cont}}', 'reaction per 1 kN/m, three-moment equation', caseExactPerUnit, 'm'),
           value('tributaryPerUnit', 'c_{\\mathrm{trib}}', 'reaction per 1 kN/m, tributary length', caseTributaryPerUnit, 'm'),
-          value('exact', 'R_{\\mathrm{exact}}', 'reaction, three-moment equation', exact, 'kN'),
+          value('exact', 'R_{\\mathrm{cont}}', 'reaction, three-moment equation', exact, 'kN'),
           value('tributary', 'R_{\\mathrm{trib}}', 'reaction, tributary length', tributary, 'kN'),
           ...(differencePct === null
             ? []
-            : [value('differencePct', '\\Delta', 'tributary against exact', differencePct, '%' as const)]),
+            : [value('differencePct', '\\Delta', 'tributary against three-moment', differencePct, '%' as const)]),
           value('fy', 'P_{y}', 'joint load on the truss (+y up)', -chosen, 'kN'),
         ],
       } satisfies PurlinReactionStep);
@@ -546,7 +546,7 @@ export function roofTakeoff(input: RoofTakeoffInput): RoofTakeoffResult {
       joint: row.joint,
       fx: 0,
       fy: -(method === 'exact' ? row.exact : row.tributary),
-      note: `purlin at ${row.tag}, roof takeoff (${method === 'exact' ? 'continuous purlin' : 'tributary length'}${pattern ? `, ${pattern.label}` : ''})`,
+      note: `purlin at ${row.tag}, roof loading (${method === 'exact' ? 'continuous purlin' : 'tributary length'}${pattern ? `, ${pattern.label}` : ''})`,
     }));
     return {
       caseId: load.caseId,
@@ -601,7 +601,7 @@ function spanPatternStep(caseId: string, spans: number[], trussIndex: number, pa
     values: [
       ...spans.map((sp, i) => value(`span${i}`, `L_{${i + 1}}`, `spacing between trusses ${i + 1} and ${i + 2}`, sp, 'm')),
       ...pattern.contributions.map((r, j) => value(`r${j}`, `r_{${j + 1}}`, `reaction per 1 kN/m on span ${j + 1} alone`, r, 'm')),
-      value('exactPerUnit', 'c_{\\mathrm{exact}}', `reaction per 1 kN/m, ${pattern.label}, three-moment equation`, pattern.exactPerUnit, 'm'),
+      value('exactPerUnit', 'c_{\\mathrm{cont}}', `reaction per 1 kN/m, ${pattern.label}, three-moment equation`, pattern.exactPerUnit, 'm'),
       value('tributaryPerUnit', 'c_{\\mathrm{trib}}', `reaction per 1 kN/m, ${pattern.label}, tributary length`, pattern.tributaryPerUnit, 'm'),
       value('allPerUnit', 'c_{\\mathrm{all}}', 'reaction per 1 kN/m, all spans loaded', allPerUnit, 'm'),
       ...(diff === null ? [] : [value('differencePct', '\\Delta_{\\mathrm{all}}', 'pattern against all spans loaded', diff, '%' as const)]),
@@ -680,7 +680,7 @@ function windTakeoff(
         ]),
         value('wx', 'w_{x}', 'line load on the purlin, x', wx, 'kN/m'),
         value('wy', 'w_{y}', 'line load on the purlin, y', wy, 'kN/m'),
-        value('perUnit', method === 'exact' ? 'c_{\\mathrm{exact}}' : 'c_{\\mathrm{trib}}', `reaction on truss ${trussIndex + 1} per 1 kN/m`, perUnit, 'm'),
+        value('perUnit', method === 'exact' ? 'c_{\\mathrm{cont}}' : 'c_{\\mathrm{trib}}', `reaction on truss ${trussIndex + 1} per 1 kN/m`, perUnit, 'm'),
         value('fx', 'P_{x}', 'joint load on the truss, x', fx, 'kN'),
         value('fy', 'P_{y}', 'joint load on the truss, y (+y up)', fy, 'kN'),
       ],

@@ -1,5 +1,5 @@
 /**
- * The roof takeoff's steps: plain data (ids, values with units) that the calc sheet and the
+ * The roof loading's steps: plain data (ids, values with units) that the calc sheet and the
  * client print; `takeoffStepKatex` (katex.ts) turns any step into KaTeX source.
  *
  * Units: every number in a step's `values` carries its unit. Computing units are m, kPa, kN/m

@@ -118,3 +118,66 @@ export function quantityFormat(
   const unit = UNIT_SYSTEMS[system][quantity];
   return unitFormat(unitFromBase(valueInBase, unit), unit, options);
 }
+
+const SUPERSCRIPT: Readonly<Record<string, string>> = {
+  '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹', '-': '⁻',
+};
+
+/** The parts of a number written as m × 10ⁿ with `significant` significant figures (1 ≤ |m| < 10). */
+export function powerOfTenParts(value: number, significant: number): { mantissa: number; exponent: number } {
+  if (!Number.isFinite(value)) {
+    throw new UnitError('invalid-number', `Cannot format ${value}: the value is not a finite number.`);
+  }
+  if (!Number.isInteger(significant) || significant < 1 || significant > 12) {
+    throw new UnitError('invalid-number', `Significant figures must be a whole number from 1 to 12, got ${significant}.`);
+  }
+  if (value === 0) return { mantissa: 0, exponent: 0 };
+  // toExponential rounds the mantissa and carries into the exponent (9.96e-5 → "1.0e-4").
+  const [m, e] = value.toExponential(significant - 1).split('e');
+  return { mantissa: Number(m), exponent: Number(e) };
+}
+
+/**
+ * Writes a number as m × 10ⁿ with superscript figures and the typographic minus, the way an
+ * engineer writes it by hand: scientificFormat(2.01e-14, 2) → "2.0 × 10⁻¹⁴" (never the
+ * computer's "2.01e-14"). `significant` figures in the mantissa, trailing zeros kept so a
+ * column lines up; 0 is written "0". With `asciiMinus`, for plain text, the mantissa's sign is
+ * a hyphen-minus (the exponent keeps its superscript minus).
+ */
+export function scientificFormat(value: number, significant = 2, options: Pick<NumberFormatOptions, 'asciiMinus'> = {}): string {
+  const { mantissa, exponent } = powerOfTenParts(value, significant);
+  if (mantissa === 0) return '0';
+  const m = numberFormat(mantissa, significant - 1, options);
+  if (exponent === 0) return m;
+  const e = String(exponent).split('').map((ch) => SUPERSCRIPT[ch]).join('');
+  return `${m} × 10${e}`;
+}
+
+/** The same number for KaTeX: texScientific(2.01e-14, 2) → "2.0 \\times 10^{-14}". */
+export function texScientific(value: number, significant = 2): string {
+  const { mantissa, exponent } = powerOfTenParts(value, significant);
+  if (mantissa === 0) return '0';
+  const m = numberFormat(mantissa, significant - 1, { asciiMinus: true });
+  return exponent === 0 ? m : `${m} \\times 10^{${exponent}}`;
+}
+
+/**
+ * A number with `decimals` fixed decimals while that shows it (|v| ≥ 10⁻ᵈᵉᶜⁱᵐᵃˡˢ), and as
+ * m × 10ⁿ with `significant` figures when fixed decimals would round it to nothing or when it
+ * is 10⁶ or more: readableFormat(3.6e-15, 3) → "3.6 × 10⁻¹⁵", readableFormat(0.5, 3) → "0.500".
+ */
+export function readableFormat(value: number, decimals: number, significant = 2, options: NumberFormatOptions = {}): string {
+  const a = Math.abs(value);
+  if (value === 0 || (a >= 10 ** -decimals && a < 1e6)) return numberFormat(value, decimals, options);
+  return scientificFormat(value, significant, options);
+}
+
+/**
+ * A load factor with every digit it has (up to six decimals), no trailing zeros, the typographic
+ * minus: factorFormat(1.1475) → "1.1475" (never 1.147 or 1.15), factorFormat(1.5) → "1.5",
+ * factorFormat(1) → "1". A factor decides a design number, so it is never cut short.
+ */
+export function factorFormat(value: number, options: Pick<NumberFormatOptions, 'asciiMinus'> = {}): string {
+  const text = numberFormat(value, 6, options);
+  return text.includes('.') ? text.replace(/0+$/, '').replace(/\.$/, '') : text;
+}

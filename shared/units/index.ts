@@ -29,7 +29,12 @@ export {
   MINUS_SIGN,
   UNIT_DECIMALS,
   UNIT_SPACE,
+  factorFormat,
   numberFormat,
+  powerOfTenParts,
+  readableFormat,
+  scientificFormat,
+  texScientific,
   quantityFormat,
   unitFormat,
 } from './format';

@@ -6,6 +6,7 @@ import { Wordmark } from '@/components/ui/wordmark';
 import { useSession } from '@/features/auth/api/get-session';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { useMyWork } from '@/features/my-work/api/get-my-work';
+import { Notices } from '@/lib/notices';
 import { isAdmin, ROLE_LABELS } from '@/lib/permissions';
 import { useCurrentUser } from './current-user';
 
@@ -137,6 +138,7 @@ export function AppShell() {
         </div>
       </header>
       <main className="mx-auto w-full max-w-6xl flex-1 px-6 pt-7 pb-12">
+        <Notices className="mb-5" />
         <Outlet />
       </main>
       <Footer />

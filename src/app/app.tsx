@@ -2,7 +2,6 @@ import { useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider } from 'react-router-dom';
 import { createQueryClient } from '@/lib/query-client';
-import { Notices } from '@/lib/notices';
 import { createAppRouter } from './router';
 
 export function App() {
@@ -11,7 +10,6 @@ export function App() {
   return (
     <QueryClientProvider client={queryClient}>
       <RouterProvider router={router} />
-      <Notices />
     </QueryClientProvider>
   );
 }

@@ -286,7 +286,7 @@ describe('analysis runs', () => {
   });
 });
 
-describe('roof takeoff', () => {
+describe('roof loading', () => {
   /** Purlins at the eaves L, R and the apex T; the top chord is L–T–R. */
   const takeoff = (over: Partial<TakeoffInput> = {}): TakeoffInput => ({
     topChordJoints: [J.L, J.T, J.R],
@@ -357,7 +357,7 @@ describe('roof takeoff', () => {
   };
 
   it('when the takeoff is saved but its case holds loads entered by hand, then the run solves exactly the loads the table shows', async () => {
-    // Issue 15: a run used to overwrite such a case with the takeoff's loads (−99 kN shown, −10.27 kN used).
+    // Issue 15: a run used to overwrite such a case with the roof loading's loads (−99 kN shown, −10.27 kN used).
     const saved = await saveModel({ loadCases: [deadCase(), snowCase([{ joint: J.M, fx: 0, fy: -99 }])], takeoff: takeoff({ method: 'exact' }) });
     expect(saved.status).toBe(200);
     const run = await runToEnd();
@@ -368,7 +368,7 @@ describe('roof takeoff', () => {
     expect(run.analysis!.cases.find((c) => c.caseId === 'S')!.forces[MB.MT.id]).toBeCloseTo(99, 9);
   });
 
-  it('when "Use these loads" saves the takeoff\'s loads marked as from the roof takeoff, then the run solves them and prints the takeoff', async () => {
+  it('when "Use these loads" saves the takeoff\'s loads marked as from the roof loading, then the run solves them and prints the takeoff', async () => {
     const loads = await takeoffSnowLoads();
     const saved = await saveModel({ loadCases: [deadCase(), markedSnow(loads)], takeoff: takeoff({ method: 'exact' }) });
     expect(saved.status).toBe(200);
@@ -488,7 +488,7 @@ describe('roof takeoff', () => {
     expect(after!.takeoff).toBe(before!.takeoff);
   });
 
-  it('when the takeoff writes a load case the model does not have, then the save is refused naming it', async () => {
+  it('when the roof loading writes a load case the model does not have, then the save is refused naming it', async () => {
     const res = await saveModel({ loadCases: [deadCase()], takeoff: takeoff({ areaLoads: [{ caseId: 'W9', q: 1, unit: 'kPa', basis: 'slope' }] }) });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('unknown-load-case');

@@ -7,7 +7,7 @@ import { TrussModelRecord } from '../../server/db/models';
 import { demoEmail, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
- * The roof takeoff's wind normal to the slopes and span patterns through the API, on a real
+ * The roof loading's wind normal to the slopes and span patterns through the API, on a real
  * SQLite file and real sessions. The truss is drawn here as an R12 DXF (LINE entities, group
  * codes 10/20 and 11/21), in metres: a 3-4-5 gable L (0, 0), T (4, 3), R (8, 0) with a post to
  * M (4, 0). Every sine and cosine of its slopes is exact: sin θ = 0.6, cos θ = 0.8.
@@ -83,7 +83,7 @@ afterAll(async () => {
   await services?.shutdown();
 });
 
-describe('roof takeoff: wind normal to the slopes', () => {
+describe('roof loading: wind normal to the slopes', () => {
   it('when the engineer previews wind on a 3-4-5 gable, then every joint load is the hand resolution p·½s·(sin θ, −cos θ) times the purlin factor', async () => {
     const res = await preview(takeoff());
     expect(res.status).toBe(200);
@@ -113,7 +113,7 @@ describe('roof takeoff: wind normal to the slopes', () => {
 
   it('when wind and pattern-loaded snow are saved and the truss is run, then the run uses both, and the wind case has sideways loads', async () => {
     const input = takeoff({ areaLoads: [{ caseId: 'S', q: 1, unit: 'kPa', basis: 'plan', patterns: true }], trussIndex: 0 });
-    // As "Use these loads" does: the preview's loads go into their cases, marked as from the roof takeoff (a run solves the saved loads).
+    // As "Use these loads" does: the preview's loads go into their cases, marked as from the roof loading (a run solves the saved loads).
     const computed = (await preview(input)).body.result.caseLoads as Record<string, LoadCase['loads']>;
     const saved = await save(input, cases.map((c) => (computed[c.id] ? { ...c, loads: computed[c.id]!, source: 'roof-loading' as const } : c)));
     expect(saved.status).toBe(200);
@@ -136,7 +136,7 @@ describe('roof takeoff: wind normal to the slopes', () => {
   });
 });
 
-describe('roof takeoff: bad wind and pattern input is refused with 422 and one sentence, nothing written', () => {
+describe('roof loading: bad wind and pattern input is refused with 422 and one sentence, nothing written', () => {
   const refusals: [string, object | string, string, RegExp][] = [
     ['a coefficient without a velocity pressure', { wind: { caseId: 'W', q: null, unit: 'kPa', windward: 'left', cWindward: 0.3, cLeeward: -0.6 } }, 'wind-without-pressure', /without a velocity pressure q/],
     ['a velocity pressure above 50 kPa', { wind: { caseId: 'W', q: 60, unit: 'kPa', windward: 'left', cWindward: 0.3, cLeeward: -0.6 } }, 'wind-pressure-out-of-range', /at most 50 kPa/],

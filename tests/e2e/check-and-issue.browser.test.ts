@@ -202,7 +202,7 @@ describe('check and issue: from a drafter’s DXF to a verified issued PDF, in C
     // Comments are labelled with the step's heading as the sheet prints it.
     const label = stepLabel(anchor, { [anchor]: (await step.locator('h4 a.anchor').innerText()).trim() });
     await step.click();
-    commentText = 'The reactions rest on a 12 kN apex load: say where it comes from (roof weight × purlin spacing), or use the roof takeoff.';
+    commentText = 'The reactions rest on a 12 kN apex load: say where it comes from (roof weight × purlin spacing), or use the roof loading.';
     await reviewer.getByText(`New comment on ${label}`).waitFor();
     await reviewer.getByLabel('What should the preparer look at here?').fill(commentText);
     await reviewer.getByRole('button', { name: 'Comment', exact: true }).click();

@@ -65,11 +65,11 @@ describe('a drawing that hands over cleanly', () => {
     await page.close();
   }, 120_000);
 
-  it('when the engineer opens the roof takeoff straight away, then the top chord is already grouped and the preview runs', async () => {
+  it('when the engineer opens the roof loading straight away, then the top chord is already grouped and the preview runs', async () => {
     const page = await openT2('engineer@demo.panelpoint.test');
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     // no visit to Members first
-    await page.getByRole('tab', { name: 'Roof takeoff' }).click();
+    await page.getByRole('tab', { name: 'Roof loading' }).click();
     expect(await page.getByText(/no members are grouped as top chord yet/).count()).toBe(0);
     await page.getByLabel('Area load 1: load case').selectOption('new:snow');
     await page.getByLabel('Area load 1: q').fill('1');
@@ -77,7 +77,7 @@ describe('a drawing that hands over cleanly', () => {
     await page.getByLabel('Truss spacing, m').fill('4');
     await page.getByLabel('Number of trusses').fill('5');
     await page.getByLabel('Which truss').selectOption('2');
-    const table = page.getByRole('table', { name: /^Takeoff of load case S/ });
+    const table = page.getByRole('table', { name: /^Roof loading of load case S/ });
     await table.waitFor({ timeout: 15_000 });
     // a purlin on each top-chord joint A, B, C, D
     expect(await table.locator('tbody tr').count()).toBe(4);

@@ -54,7 +54,7 @@ describe('uploading a drawing through the built app in Chromium', () => {
     await page.close();
   });
 
-  it('when the drafter uploads a DXF with faults to T2, then the truss is drawn and the report lists the healing', async () => {
+  it('when the drafter uploads a DXF with faults to T2, then the truss is drawn and the report lists the repairs', async () => {
     const page = await openT2AsDrafter();
     await page.getByLabel('DXF file').setInputFiles(path.join(fixtures, 'r2000-faults-mm.dxf'));
 

@@ -29,7 +29,7 @@ async function memberForce(tag: string): Promise<number> {
 describe('the engineer loads, runs and reads the demo truss in Chromium', () => {
   let preview: TakeoffPreviewView | null = null;
 
-  it('when the engineer clicks the bearings and runs a roof takeoff, then the model saves with the takeoff loads', async () => {
+  it('when the engineer clicks the bearings and runs a roof loading, then the model saves with the takeoff loads', async () => {
     await page.goto(`${running.baseUrl}/sign-in`);
     await page.getByLabel(/e-mail/i).fill('engineer@demo.panelpoint.test');
     await page.getByLabel(/password/i).fill('panelpoint-demo');
@@ -52,7 +52,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByRole('button', { name: 'Suggest groups from the outline' }).click();
     expect(await page.getByText('6 top chord · 6 bottom chord · 9 web').isVisible()).toBe(true);
 
-    await page.getByRole('tab', { name: 'Roof takeoff' }).click();
+    await page.getByRole('tab', { name: 'Roof loading' }).click();
     page.on('response', async (response) => {
       if (response.url().endsWith('/takeoff/preview') && response.ok()) preview = (await response.json()) as TakeoffPreviewView;
     });
@@ -61,12 +61,12 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByLabel('Truss spacing, m').fill('4.5');
     await page.getByLabel('Number of trusses').fill('8');
     await page.getByLabel('Which truss').selectOption('1');
-    await page.getByRole('table', { name: 'Takeoff of load case D1' }).waitFor({ timeout: 15_000 });
+    await page.getByRole('table', { name: 'Roof loading of load case D1' }).waitFor({ timeout: 15_000 });
     const use = page.getByRole('button', { name: 'Use these loads' });
     await expect.poll(() => use.isEnabled(), { timeout: 10_000 }).toBe(true);
     // "Use these loads" first says what it will change and saves nothing until confirmed.
     await use.click();
-    const confirm = page.getByRole('alertdialog', { name: "Use the roof takeoff's loads" });
+    const confirm = page.getByRole('alertdialog', { name: "Use the roof loading's loads" });
     await confirm.waitFor({ timeout: 10_000 });
     await confirm.getByRole('button', { name: 'Cancel' }).click();
     expect(await confirm.count()).toBe(0);
@@ -74,7 +74,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
 
     await use.click();
     await confirm.waitFor({ timeout: 10_000 });
-    // The new case D1 had no loads: the takeoff's are added; count and total Fy as the preview computed them.
+    // The new case D1 had no loads: the roof loading's are added; count and total Fy as the preview computed them.
     const d1 = preview!.result.caseLoads.D1!;
     const row = confirm.getByRole('row', { name: /^D1 / });
     expect(await row.locator('td').nth(1).textContent()).toBe('loads added');
@@ -93,7 +93,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByRole('button', { name: 'Run analysis' }).click();
     await page.getByText('Stable and statically determinate.').waitFor({ timeout: 30_000 });
 
-    // Expected value by hand from the takeoff's own joint loads (vertical, fy < 0):
+    // Expected value by hand from the roof loading's own joint loads (vertical, fy < 0):
     // R_F from ΣM about L = 0 (span 12 m, roller at L vertical), then the method of joints at F
     // (Hibbeler, Engineering Mechanics: Statics, §6.2): ΣFy = R_F + fy_F + F_DF·sin θ = 0, with
     // DF from (0, 0) to (2, 1), sin θ = 1/√5. The bottom chord FG is horizontal and drops out.
@@ -142,7 +142,7 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     expect(await link.textContent()).toBe(`Download the calc sheet PDF (${pages} pages)`);
   }, 150_000);
 
-  it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is stale', async () => {
+  it('when the roller is taken away and the model is run again, then the run says unstable, names the joints, shows no forces, and the first run is out of date', async () => {
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     // The takeoff's purlin picker may still be open below with its own joint L: take the main drawing's, which comes first.
     await page.getByRole('button', { name: /^Joint L at / }).first().click();
@@ -156,24 +156,24 @@ describe('the engineer loads, runs and reads the demo truss in Chromium', () => 
     await page.getByText('Unstable: this truss cannot carry load as modelled.').waitFor({ timeout: 30_000 });
     expect(await page.getByText(/Joints that can move:/).isVisible()).toBe(true);
     expect(await page.getByText('Member forces', { exact: true }).count()).toBe(0);
-    expect(await page.getByText('stale: the model changed after this run', { exact: true }).count()).toBe(1);
+    expect(await page.getByText('out of date: the model changed after this run', { exact: true }).count()).toBe(1);
   }, 60_000);
   it('when the engineer detaches the takeoff loads, then a confirmation says the takeoff will no longer update them, and after it they are edited by hand', async () => {
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     await page.getByRole('tab', { name: 'Load cases & loads' }).click();
     const count = preview!.result.caseLoads.D1!.length;
-    // Read-only: the takeoff's rows have no inputs, and say where they come from.
-    expect(await page.getByRole('row', { name: /from the roof takeoff$/ }).count()).toBe(count);
+    // Read-only: the roof loading's rows have no inputs, and say where they come from.
+    expect(await page.getByRole('row', { name: /from the roof loading$/ }).count()).toBe(count);
     expect(await page.getByLabel('Load 1: Fy, kN').count()).toBe(0);
 
     await page.getByRole('button', { name: 'Detach and edit by hand' }).click();
     const dialog = page.getByRole('alertdialog', { name: 'Detach the loads of case D1' });
     await dialog.waitFor({ timeout: 10_000 });
-    expect(await dialog.textContent()).toContain('The roof takeoff will no longer update the loads of case D1');
+    expect(await dialog.textContent()).toContain('The roof loading will no longer update the loads of case D1');
     await dialog.getByRole('button', { name: 'Detach' }).click();
     await page.getByText('Loads detached: edit them by hand now.').waitFor({ timeout: 15_000 });
     await page.getByText('Model save 4').waitFor({ timeout: 15_000 });
-    expect(await page.getByRole('row', { name: /from the roof takeoff$/ }).count()).toBe(0);
+    expect(await page.getByRole('row', { name: /from the roof loading$/ }).count()).toBe(0);
 
     const fy = page.getByLabel('Load 1: Fy, kN');
     await fy.fill('-99');

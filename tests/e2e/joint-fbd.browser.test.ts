@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunView } from '@shared/schemas/run.schema';
+import { DRAWING_INK, LOAD_STYLE, REACTION_STYLE } from '@shared/drawing/truss-svg';
 import { buildClientIfNeeded, launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
 
 /**
@@ -118,11 +119,11 @@ describe('free-body diagrams in the run results', () => {
       // the same vertical line drawn beside it (dashed, open head), so they cannot read as one arrow.
       expect(text).toContain(`P${roller.tag},y = 4.00\u202fkN`);
       const fbd = fbdOf(roller.tag);
-      const loadX = await fbd.locator('line[stroke="#1d4ed8"]').first().evaluate((el) => Number(el.getAttribute('x1')));
-      const reactionLine = fbd.locator('line[stroke="#6d28d9"][stroke-dasharray]').first();
+      const loadX = await fbd.locator(`line[stroke="${LOAD_STYLE.stroke}"]`).first().evaluate((el) => Number(el.getAttribute('x1')));
+      const reactionLine = fbd.locator(`line[stroke="${REACTION_STYLE.stroke}"][stroke-dasharray]`).first();
       const reactionX = await reactionLine.evaluate((el) => Number(el.getAttribute('x1')));
       expect(Math.abs(reactionX - loadX)).toBeGreaterThanOrEqual(10);
-      expect(await fbd.locator('path[fill="#fff"][stroke="#6d28d9"]').count()).toBeGreaterThan(0);
+      expect(await fbd.locator(`path[fill="${DRAWING_INK.paper}"][stroke="${REACTION_STYLE.stroke}"]`).count()).toBeGreaterThan(0);
       await fbd.scrollIntoViewIfNeeded();
     }
     if (process.env.FBD_SHOTS) {

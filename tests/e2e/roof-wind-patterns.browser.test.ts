@@ -36,7 +36,7 @@ describe('the engineer checks snow span patterns and wind on the slopes of the d
     await page.getByRole('tab', { name: 'Model & loads' }).click();
     await page.getByRole('tab', { name: 'Members' }).click();
     await page.getByRole('button', { name: 'Suggest groups from the outline' }).click();
-    await page.getByRole('tab', { name: 'Roof takeoff' }).click();
+    await page.getByRole('tab', { name: 'Roof loading' }).click();
     page.on('response', async (response) => {
       if (response.url().endsWith('/takeoff/preview') && response.ok()) last = (await response.json()) as TakeoffPreviewView;
     });
@@ -48,7 +48,7 @@ describe('the engineer checks snow span patterns and wind on the slopes of the d
     await page.getByLabel('Truss spacing, m').fill('4.5');
     await page.getByLabel('Number of trusses').fill('4');
     await page.getByLabel('Which truss').selectOption('1');
-    const table = page.getByRole('table', { name: /^Takeoff of load case S/ });
+    const table = page.getByRole('table', { name: /^Roof loading of load case S/ });
     await table.getByText('spans 1 and 2 loaded').waitFor({ timeout: 15_000 });
     // AISC Manual Table 3-23, three equal spans (from memory): interior reaction 1.20 wL with the two
     // spans either side loaded, against 1.10 wL with all three.
@@ -82,7 +82,7 @@ describe('the engineer checks snow span patterns and wind on the slopes of the d
     await expect.poll(() => use.isEnabled(), { timeout: 10_000 }).toBe(true);
     await use.click();
     // Nothing is saved until the change is confirmed (two cases: the snow and the wind one).
-    const confirm = page.getByRole('alertdialog', { name: "Use the roof takeoff's loads" });
+    const confirm = page.getByRole('alertdialog', { name: "Use the roof loading's loads" });
     await confirm.waitFor({ timeout: 10_000 });
     expect(await confirm.getByRole('row').count()).toBe(1 + Object.keys(last!.result.caseLoads).length);
     await confirm.getByRole('button', { name: 'Save these loads' }).click();

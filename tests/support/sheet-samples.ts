@@ -2,7 +2,7 @@ import type { TrussModel } from '@shared/model/truss';
 import { modelFromSketch, type TrussSketch } from '@shared/solver/test-trusses';
 import { roofTakeoff, type TakeoffMethod } from '@shared/takeoff';
 
-/** Sample trusses of our own for sheet tests (the demo truss, a K-truss, a roof takeoff). */
+/** Sample trusses of our own for sheet tests (the demo truss, a K-truss, a roof loading). */
 
 export function kTruss(): TrussSketch {
   // Four panels of 3 m, depth 4 m; a K in every panel: each interior vertical has a mid-height joint

@@ -37,11 +37,24 @@ function compile(): Render {
   return hb.compile(main, { strict: false, noEscape: false });
 }
 
+const SUPERSCRIPT_PLAIN: Readonly<Record<string, string>> = {
+  '⁰': '0', '¹': '1', '²': '2', '³': '3', '⁴': '4', '⁵': '5', '⁶': '6', '⁷': '7', '⁸': '8', '⁹': '9', '⁻': '\u2212',
+};
+
+/**
+ * The view writes powers of ten as the app does, "2.0 × 10⁻¹⁴" (scientificFormat). Inter's subsets
+ * the sheet embeds hold ¹ ² ³ but not ⁰ ⁴–⁹ ⁻ (U+2070–207F), which would print in a system face;
+ * on the sheet the exponent is set as <sup> in Inter's own figures and minus instead.
+ */
+export function sheetPowersOfTen(html: string): string {
+  return html.replace(/ × 10([⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+)/g, (_, e: string) => ` × 10<sup class="pow">${[...e].map((ch) => SUPERSCRIPT_PLAIN[ch]).join('')}</sup>`);
+}
+
 /** The full HTML document of a calc sheet. */
 export function renderCalcSheetHtml(view: CalcSheetView): string {
   if (!compiled) compiled = compile();
   // Noto faces only for the scripts the sheet's text uses (a tag in Arabic, a note in Hebrew).
-  return compiled({ ...view, assets: sheetAssets(), notoCss: notoCssFor(JSON.stringify(view)), legendSvg: forceLegendSvg() });
+  return sheetPowersOfTen(compiled({ ...view, assets: sheetAssets(), notoCss: notoCssFor(JSON.stringify(view)), legendSvg: forceLegendSvg() }));
 }
 
 /** Forgets the compiled templates (after editing them in development). */

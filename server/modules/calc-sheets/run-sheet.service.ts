@@ -46,7 +46,7 @@ export async function loadRunSheet(runId: number): Promise<RunSheetInput> {
       unitSystem: project.unitSystem,
     },
     trussName: truss.name,
-    subject: `${truss.name}: ${takeoff?.result ? 'load takeoff, analysis' : 'analysis'}, member forces${run.analysis?.includes('"design":{') ? ' and member design' : ''}`,
+    subject: `${truss.name}: ${takeoff?.result ? 'roof loading, analysis' : 'analysis'}, member forces${run.analysis?.includes('"design":{') ? ' and member design' : ''}`,
     model,
     ...(() => {
       const { design, ...analysis } = JSON.parse(run.analysis!) as RunAnalysis;

@@ -118,7 +118,7 @@ export async function saveModel(trussId: number, input: ModelSaveInput, userId: 
       assertTakeoffCases(takeoff, input.loadCases);
       caseLoads = computeTakeoff(model, takeoff, input.loadCases).caseLoads;
     }
-    // What the loads table shows is what a run solves: a case from the roof takeoff holds exactly its loads.
+    // What the loads table shows is what a run solves: a case from the roof loading holds exactly its loads.
     const problem = roofLoadsProblem(model.loadCases, input.loadCases, caseLoads, input.takeoff === null);
     if (problem) throw new AppError(problem.code, problem.message, 422);
     const props = new Map(input.members.map((m) => [m.id, m]));
@@ -218,9 +218,9 @@ export async function saveDesign(trussId: number, input: DesignSaveInput, userId
 
 /**
  * "Detach and edit by hand": the case keeps its loads as they are, no longer marked as from the
- * roof takeoff, so the takeoff stops updating them and the loads table lets them be edited. A new
+ * roof loading, so the takeoff stops updating them and the loads table lets them be edited. A new
  * model save. Refused (409, nothing written) when the current model save is the one an issued
- * sheet revision was made from: that sheet says these loads come from the roof takeoff.
+ * sheet revision was made from: that sheet says these loads come from the roof loading.
  */
 export async function detachRoofLoads(trussId: number, input: { version: number; caseId: string }, userId: number): Promise<TrussModelView> {
   await getTruss(trussId);
@@ -244,7 +244,7 @@ export async function detachRoofLoads(trussId: number, input: { version: number;
     if (issued !== null) {
       throw conflict(
         'model-issued',
-        `${capitalised(modelSaveName(record.version))} is the one issued sheet revision ${sheetRevisionLabel(issued)} was made from, so its roof-takeoff loads are not detached; change the roof takeoff and use its loads again instead.`,
+        `${capitalised(modelSaveName(record.version))} is the one issued sheet revision ${sheetRevisionLabel(issued)} was made from, so its loads from the roof loading are not detached; change the roof loading and use its loads again instead.`,
       );
     }
     const next: TrussModel = {

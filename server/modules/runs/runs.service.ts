@@ -56,7 +56,7 @@ function summaryView(row: RunRow, currentVersion: number | null): RunSummaryView
 }
 
 /**
- * Takes an immutable snapshot of the truss's saved model, recomputes the roof takeoff from the
+ * Takes an immutable snapshot of the truss's saved model, recomputes the roof loading from the
  * saved inputs (its load cases replace the model's cases of the same id) and queues the solve
  * in a worker. A takeoff that no longer fits the truss gives a run that failed at once.
  */
@@ -100,7 +100,7 @@ export async function startRun(trussId: number, input: RunCreateInput, userId: n
 }
 
 /**
- * The model a run solves: the saved model exactly as the loads table shows it (the roof takeoff
+ * The model a run solves: the saved model exactly as the loads table shows it (the roof loading
  * never overwrites a case at run time), with members without stiffness of their own given their
  * design section's (an indeterminate truss's forces depend on it). The takeoff is recomputed
  * only to check that the cases marked as from it still hold its loads (the drawing or the
@@ -122,7 +122,7 @@ function snapshotOf(record: TrussModelRecord): { model: TrussModel; takeoff: str
       if (stale) {
         error = {
           code: 'roof-loads-stale',
-          message: `The loads of load case "${stale.id}" no longer match the roof takeoff (the drawing or the takeoff changed since they were put in); open the roof takeoff and use its loads again, or detach them, then run.`,
+          message: `The loads of load case "${stale.id}" no longer match the roof loading (the drawing or the roof loading changed since they were put in); open the roof loading and use its loads again, or detach them, then run.`,
         };
       } else {
         takeoff = JSON.stringify({ input: takeoffInput, result });
@@ -130,7 +130,7 @@ function snapshotOf(record: TrussModelRecord): { model: TrussModel; takeoff: str
     }
   } catch (err) {
     if (!(err instanceof AppError)) throw err;
-    error = { code: err.code, message: `The roof takeoff could not be computed: ${err.message}` };
+    error = { code: err.code, message: `The roof loading could not be computed: ${err.message}` };
   }
   return { model: withDesignStiffness(model), takeoff, error };
 }

@@ -52,7 +52,7 @@ export function assertTakeoffCases(input: TakeoffInput, loadCases: readonly Pick
     if (!ids.has(l.caseId)) {
       throw new AppError(
         'unknown-load-case',
-        `The roof takeoff writes load case "${l.caseId}", which the model does not have. Add that load case first, or choose one of: ${[...ids].join(', ') || '(none yet)'}.`,
+        `The roof loading writes load case "${l.caseId}", which the model does not have. Add that load case first, or choose one of: ${[...ids].join(', ') || '(none yet)'}.`,
         400,
       );
     }
@@ -60,8 +60,8 @@ export function assertTakeoffCases(input: TakeoffInput, loadCases: readonly Pick
 }
 
 /**
- * Runs the roof takeoff against the model's joints. A takeoff error (purlin off the top chord,
- * unknown joint, …) becomes a 400 that keeps the takeoff's code and message; wind and span-pattern
+ * Runs the roof loading against the model's joints. A takeoff error (purlin off the top chord,
+ * unknown joint, …) becomes a 400 that keeps the roof loading's code and message; wind and span-pattern
  * input that cannot be taken off as asked (a coefficient without q, a pattern on a dead case, q or
  * a coefficient not finite or out of range) a 422.
  */
@@ -87,7 +87,7 @@ export function takeoffParseStored(text: string | null): TakeoffInput | null {
   if (parsed.success) return parsed.data;
   throw new AppError(
     'saved-takeoff-unreadable',
-    'The roof takeoff saved with this model is not in a form this server reads. Open the takeoff form, check its values and save it again.',
+    'The roof loading saved with this model is not in a form this server reads. Open the roof loading form, check its values and save it again.',
     400,
   );
 }

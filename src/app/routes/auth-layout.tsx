@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { Wordmark } from '@/components/ui/wordmark';
+import { PageNotices } from '@/lib/notices';
 import { CAUTION } from '../app-shell';
 
 /** A quiet page for signing in and joining: the mark, one sheet, the caution line. */
@@ -11,6 +12,7 @@ export function AuthLayout({ title, lead, children }: { title: string; lead?: Re
         {/* A single sheet on the drafting table: ruled edge, square corners, the title ruled off. */}
         <section className="mt-8 w-full max-w-sm rounded-xs border border-paper-rule bg-paper-raised px-7 pt-5 pb-7">
           <h1 className="border-b border-ink-soft pb-2 text-lg font-semibold text-ink">{title}</h1>
+          <PageNotices className="mt-2" />
           {lead && <p className="mt-1 text-sm text-ink-soft">{lead}</p>}
           <div className="mt-5">{children}</div>
         </section>

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { PageNotices } from '@/lib/notices';
 
 interface PageHeaderProps {
   title: ReactNode;
@@ -10,10 +11,12 @@ interface PageHeaderProps {
 
 /**
  * A page's title block: the title in graphite over one full-width 1 px ink rule, like the
- * title strip of a drawing sheet; the page's actions sit on the rule at the right.
+ * title strip of a drawing sheet; the page's actions sit on the rule at the right. What just
+ * happened ("Project details saved.") is said on a ruled line under it, never in a corner.
  */
 export function PageHeader({ title, eyebrow, description, actions }: PageHeaderProps) {
   return (
+    <>
     <header className="mb-7 flex flex-wrap items-end justify-between gap-x-6 gap-y-3 border-b border-ink-soft pb-3">
       <div className="min-w-0">
         {eyebrow && <div className="mb-1 text-[13px] text-ink-soft">{eyebrow}</div>}
@@ -22,6 +25,8 @@ export function PageHeader({ title, eyebrow, description, actions }: PageHeaderP
       </div>
       {actions && <div className="flex shrink-0 items-center gap-2">{actions}</div>}
     </header>
+    <PageNotices className="-mt-5 mb-6" />
+    </>
   );
 }
 

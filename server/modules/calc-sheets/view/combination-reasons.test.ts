@@ -41,7 +41,7 @@ describe('sheet view: reasons for the combination list', () => {
     );
     // H leads with γ_G,sup = 1.35 and with γ_G,inf = 1.00 and γ_Q = 1.5 (EN 1990 Table A1.2(B)), nothing else.
     const hLead = reasons.lines.find((l) => l.includes('γ_Q H'))!;
-    expect(hLead).toMatch(/: 2 combinations: EN 6\.10 H-lead-a: [^(]*\(1\.35 D \+ 1\.5 H\); EN 6\.10 H-lead-b: [^(]*\(1 D \+ 1\.5 H\)\.$/);
+    expect(hLead).toMatch(/: 2 combinations: EN 6\.10 leading roof imposed \(a\): [^(]*\(1\.35 D \+ 1\.5 H\); EN 6\.10 leading roof imposed \(b\): [^(]*\(1 D \+ 1\.5 H\)\.$/);
     // No imposed-load (category A/B) case: nothing is led by Q.
     expect(reasons.lines.find((l) => l.includes('γ_Q Q'))).toMatch(/not formed: it is led by live \(imposed\) load, and no load case has that category\.$/);
   });

@@ -115,7 +115,7 @@ function symbolsOf(model: TrussModel, analysis: TrussAnalysis, takeoffSteps: rea
   if (loaded) {
     const t = tagOf(loaded.joint);
     const letter = loadLetterOf(model);
-    add(`${symbolLoad(t, 'x', letter)},\\ ${symbolLoad(t, 'y', letter)}`, `load applied at joint ${t} along x and along y, positive toward +x and +y${letter === 'P' ? '' : ` (written ${letter} here, as a joint tag of this truss starts with P)`}`);
+    add(`${symbolLoad(t, 'x', letter)},\\ ${symbolLoad(t, 'y', letter)}`, `load applied at joint ${t} along x and along y, positive toward +x and +y${letter === 'P' ? '' : ` (written ${letter} here, as a joint label of this truss starts with P)`}`);
   }
   add('x,\\ y', 'the axes of the truss’s plane: x to the right, y up; joint positions (x, y) in m from the drawing’s origin');
   add('\\Sigma F_x = 0,\\ \\Sigma F_y = 0', 'equilibrium of a joint: the sum of the forces on it along x, and along y, is zero');
@@ -158,7 +158,7 @@ function takeoffSymbols(steps: readonly TakeoffStep[]): Omit<DesignBasisSymbol, 
     add('L_{i}', 'span i of the purlin: the spacing of trusses i − 1 and i (i counted from the first end truss, 0)');
     add('M_{i}', 'bending moment of the continuous purlin over truss i, per 1 unit of purlin load (M = 0 at the end trusses), from the three-moment equation');
     add('R = c\\,w', 'reaction R of a purlin on this truss: c, its reaction per 1 unit of purlin load, times the purlin’s line load w');
-    add('c_{\\mathrm{exact}},\\ c_{\\mathrm{trib}}', 'c of the purlin continuous over the trusses (three-moment equation), and by tributary length (half of each adjacent span)');
+    add('c_{\\mathrm{cont}},\\ c_{\\mathrm{trib}}', 'c of the purlin continuous over the trusses (three-moment equation), and by tributary length (half of each adjacent span)');
   }
   if (has('line-load') || has('wind-purlin')) add('w', 'line load of a purlin: area load times its tributary width');
   if (has('line-load')) {
@@ -167,7 +167,7 @@ function takeoffSymbols(steps: readonly TakeoffStep[]): Omit<DesignBasisSymbol, 
     add('\\theta', 'angle of the roof slope from the horizontal');
   } else if (has('wind-purlin')) add('q', 'velocity pressure of the wind');
   if (has('purlin-reaction')) {
-    add('R_{\\mathrm{exact}},\\ R_{\\mathrm{trib}}', 'reaction of a purlin on this truss with c exact and with c by tributary length; the chosen one becomes the joint load');
+    add('R_{\\mathrm{cont}},\\ R_{\\mathrm{trib}}', 'reaction of a purlin on this truss with c by the three-moment equation and with c by tributary length; the chosen one becomes the joint load');
     add('\\Delta', 'difference of the tributary reaction from the exact one, over the exact one');
   }
   if (has('span-pattern')) {

@@ -1,7 +1,7 @@
 import katex from 'katex';
 import type { JointLoad, TrussModel } from '@shared/model/truss';
 import { stepToKatex, type SolverStep } from '@shared/solver';
-import { UNIT_DECIMALS, UNIT_SYSTEMS, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
+import { UNIT_DECIMALS, UNIT_SYSTEMS, factorFormat, numberFormat, unitFromBase, type Quantity, type UnitSystemId } from '@shared/units';
 import { forceSenseOf, jointFbdSvg } from '@shared/drawing/truss-svg';
 import type { StepView } from './types';
 import { breakableTex } from '@shared/text/breakable-tex';
@@ -116,8 +116,9 @@ export function tagOf(model: TrussModel) {
   return { joint: (id: string) => joints.get(id) ?? id, member: (id: string) => members.get(id) ?? id };
 }
 
+/** "1.1475 G + 1.5 S": each factor with every digit it has (factorFormat), never cut to two decimals. */
 export function factorsText(factors: Record<string, number>): string {
   return Object.entries(factors)
-    .map(([id, f], i) => `${i === 0 ? '' : ' + '}${numberFormat(f, 2).replace(/\.?0+$/, '') || '0'}\u2009${id}`)
+    .map(([id, f], i) => `${i === 0 ? '' : ' + '}${factorFormat(f)}\u2009${id}`)
     .join('');
 }

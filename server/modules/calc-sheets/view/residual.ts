@@ -1,3 +1,4 @@
+import { scientificFormat } from '@shared/units';
 import { RESIDUAL_RELATIVE_LIMIT, residualRatio, type SheetSection } from './context';
 
 /** The equilibrium residual of every load case and combination, against the sheet's limit. */
@@ -5,7 +6,7 @@ export const residualSection: SheetSection<'residual' | 'comboResidualRows'> = {
   build({ analysis, fmt, unstable }) {
     const rows = analysis.cases.map((c) => {
       const ratio = residualRatio(c);
-      return { cells: [c.caseId, fmt.num(c.check.largestLoad, 'force'), `${c.residual.toExponential(2)}`, c.check.residualJointTag ?? '—', ratio.toExponential(1), ratio <= RESIDUAL_RELATIVE_LIMIT ? 'OK' : 'NOT OK'] };
+      return { cells: [c.caseId, fmt.num(c.check.largestLoad, 'force'), `${scientificFormat(c.residual, 3)}`, c.check.residualJointTag ?? '—', scientificFormat(ratio, 2), ratio <= RESIDUAL_RELATIVE_LIMIT ? 'OK' : 'NOT OK'] };
     });
     const ok = analysis.cases.every((c) => residualRatio(c) <= RESIDUAL_RELATIVE_LIMIT);
     const worst = Math.max(0, ...analysis.cases.map((c) => c.residual));
@@ -15,13 +16,13 @@ export const residualSection: SheetSection<'residual' | 'comboResidualRows'> = {
           rows,
           ok,
           verdict: ok
-            ? `Every load case is in equilibrium at every joint: the largest out-of-balance force is ${worst.toExponential(2)} kN.`
+            ? `Every load case is in equilibrium at every joint: the largest out-of-balance force is ${scientificFormat(worst, 3)} kN.`
             : 'At least one load case is NOT in equilibrium: do not use these results.',
         },
-        comboResidualRows: analysis.combinations.map((c) => ({ cells: [c.name, c.clause ?? '—', c.residual.toExponential(2)] })),
+        comboResidualRows: analysis.combinations.map((c) => ({ cells: [c.name, c.clause ?? '—', scientificFormat(c.residual, 3)] })),
       },
       contents: [{ anchor: 'residual', title: 'Equilibrium residual check' }],
-      summary: unstable ? [] : [{ label: 'Largest residual', value: `${worst.toExponential(2)} kN — ${ok ? 'in equilibrium' : 'NOT in equilibrium'}` }],
+      summary: unstable ? [] : [{ label: 'Largest residual', value: `${scientificFormat(worst, 3)} kN — ${ok ? 'in equilibrium' : 'NOT in equilibrium'}` }],
     };
   },
 };

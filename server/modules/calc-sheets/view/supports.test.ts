@@ -7,7 +7,7 @@ describe('sheet view: supports and materials', () => {
     const { supports } = buildCalcSheetView(sheetInput(triangleModel()));
     expect(supports.rows.map((r) => r.cells)).toEqual([
       ['A', 'Pin', 'x and y', '2'],
-      ['B', 'Roller', 'along 90.0° from +x', '1'],
+      ['B', 'Roller', 'at 90.0° from horizontal', '1'],
     ]);
     expect(supports.materialNote).toMatch(/determinate/);
   });

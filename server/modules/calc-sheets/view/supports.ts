@@ -11,7 +11,7 @@ export const supportsSection: SheetSection<'supports'> = {
             cells: [
               tags.joint(s.joint),
               s.kind === 'pin' ? 'Pin' : 'Roller',
-              s.kind === 'pin' ? 'x and y' : `along ${numberFormat(s.angleDeg, 1)}° from +x`,
+              s.kind === 'pin' ? 'x and y' : `at ${numberFormat(s.angleDeg, 1)}° from horizontal`,
               s.kind === 'pin' ? '2' : '1',
             ],
           })),

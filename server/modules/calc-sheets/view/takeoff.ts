@@ -16,6 +16,6 @@ export const takeoffSection: SheetSection<'takeoff'> = {
       const tex = alignedRows(takeoffStepKatex(s, { system, loadLetter: loadLetterOf(model) }));
       return { id: s.id, title: s.title, lines: tex.map((t) => equationHtml(t)), tex, ...(s.note ? { note: s.note } : {}) };
     });
-    return { view: { takeoff }, contents: takeoff.length ? [{ anchor: 'takeoff', title: 'Roof load takeoff' }] : [] };
+    return { view: { takeoff }, contents: takeoff.length ? [{ anchor: 'takeoff', title: 'Roof loading' }] : [] };
   },
 };

@@ -35,7 +35,7 @@ export interface CalcSheetInput {
   analysis: TrussAnalysis;
   /** The run's member design checks and deflections, when the model has a member design. */
   design?: RunDesign | null;
-  /** Roof takeoff steps (shared/takeoff), when the loads came from a takeoff. */
+  /** Roof loading steps (shared/takeoff), when the loads came from a takeoff. */
   takeoffSteps?: TakeoffStep[];
   /** Which analysis run the sheet was made from (printed on the cover and every page). */
   runLabel?: string;

@@ -45,7 +45,7 @@ export function AcceptInvitationForm({ token, invitation, onAccepted }: AcceptIn
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-      <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-4 gap-y-1 rounded-md border border-paper-line bg-paper-sunk/60 px-4 py-3 text-sm">
+      <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-4 gap-y-1 rounded-xs border border-paper-line bg-paper-sunk/60 px-4 py-3 text-sm">
         <dt className="whitespace-nowrap text-ink-faint">E-mail</dt>
         <dd className="font-medium break-all text-ink">{invitation.email}</dd>
         <dt className="text-ink-faint">Role</dt>

@@ -26,7 +26,7 @@ export function ForgotPasswordForm() {
 
   if (requestReset.isSuccess) {
     return (
-      <p role="status" className="rounded-md border border-paper-line bg-paper-sunk/60 px-4 py-3 text-sm text-ink">
+      <p role="status" className="rounded-xs border border-paper-line bg-paper-sunk/60 px-4 py-3 text-sm text-ink">
         {requestReset.data.message}
       </p>
     );

@@ -194,11 +194,11 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
         <div className="flex items-center gap-4 text-xs text-ink-soft">
           <label className="inline-flex items-center gap-1.5">
             <input type="checkbox" className="accent-accent" checked={showJointTags} onChange={(e) => setShowJointTags(e.target.checked)} />
-            Joint tags
+            Joint labels
           </label>
           <label className="inline-flex items-center gap-1.5">
             <input type="checkbox" className="accent-accent" checked={showMemberTags} onChange={(e) => setShowMemberTags(e.target.checked)} />
-            Member tags
+            Member labels
           </label>
         </div>
         <div className="flex items-center gap-1">
@@ -214,7 +214,7 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
         </div>
       </div>
 
-      <div ref={frameRef} className="relative overflow-hidden rounded-md border border-paper-line bg-white" style={{ height: HEIGHT }}>
+      <div ref={frameRef} className="relative overflow-hidden rounded-xs border border-paper-line bg-paper-raised" style={{ height: HEIGHT }}>
         <svg
           ref={svgRef}
           role="img"
@@ -305,8 +305,8 @@ export function DrawingCanvas({ result, colours, hiddenLayers, highlight, reveal
         </svg>
 
         {tagsHidden && (
-          <div className="pointer-events-none absolute top-2 left-3 rounded bg-white/90 px-1.5 py-0.5 text-[11px] text-ink-soft">
-            Tags show when {MAX_TAGS} or fewer are in view: zoom in to read them.
+          <div className="pointer-events-none absolute top-2 left-3 rounded-xs bg-paper-raised/90 px-1.5 py-0.5 text-[11px] text-ink-soft">
+            Labels show when {MAX_TAGS} or fewer are in view: zoom in to read them.
           </div>
         )}
         {bar && (

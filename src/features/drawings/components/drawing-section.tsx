@@ -171,16 +171,16 @@ function DrawingWorkspace({ drawing, newest, toleranceUnit, mayUpload, uploadAct
           <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
             <div className="min-w-0">
               <DrawingCanvas result={result} colours={colours} hiddenLayers={hiddenLayers} highlight={highlight} revealKey={revealKey} />
-              <h3 className="mt-5 mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Layers</h3>
+              <h3 className="mt-5 mb-1 text-xs font-semibold text-ink-soft">Layers</h3>
               <LayerList layers={drawing.layers} result={result} colours={colours} hidden={hiddenLayers} onToggle={toggleLayer} />
             </div>
             <aside className="min-w-0">
-              <h3 className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Import report</h3>
+              <h3 className="mb-1 text-xs font-semibold text-ink-soft">Import report</h3>
               <ImportReport entries={result.report} selected={selectedEntry} onSelect={chooseEntry} />
             </aside>
           </div>
         ) : (
-          <div role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm">
+          <div role="alert" className="rounded-xs border border-danger/30 bg-danger/5 px-4 py-3 text-sm">
             <p className="font-medium text-danger">This drawing version did not import.</p>
             <p className="mt-1 text-ink">{drawing.error?.message ?? 'The import stopped without saying why.'}</p>
             {mayUpload && <p className="mt-1 text-ink-soft">Set the options below and re-import; the file stays stored.</p>}

@@ -14,9 +14,9 @@ interface DrawingVersionsProps {
 export function DrawingVersions({ versions, selectedId, onSelect }: DrawingVersionsProps) {
   return (
     <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-[13px]">
+      <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
         <thead>
-          <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+          <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
             <th scope="col" className="py-1.5 pr-3 text-left">Drawing version</th>
             <th scope="col" className="py-1.5 pr-3 text-left">File and upload</th>
             <th scope="col" className="py-1.5 pr-3 text-left">Status</th>

@@ -71,7 +71,7 @@ export function ReimportForm({ drawing, toleranceUnit, onReimported }: ReimportF
   return (
     <form onSubmit={submit} className="flex flex-col gap-4" noValidate>
       <fieldset className="flex flex-col gap-1">
-        <legend className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Member layers</legend>
+        <legend className="mb-1 text-xs font-semibold text-ink-soft">Member layers</legend>
         {lineLayers.length === 0 ? (
           <p className="text-sm text-ink-soft">No layer of this drawing holds lines.</p>
         ) : (

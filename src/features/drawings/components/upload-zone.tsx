@@ -77,7 +77,7 @@ export function UploadZone({ trussId, toleranceUnit, first, onUploaded, onCancel
         }}
         onDragLeave={() => setDragging(false)}
         onDrop={onDrop}
-        className={`flex flex-col items-center justify-center gap-3 rounded-lg border-2 border-dashed px-6 text-center transition-colors ${first ? 'py-12' : 'py-8'} ${
+        className={`flex flex-col items-center justify-center gap-3 rounded-xs border-2 border-dashed px-6 text-center transition-colors ${first ? 'py-12' : 'py-8'} ${
           dragging ? 'border-accent bg-accent-soft/60' : 'border-paper-line bg-paper'
         }`}
       >
@@ -95,9 +95,9 @@ export function UploadZone({ trussId, toleranceUnit, first, onUploaded, onCancel
               aria-valuemin={0}
               aria-valuemax={100}
               aria-valuenow={Math.round((progress ?? 0) * 100)}
-              className="h-1.5 w-full overflow-hidden rounded-full bg-paper-sunk"
+              className="h-1.5 w-full overflow-hidden border border-paper-rule bg-paper-raised"
             >
-              <div className="h-full rounded-full bg-accent transition-[width]" style={{ width: `${Math.round((progress ?? 0) * 100)}%` }} />
+              <div className="h-full bg-accent transition-[width]" style={{ width: `${Math.round((progress ?? 0) * 100)}%` }} />
             </div>
             <p className="figures mt-1.5 text-xs text-ink-soft">
               {progress !== null && progress >= 1 ? 'Sent; importing the drawing…' : `${Math.round((progress ?? 0) * 100)} % sent`}

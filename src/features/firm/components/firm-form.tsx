@@ -39,12 +39,12 @@ export function FirmForm({ firm, editable }: { firm: FirmSettings; editable: boo
         <TextField label="Firm name" autoComplete="organization" error={errors.name?.message} {...register('name')} />
         <TextareaField label="Address" rows={3} error={errors.address?.message} hint="As it should read in the title block." {...register('address')} />
         <div className="flex flex-col gap-1">
-          <span className="text-xs font-semibold tracking-wide text-ink-soft uppercase">Paper size</span>
+          <span className="text-xs font-semibold text-ink-soft">Paper size</span>
           <div role="radiogroup" aria-label="Paper size" className="flex gap-2">
             {PAPER_SIZES.map((size) => (
               <label
                 key={size.value}
-                className="flex cursor-pointer items-center gap-2 rounded-md border border-paper-line bg-paper-raised px-3 py-2 text-sm has-checked:border-accent has-checked:bg-accent-soft/50"
+                className="flex cursor-pointer items-center gap-2 rounded-xs border border-paper-line bg-paper-raised px-3 py-2 text-sm has-checked:border-accent has-checked:bg-accent-soft/50"
               >
                 <input type="radio" value={size.value} className="accent-accent" {...register('paperSize')} />
                 <span className="font-medium">{size.label}</span>

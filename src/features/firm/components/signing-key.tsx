@@ -19,16 +19,16 @@ export function SigningKey() {
         start while issued sheets exist.
       </p>
       <div>
-        <div className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Key id</div>
+        <div className="mb-1 text-xs font-semibold text-ink-soft">Key id</div>
         <code className="font-mono text-[13px] text-ink">{key.data.keyId}</code>
       </div>
       <div>
-        <div className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Fingerprint (SHA-256 of the public key)</div>
+        <div className="mb-1 text-xs font-semibold text-ink-soft">Fingerprint (SHA-256 of the public key)</div>
         <code className="font-mono text-[13px] break-all text-ink">{groupHex(key.data.fingerprint)}</code>
       </div>
       <div>
-        <div className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Public key (PEM)</div>
-        <pre className="overflow-x-auto rounded-md border border-paper-line bg-paper-sunk px-3 py-2 font-mono text-xs text-ink">{key.data.publicKeyPem.trim()}</pre>
+        <div className="mb-1 text-xs font-semibold text-ink-soft">Public key (PEM)</div>
+        <pre className="overflow-x-auto rounded-xs border border-paper-line bg-paper-sunk px-3 py-2 font-mono text-xs text-ink">{key.data.publicKeyPem.trim()}</pre>
       </div>
     </div>
   );

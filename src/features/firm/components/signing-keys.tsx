@@ -20,7 +20,7 @@ export function SigningKeys() {
     <div className="flex flex-col gap-4 text-sm">
       <div className="overflow-x-auto">
         <table className="w-full text-left text-[13px]" aria-label="Signing keys">
-          <thead className="text-xs tracking-wide text-ink-soft uppercase">
+          <thead className="text-xs text-ink-soft">
             <tr>
               <th className="py-1 pr-3 font-semibold">Key id</th>
               <th className="py-1 pr-3 font-semibold">State</th>
@@ -42,7 +42,7 @@ export function SigningKeys() {
                   <code className="font-mono text-xs break-all text-ink">{groupHex(k.fingerprint)}</code>
                   <details className="mt-1">
                     <summary className="cursor-pointer text-xs text-ink-soft">Public key (PEM)</summary>
-                    <pre className="mt-1 overflow-x-auto rounded-md border border-paper-line bg-paper-sunk px-3 py-2 font-mono text-xs">{k.publicKeyPem.trim()}</pre>
+                    <pre className="mt-1 overflow-x-auto rounded-xs border border-paper-line bg-paper-sunk px-3 py-2 font-mono text-xs">{k.publicKeyPem.trim()}</pre>
                   </details>
                 </td>
               </tr>
@@ -51,7 +51,7 @@ export function SigningKeys() {
         </table>
       </div>
       {confirming ? (
-        <div className="flex flex-wrap items-center gap-3 rounded-md border border-paper-line bg-paper-sunk px-3 py-2">
+        <div className="flex flex-wrap items-center gap-3 rounded-xs border border-paper-line bg-paper-sunk px-3 py-2">
           <span>
             A new key will sign every sheet issued from now on; the current key is retired and its public key kept. Back up the data folder
             afterwards.

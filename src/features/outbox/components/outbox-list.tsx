@@ -12,7 +12,7 @@ export function OutboxList({ messages }: { messages: OutboxMessageView[] }) {
   const selected = messages.find((m) => m.id === selectedId) ?? messages[0];
 
   return (
-    <div className="grid min-h-96 grid-cols-1 overflow-hidden rounded-lg border border-paper-line bg-paper-raised md:grid-cols-[minmax(16rem,22rem)_1fr]">
+    <div className="grid min-h-96 grid-cols-1 overflow-hidden rounded-xs border border-paper-line bg-paper-raised md:grid-cols-[minmax(16rem,22rem)_1fr]">
       <ul className="max-h-[36rem] overflow-y-auto border-b border-paper-line md:border-r md:border-b-0" aria-label="Messages">
         {messages.map((message) => {
           const active = message.id === selected.id;

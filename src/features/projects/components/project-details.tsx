@@ -21,7 +21,7 @@ export function ProjectDetails({ project }: { project: ProjectView }) {
         ))}
       </dl>
       <div>
-        <h3 className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Design basis</h3>
+        <h3 className="mb-1 text-xs font-semibold text-ink-soft">Design basis</h3>
         {project.designBasis ? (
           <p className="text-sm leading-relaxed whitespace-pre-wrap text-ink">{project.designBasis}</p>
         ) : (

@@ -22,7 +22,7 @@ export function PdfDropZone({ title, hint, onFile }: { title: string; hint: stri
       }}
       onDragLeave={() => setOver(false)}
       onDrop={onDrop}
-      className={`flex flex-col items-center justify-center gap-2 rounded-lg border-2 border-dashed px-6 py-10 text-center transition-colors ${
+      className={`flex flex-col items-center justify-center gap-2 rounded-xs border-2 border-dashed px-6 py-10 text-center transition-colors ${
         over ? 'border-accent bg-accent-soft/50' : 'border-paper-line bg-paper-raised'
       }`}
     >
@@ -31,7 +31,7 @@ export function PdfDropZone({ title, hint, onFile }: { title: string; hint: stri
       <button
         type="button"
         onClick={() => input.current?.click()}
-        className="mt-2 inline-flex h-9 items-center rounded-md border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
+        className="mt-2 inline-flex h-9 items-center rounded-xs border border-paper-line bg-paper-raised px-4 text-sm font-medium text-ink hover:bg-paper-sunk"
       >
         Choose a file…
       </button>
@@ -60,7 +60,7 @@ export function VerifyProgress({ pending, error, fileName }: { pending: boolean;
         </p>
       )}
       {error ? (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
+        <p role="alert" className="rounded-xs border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
           {fileName ? <span className="font-medium">{fileName}: </span> : null}
           {errorMessage(error)}
         </p>

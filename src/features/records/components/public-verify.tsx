@@ -16,7 +16,7 @@ function SheetFacts({ sheet }: { sheet: PublicSheetView }) {
     ['Fingerprint', sheet.fingerprint],
   ];
   return (
-    <section aria-label="Issued sheet" className="rounded-lg border border-paper-line bg-paper-raised px-5 py-4">
+    <section aria-label="Issued sheet" className="rounded-xs border border-paper-line bg-paper-raised px-5 py-4">
       <p className={`text-base font-semibold ${sheet.status === 'current' ? 'text-accent' : 'text-ink'}`}>
         {sheet.status === 'current'
           ? `Issued sheet ${sheet.sheetId} is the current revision of this truss.`
@@ -40,7 +40,7 @@ function Answer({ result }: { result: PublicVerifyView }) {
   return (
     <section
       aria-label="Verification result"
-      className={`rounded-lg border bg-paper-raised px-5 py-4 ${good ? 'border-accent/50' : 'border-danger/40'}`}
+      className={`rounded-xs border bg-paper-raised px-5 py-4 ${good ? 'border-accent/50' : 'border-danger/40'}`}
     >
       <p className={`text-base font-semibold ${good ? 'text-accent' : 'text-danger'}`}>{result.verdict}</p>
       <p className="mt-1 font-mono text-xs break-all text-ink-faint">SHA-256 {result.sha256}</p>
@@ -65,7 +65,7 @@ export function PublicVerify({ sheetId }: { sheetId: number }) {
     <div className="flex flex-col gap-5">
       {sheet.isPending && <p role="status" className="text-sm text-ink-soft">Looking up issued sheet {sheetId}…</p>}
       {sheet.isError && (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
+        <p role="alert" className="rounded-xs border border-danger/30 bg-danger/5 px-4 py-3 text-sm text-danger">
           {errorMessage(sheet.error)}
         </p>
       )}

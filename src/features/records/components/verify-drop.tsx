@@ -52,7 +52,7 @@ export function VerifyResult({ result, fileName }: { result: SheetVerifyView; fi
   return (
     <section
       aria-label="Verification result"
-      className={`rounded-lg border bg-paper-raised px-5 py-4 ${m === null || result.signature === 'invalid' || result.archivedFile !== 'intact' ? 'border-danger/40' : allGood ? 'border-accent/50' : 'border-paper-line'}`}
+      className={`rounded-xs border bg-paper-raised px-5 py-4 ${m === null || result.signature === 'invalid' || result.archivedFile !== 'intact' ? 'border-danger/40' : allGood ? 'border-accent/50' : 'border-paper-line'}`}
     >
       <p className={`text-base font-semibold ${m === null ? 'text-danger' : allGood ? 'text-accent' : 'text-ink'}`}>{result.verdict}</p>
       <p className="mt-1 font-mono text-xs break-all text-ink-faint">

@@ -59,7 +59,7 @@ function Thread({ thread, sheetId, trussId, currentLabel, canReply, canResolve, 
   const earlier = thread.revisionLabel !== currentLabel;
   return (
     <article
-      className={`rounded-md border bg-paper-raised text-[13px] ${thread.resolved ? 'border-paper-line' : 'border-danger/35'}`}
+      className={`rounded-xs border bg-paper-raised text-[13px] ${thread.resolved ? 'border-paper-line' : 'border-danger/35'}`}
       onClick={(e) => {
         if (!(e.target as Element).closest('button, textarea, a')) onFocusStep(thread.anchor);
       }}
@@ -171,7 +171,7 @@ export function CommentComposer({ sheetId, anchor, parentId, placeholder, submit
         placeholder={placeholder}
         aria-label={placeholder}
         onChange={(e) => setBody(e.target.value)}
-        className="w-full rounded-md border border-paper-line bg-paper-raised px-2.5 py-1.5 text-[13px] leading-relaxed text-ink placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
+        className="w-full rounded-xs border border-paper-line bg-paper-raised px-2.5 py-1.5 text-[13px] leading-relaxed text-ink placeholder:text-ink-faint focus:border-accent focus:ring-2 focus:ring-accent/20 focus:outline-none"
       />
       <FormError message={add.isError ? errorMessage(add.error) : undefined} />
       <div className="flex justify-end gap-2">

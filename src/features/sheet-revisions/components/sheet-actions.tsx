@@ -83,7 +83,7 @@ export function SheetActions({ sheet, user, children }: { sheet: SheetRevisionVi
         </p>
       )}
       {pending && (
-        <div className="absolute top-11 right-0 z-20 w-[26rem] max-w-[90vw] rounded-md border border-paper-line bg-paper-raised p-4 text-left shadow-lg">
+        <div className="absolute top-11 right-0 z-20 w-[26rem] max-w-[90vw] rounded-xs border border-paper-line bg-paper-raised p-4 text-left outline outline-1 outline-ink-soft">
           <p className="mb-3 text-sm text-ink-soft">{CONFIRM_TEXT[pending]}</p>
           {pending === 'submit' && (
             <div className="mb-3">

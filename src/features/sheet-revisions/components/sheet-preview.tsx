@@ -196,7 +196,7 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
   }, [doc, focus]);
 
   return (
-    <div className="relative h-[78vh] min-h-[28rem] overflow-hidden rounded-lg border border-paper-line bg-paper-sunk">
+    <div className="relative h-[78vh] min-h-[28rem] overflow-hidden rounded-xs border border-paper-line bg-paper-sunk">
       <iframe
         ref={frame}
         src={src}
@@ -205,8 +205,8 @@ export function SheetPreview({ src, commented, selected, focus, onPickStep, onAn
         className={`size-full ${state.kind === 'missing' ? 'invisible' : ''}`}
       />
       {state.kind === 'loading' && (
-        <div role="status" className="absolute top-3 left-3 flex items-center gap-2 rounded-md border border-paper-line bg-paper-raised px-3 py-1.5 text-xs text-ink-soft shadow-sm">
-          <span aria-hidden className="size-3 animate-spin rounded-full border-2 border-accent border-t-transparent" />
+        <div role="status" className="absolute top-3 left-3 flex items-center gap-2 rounded-xs border border-paper-line bg-paper-raised px-3 py-1.5 text-xs text-ink-soft shadow-sm">
+          <span aria-hidden className="inline-block w-6 animate-pulse border-t-2 border-dashed border-accent" />
           Laying out the calc sheet…
         </div>
       )}

@@ -73,7 +73,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
   return (
     <div className="flex flex-col gap-4">
       {sheet.status === 'returned' && openThreads.length > 0 && (
-        <section className="rounded-lg border border-danger/40 bg-danger/5 px-5 py-4" aria-label="Open comments">
+        <section className="rounded-xs border border-danger/40 bg-danger/5 px-5 py-4" aria-label="Open comments">
           <h2 className="text-sm font-semibold text-danger">
             Returned with {openThreads.length} open comment{openThreads.length === 1 ? '' : 's'}
           </h2>
@@ -138,17 +138,17 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
           fold={foldSteps}
         />
 
-        <aside className="flex max-h-[78vh] flex-col overflow-hidden rounded-lg border border-paper-line bg-paper-raised" aria-label="Comments">
+        <aside className="flex max-h-[78vh] flex-col overflow-hidden rounded-xs border border-paper-line bg-paper-raised" aria-label="Comments">
           <div className="flex items-center justify-between gap-2 border-b border-paper-line px-4 py-2.5">
             <h2 className="text-sm font-semibold text-ink">Comments</h2>
-            <div role="group" aria-label="Which threads" className="flex rounded-md border border-paper-line p-0.5 text-[11px]">
+            <div role="group" aria-label="Which threads" className="flex rounded-xs border border-paper-line p-0.5 text-[11px]">
               {(['all', 'open'] as const).map((option) => (
                 <button
                   key={option}
                   type="button"
                   aria-pressed={show === option}
                   onClick={() => setShow(option)}
-                  className={`rounded px-2 py-0.5 ${show === option ? 'bg-paper-sunk font-semibold text-ink' : 'text-ink-soft hover:text-ink'}`}
+                  className={`rounded-xs px-2 py-0.5 ${show === option ? 'bg-paper-sunk font-semibold text-ink' : 'text-ink-soft hover:text-ink'}`}
                 >
                   {option === 'all' ? 'All' : `Open (${sheet.comments.filter((c) => !c.resolved).length})`}
                 </button>
@@ -158,7 +158,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
           <div className="flex-1 overflow-y-auto px-4 py-3">
             {canComment &&
               (writingOn ? (
-                <div className="-mx-1 mb-4 rounded-md border border-accent/40 bg-accent-soft/40 pt-2">
+                <div className="-mx-1 mb-4 rounded-xs border border-accent/40 bg-accent-soft/40 pt-2">
                   <p className="px-3 pb-1.5 text-[11px] text-ink-soft">
                     New comment on <span className="font-semibold text-accent" title={writingOn}>{labelOf(writingOn)}</span>
                   </p>
@@ -175,7 +175,7 @@ export function SheetReview({ sheet, user }: { sheet: SheetRevisionView; user: P
                   />
                 </div>
               ) : (
-                <p className="mb-4 rounded-md border border-dashed border-paper-line px-3 py-2 text-xs text-ink-soft">
+                <p className="mb-4 rounded-xs border border-dashed border-paper-line px-3 py-2 text-xs text-ink-soft">
                   Click a step on the sheet to comment on it.
                 </p>
               ))}

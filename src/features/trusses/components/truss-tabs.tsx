@@ -44,7 +44,7 @@ export function TrussTabs({ tabs }: { tabs: TrussTab[] }) {
   return (
     <div>
       {tabs.length > 1 && (
-        <div role="tablist" aria-label="Truss sections" className="mb-5 flex gap-1 border-b border-paper-line" onKeyDown={onKeyDown}>
+        <div role="tablist" aria-label="Truss sections" className="mb-5 flex flex-wrap border-b border-paper-rule" onKeyDown={onKeyDown}>
           {tabs.map((tab) => {
             const selected = tab === active;
             return (
@@ -57,8 +57,12 @@ export function TrussTabs({ tabs }: { tabs: TrussTab[] }) {
                 aria-controls={`${baseId}-panel-${tab.id}`}
                 tabIndex={selected ? 0 : -1}
                 onClick={() => open(tab.id)}
-                className={`-mb-px border-b-2 px-3 py-2 text-sm font-medium transition-colors ${
-                  selected ? 'border-accent text-ink' : 'border-transparent text-ink-soft hover:text-ink'
+                // A sheet's index tab: the open one stands on the rule as a piece of the raised paper
+                // with the accent line along its top (as the open page in the bar); the others are words.
+                className={`relative -mb-px border px-4 py-2 text-sm ${
+                  selected
+                    ? 'border-paper-rule border-b-paper-raised bg-paper-raised font-semibold text-ink before:absolute before:-inset-x-px before:-top-px before:h-[3px] before:bg-accent'
+                    : 'border-transparent text-ink-soft hover:text-ink hover:underline hover:decoration-paper-rule hover:underline-offset-4'
                 }`}
               >
                 {tab.label}

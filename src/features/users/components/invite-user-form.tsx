@@ -66,7 +66,7 @@ export function InviteUserForm({ onClose }: { onClose?: () => void }) {
         </div>
       </form>
       {created && (
-        <div role="status" className="rounded-md border border-accent/30 bg-accent-soft/50 px-4 py-3 text-sm">
+        <div role="status" className="rounded-xs border border-accent/30 bg-accent-soft/50 px-4 py-3 text-sm">
           <p className="text-ink">
             Invitation sent to <strong className="font-semibold">{created.invitation.email}</strong> as{' '}
             {ROLE_LABELS[created.invitation.role].toLowerCase()}. The link below works once, until{' '}
@@ -78,7 +78,7 @@ export function InviteUserForm({ onClose }: { onClose?: () => void }) {
               value={link}
               aria-label="Invitation link"
               onFocus={(e) => e.currentTarget.select()}
-              className="h-8 min-w-0 flex-1 rounded border border-paper-line bg-paper-raised px-2 font-mono text-xs text-ink-soft"
+              className="h-8 min-w-0 flex-1 rounded-xs border border-paper-line bg-paper-raised px-2 font-mono text-xs text-ink-soft"
             />
             <Button
               size="sm"

@@ -49,7 +49,7 @@ export function UsersTable({ users, currentUserId, filter }: { users: UserView[]
                   { onSuccess: (u) => notify('success', `${u.name} is now ${ROLE_LABELS[u.role].toLowerCase()}.`) },
                 )
               }
-              className="h-7 w-full rounded border border-paper-line bg-paper-raised px-1.5 text-[13px] disabled:bg-transparent disabled:text-ink-soft"
+              className="h-7 w-full rounded-xs border border-paper-line bg-paper-raised px-1.5 text-[13px] disabled:bg-transparent disabled:text-ink-soft"
             >
               {ROLES.map((role) => (
                 <option key={role} value={role}>

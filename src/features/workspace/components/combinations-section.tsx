@@ -46,10 +46,10 @@ export function CombinationsSection({ form, mayEdit }: { form: DraftForm; mayEdi
   return (
     <div className="flex flex-col gap-3">
       {mayEdit && (
-        <div className="flex flex-wrap items-end gap-2 rounded-md border border-paper-line bg-paper px-3 py-3">
-          <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+        <div className="flex flex-wrap items-end gap-2 rounded-xs border border-paper-line bg-paper px-3 py-3">
+          <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
             Code set
-            <select className={`${CELL_INPUT} border-paper-line w-80 font-normal tracking-normal normal-case`} value={setId} onChange={(e) => setSetId(e.target.value as CombinationSetId)}>
+            <select className={`${CELL_INPUT} border-paper-line w-80 font-normal`} value={setId} onChange={(e) => setSetId(e.target.value as CombinationSetId)}>
               {COMBINATION_SETS.map((s) => (
                 <option key={s.id} value={s.id}>
                   {s.title}
@@ -78,9 +78,9 @@ export function CombinationsSection({ form, mayEdit }: { form: DraftForm; mayEdi
       ))}
 
       <div className="overflow-x-auto">
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Combination</th>
               {cases.map((c) => (
                 <th key={c.id} className={TH_RIGHT} title={c.name}>

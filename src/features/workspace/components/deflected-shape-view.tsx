@@ -6,7 +6,7 @@ import { DESIGN_UNITS, lengthOut } from '@shared/design/units';
 import type { UnitSystemId } from '@shared/units';
 import { TrussSvg } from './truss-svg';
 
-const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
+const SELECT = 'h-8 rounded-xs border border-paper-line bg-paper-raised px-2 text-[13px]';
 
 /**
  * The deflected shape of a run, exaggerated with its scale written: the displaced truss in ink,

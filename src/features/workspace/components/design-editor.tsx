@@ -12,7 +12,7 @@ import { errorMessage } from '@/lib/api-client';
 import { useTrussModel } from '../api/get-model';
 import { useSaveDesign } from '../api/save-design';
 
-const FIELD = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
+const FIELD = 'h-8 rounded-xs border border-paper-line bg-paper-raised px-2 text-[13px]';
 const SHAPE_FIELDS: Record<DesignGroupInput['section']['shape'], string[]> = {
   properties: ['A', 'rx', 'ry'],
   rectangle: ['b', 'd'],
@@ -97,7 +97,7 @@ function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boo
           <span className="text-xs text-ink-faint">Later groups take their members from earlier ones.</span>
         </label>
         {draft.groups.map((g, i) => (
-          <div key={i} className="rounded-md border border-paper-line p-3" aria-label={`Design group ${i + 1}`}>
+          <div key={i} className="rounded-xs border border-paper-line p-3" aria-label={`Design group ${i + 1}`}>
             <div className="flex flex-wrap items-center gap-3">
               <input aria-label="Group name" className={FIELD} value={g.name} onChange={(e) => setGroup(i, { ...g, name: e.target.value })} />
               <select
@@ -114,11 +114,11 @@ function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boo
               </select>
               {Array.isArray(g.members) && (
                 <input
-                  aria-label="Member tags"
+                  aria-label="Member labels"
                   className={`${FIELD} w-56`}
                   defaultValue={g.members.map((id) => idToTag.get(id) ?? id).join(', ')}
                   onBlur={(e) => setGroup(i, { ...g, members: e.target.value.split(/[\s,]+/).filter(Boolean).map((t) => tagToId.get(t) ?? t) })}
-                  placeholder="Member tags, comma separated"
+                  placeholder="Member labels, comma separated"
                 />
               )}
               {draft.groups.length > 1 && (
@@ -214,7 +214,7 @@ function DesignEditor({ view, mayEdit, u }: { view: TrussModelView; mayEdit: boo
             aria-label="Deflection joints"
             className={`${FIELD} w-40`}
             defaultValue={draft.deflection?.joints.map((j) => jointTag.get(j) ?? j).join(', ') ?? ''}
-            placeholder="Joint tags"
+            placeholder="Joint labels"
             onBlur={(e) => {
               const joints = e.target.value.split(/[\s,]+/).filter(Boolean).map((t) => jointId.get(t) ?? t);
               const { deflection, ...rest } = draft;

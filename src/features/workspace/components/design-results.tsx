@@ -16,7 +16,7 @@ import { TrussSvg } from './truss-svg';
 
 /** Infinite values arrive as null (a zero span). */
 const fin = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
-const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
+const SELECT = 'h-8 rounded-xs border border-paper-line bg-paper-raised px-2 text-[13px]';
 
 /** The member design checks of a run: the scale on the diagram, the table, the governing steps, the deflections. */
 export function DesignResults({ run, unitSystem, mayRun }: { run: RunView; unitSystem: UnitSystemId; mayRun: boolean }) {
@@ -73,7 +73,7 @@ export function DesignResults({ run, unitSystem, mayRun }: { run: RunView; unitS
           </p>
         )}
         {sectionsChanged && (
-          <div className="flex flex-wrap items-center gap-3 rounded-md border border-paper-line bg-paper-sunk px-4 py-3 text-sm" role="status">
+          <div className="flex flex-wrap items-center gap-3 rounded-xs border border-paper-line bg-paper-sunk px-4 py-3 text-sm" role="status">
             {indeterminate ? (
               <>
                 <span>
@@ -171,9 +171,9 @@ function DesignTable({ rows, unitSystem, picked, onPick }: { rows: RunMemberDesi
   const th = 'px-2 py-1.5 text-left';
   return (
     <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-[13px]" aria-label="Member design checks">
+      <table className="w-full border-collapse border-b border-ink-soft text-[13px]" aria-label="Member design checks">
         <thead>
-          <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+          <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
             <th className={th}>Member</th>
             <th className={th}>Group</th>
             <th className={`${th} text-right`}>Tension ({unitSystem === 'us' ? 'kip' : 'kN'})</th>
@@ -236,7 +236,7 @@ function MemberSteps({ member, design, model, unitSystem }: { member: RunMemberD
       {[shown.tension, shown.compression].map((sc) =>
         sc ? (
           <div key={sc.sense} className="mb-3">
-            <p className="text-xs font-semibold tracking-wide text-ink-soft uppercase">
+            <p className="text-xs font-semibold text-ink-soft">
               {sc.sense} — {sc.combination}, {forceOut(sc.force, u).toFixed(2)} {u.force}
             </p>
             <ol className="mt-1 flex flex-col gap-1 text-[13px]">
@@ -266,9 +266,9 @@ function Deflections({ run, unitSystem }: { run: RunView; unitSystem: UnitSystem
   return (
     <div>
       <h3 className="mb-2 text-sm font-semibold text-ink">Deflection (unit-load method)</h3>
-      <table className="w-full border-collapse text-[13px]" aria-label="Deflections">
+      <table className="w-full border-collapse border-b border-ink-soft text-[13px]" aria-label="Deflections">
         <thead>
-          <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+          <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
             <th className="px-2 py-1.5 text-left">Joint</th>
             <th className="px-2 py-1.5 text-left">Combination</th>
             <th className="px-2 py-1.5 text-right">δx ({u.length})</th>

@@ -44,7 +44,7 @@ export function draftActions(form: DraftForm) {
         DIRTY,
       );
     },
-    /** Replaces the joint loads of the given cases (what the roof takeoff writes). */
+    /** Replaces the joint loads of the given cases (what the roof loading writes). */
     replaceCaseLoads(caseLoads: Record<string, { joint: string; fx: number; fy: number }[]>) {
       const kept = (form.getValues('loads') ?? []).filter((l) => !(l.caseId in caseLoads));
       const written = Object.entries(caseLoads).flatMap(([caseId, loads]) => loads.map((l) => ({ caseId, joint: l.joint, fx: l.fx, fy: l.fy })));

@@ -36,22 +36,22 @@ export function ForceTable({
       { accessorKey: 'tag', header: 'Member', cell: (c) => <span className="font-medium text-ink">{c.getValue()}</span> },
       { accessorFn: (r) => (r.group ? GROUP_LABELS[r.group] : '—'), id: 'group', header: 'Group' },
       { accessorFn: (r) => `${r.from}–${r.to}`, id: 'joints', header: 'Joints', enableSorting: false },
-      { accessorKey: 'length', header: 'Length (m)', meta: { align: 'right' }, cell: (c) => (c.getValue() as number).toFixed(3) },
+      { accessorKey: 'length', header: 'Length, m', meta: { align: 'right' }, cell: (c) => (c.getValue() as number).toFixed(3) },
     ];
     if (!envelope) {
       return withU([
         ...base,
-        { accessorKey: 'force', header: `Force (${unit})`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
+        { accessorKey: 'force', header: `Force, ${unit}`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
         { id: 'sense', header: 'T / C', accessorFn: (r) => forceSense(r.force), cell: (c) => <Sense kN={c.row.original.force} />, meta: { align: 'right' } },
       ]);
     }
     return withU([
       ...base,
-      { id: 'maxT', accessorFn: (r) => r.envelope?.maxTension ?? 0, header: `Max tension (${unit})`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
+      { id: 'maxT', accessorFn: (r) => r.envelope?.maxTension ?? 0, header: `Max tension, ${unit}`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
       { id: 'maxTBy', accessorFn: (r) => r.envelope?.maxTensionCombo ?? '—', header: 'from', cell: (c) => <span className="text-ink-soft">{c.getValue()}</span> },
-      { id: 'maxC', accessorFn: (r) => r.envelope?.maxCompression ?? 0, header: `Max compression (${unit})`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
+      { id: 'maxC', accessorFn: (r) => r.envelope?.maxCompression ?? 0, header: `Max compression, ${unit}`, meta: { align: 'right' }, cell: (c) => forceDigits(c.getValue(), unitSystem) },
       { id: 'maxCBy', accessorFn: (r) => r.envelope?.maxCompressionCombo ?? '—', header: 'from', cell: (c) => <span className="text-ink-soft">{c.getValue()}</span> },
-      { accessorKey: 'force', header: `Governing (${unit})`, meta: { align: 'right' }, cell: (c) => <span className="font-medium">{forceDigits(c.getValue(), unitSystem)}</span> },
+      { accessorKey: 'force', header: `Governing, ${unit}`, meta: { align: 'right' }, cell: (c) => <span className="font-medium">{forceDigits(c.getValue(), unitSystem)}</span> },
       { id: 'sense', header: 'T / C', accessorFn: (r) => forceSense(r.force), cell: (c) => <Sense kN={c.row.original.force} />, meta: { align: 'right' } },
       { id: 'governing', accessorFn: (r) => r.envelope?.governing ?? '—', header: 'Governed by' },
     ]);

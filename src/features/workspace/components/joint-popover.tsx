@@ -18,7 +18,7 @@ interface JointPopoverProps {
 }
 
 const POPOVER_WIDTH = 272;
-const INPUT = 'h-8 w-full rounded border border-paper-line bg-paper-raised px-2 text-sm focus:border-accent focus:outline-none';
+const INPUT = 'h-8 w-full rounded-xs border border-paper-line bg-paper-raised px-2 text-sm focus:border-accent focus:outline-none';
 
 /** Click on a joint: put a pin or a roller on it, or a joint load of a case. */
 export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPopoverProps) {
@@ -65,7 +65,7 @@ export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPo
       ref={ref}
       role="dialog"
       aria-label={`Joint ${joint.tag}`}
-      className="absolute z-10 rounded-lg border border-paper-line bg-paper-raised p-3 text-sm shadow-lg"
+      className="absolute z-10 rounded-xs border border-paper-line bg-paper-raised p-3 text-sm outline outline-1 outline-ink-soft"
       style={{ left, top, width: POPOVER_WIDTH }}
     >
       <div className="mb-2 flex items-baseline justify-between gap-2">
@@ -81,7 +81,7 @@ export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPo
       </div>
 
       <fieldset disabled={!mayEdit} className="mb-3">
-        <legend className="mb-1 text-[11px] font-semibold tracking-wide text-ink-soft uppercase">Support</legend>
+        <legend className="mb-1 text-[11px] font-semibold text-ink-soft">Support</legend>
         <div className="flex gap-1" role="radiogroup" aria-label="Support">
           {(['none', 'pin', 'roller'] as const).map((kind) => {
             const active = (support?.kind ?? 'none') === kind;
@@ -94,7 +94,7 @@ export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPo
                 onClick={() =>
                   actions.setSupport(joint.id, kind === 'none' ? null : kind === 'pin' ? { joint: joint.id, kind: 'pin' } : { joint: joint.id, kind: 'roller', angleDeg: 90 })
                 }
-                className={`h-8 flex-1 rounded border text-xs font-medium ${active ? 'border-accent bg-accent-soft text-accent' : 'border-paper-line text-ink-soft hover:bg-paper-sunk'}`}
+                className={`h-8 flex-1 rounded-xs border text-xs font-medium ${active ? 'border-accent bg-accent-soft text-accent' : 'border-paper-line text-ink-soft hover:bg-paper-sunk'}`}
               >
                 {kind === 'none' ? 'None' : kind === 'pin' ? 'Pin' : 'Roller'}
               </button>
@@ -103,29 +103,29 @@ export function JointPopover({ form, joint, at, box, mayEdit, onClose }: JointPo
         </div>
         {support?.kind === 'roller' && (
           <label className="mt-2 flex items-center gap-2 text-xs text-ink-soft">
-            Reaction line at
+            Roller pushes at
             <input
               type="number"
               step="any"
               className={`${INPUT} w-20 text-right`}
-              aria-label="Angle of the reaction line, degrees from +x"
+              aria-label="Angle of the roller's reaction, degrees from horizontal"
               defaultValue={support.angleDeg ?? 90}
               onChange={(e) => {
                 const v = Number(e.target.value);
                 if (e.target.value !== '' && Number.isFinite(v)) actions.setSupport(joint.id, { joint: joint.id, kind: 'roller', angleDeg: v });
               }}
             />
-            ° from +x (90° vertical)
+            ° from horizontal, anticlockwise (90° is straight up)
           </label>
         )}
       </fieldset>
 
       <div>
-        <p className="mb-1 text-[11px] font-semibold tracking-wide text-ink-soft uppercase">Joint loads</p>
+        <p className="mb-1 text-[11px] font-semibold text-ink-soft">Joint loads</p>
         {here.length === 0 ? (
           <p className="mb-2 text-xs text-ink-faint">None at this joint.</p>
         ) : (
-          <ul className="mb-2 divide-y divide-paper-line rounded border border-paper-line">
+          <ul className="mb-2 divide-y divide-paper-line rounded-xs border border-paper-line">
             {here.map(({ l, index }) => (
               <li key={index} className="figures flex items-center justify-between gap-2 px-2 py-1 text-xs">
                 <span className="font-medium text-ink">{l.caseId}</span>

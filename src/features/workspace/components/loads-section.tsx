@@ -12,7 +12,7 @@ interface LoadsSectionProps {
   form: DraftForm;
   joints: readonly Joint[];
   mayEdit: boolean;
-  /** "Detach and edit by hand" for a case whose loads come from the roof takeoff; absent for readers. */
+  /** "Detach and edit by hand" for a case whose loads come from the roof loading; absent for readers. */
   onDetach?: (caseId: string) => void;
   /** Why detaching cannot happen now (unsaved edits, a save under way), or null. */
   detachBlocked?: string | null;
@@ -33,7 +33,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
   const [caseFilter, setCaseFilter] = useState('');
   const errors = form.formState.errors;
   const tags = new Map(joints.map((j) => [j.id, j.tag]));
-  // Cases the roof takeoff wrote: their loads are shown read-only until detached (what is shown is what a run solves).
+  // Cases the roof loading wrote: their loads are shown read-only until detached (what is shown is what a run solves).
   const fromTakeoff = new Set(cases.filter((c) => c.source === 'roof-loading').map((c) => c.id));
   const [confirming, setConfirming] = useState<string | null>(null);
 
@@ -63,9 +63,9 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
         <h3 id="load-cases-title" className="mb-2 text-sm font-semibold text-ink">
           Load cases
         </h3>
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Id</th>
               <th className={TH}>Name</th>
               <th className={TH}>Category</th>
@@ -79,7 +79,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
             {caseArray.fields.length === 0 && (
               <tr>
                 <td colSpan={5} className="px-2 py-4 text-center text-sm text-ink-soft">
-                  No load cases yet. Add one below, or let the roof takeoff add its cases.
+                  No load cases yet. Add one below, or let the roof loading add its cases.
                 </td>
               </tr>
             )}
@@ -107,7 +107,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
                     {count}
                     {c && fromTakeoff.has(c.id) && (
                       <span className="ml-2 text-[11px] text-accent">
-                        from the roof takeoff
+                        from the roof loading
                         {mayEdit && onDetach && (
                           <button
                             type="button"
@@ -129,9 +129,9 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
           </tbody>
         </table>
         {confirming && fromTakeoff.has(confirming) && onDetach && (
-          <div role="alertdialog" aria-label={`Detach the loads of case ${confirming}`} className="mt-2 rounded-md border border-compression/40 bg-compression/5 px-3 py-2 text-sm">
+          <div role="alertdialog" aria-label={`Detach the loads of case ${confirming}`} className="mt-2 rounded-xs border border-compression/40 bg-compression/5 px-3 py-2 text-sm">
             <p className="text-ink">
-              The roof takeoff will no longer update the loads of case {confirming}: they stay as they are now and become loads you edit by hand. Detach them?
+              The roof loading will no longer update the loads of case {confirming}: they stay as they are now and become loads you edit by hand. Detach them?
             </p>
             <div className="mt-2 flex gap-2">
               <Button
@@ -183,7 +183,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
         </div>
 
         {mayEdit && selected.size > 0 && (
-          <div className="mb-2 flex flex-wrap items-center gap-2 rounded-md border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs text-ink">
+          <div className="mb-2 flex flex-wrap items-center gap-2 rounded-xs border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs text-ink">
             <span className="font-medium">{selected.size} selected</span>
             <label className="flex items-center gap-1">
               Fy
@@ -214,9 +214,9 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
           </div>
         )}
 
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={`${TH} w-8`}>
                 {mayEdit && (
                   <input
@@ -230,8 +230,8 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
               </th>
               <th className={TH}>Case</th>
               <th className={TH}>Joint</th>
-              <th className={TH_RIGHT}>Fx (kN)</th>
-              <th className={TH_RIGHT}>Fy (kN)</th>
+              <th className={TH_RIGHT}>Fx, kN</th>
+              <th className={TH_RIGHT}>Fy, kN</th>
               <th className={TH}>Note</th>
               <th className={TH}>
                 <span className="sr-only">Remove</span>
@@ -242,7 +242,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
             {visible.length === 0 && (
               <tr>
                 <td colSpan={7} className="px-2 py-4 text-center text-sm text-ink-soft">
-                  No joint loads{caseFilter ? ' in this case' : ''}. Click a joint on the drawing, add a row, or use the roof takeoff.
+                  No joint loads{caseFilter ? ' in this case' : ''}. Click a joint on the drawing, add a row, or use the roof loading.
                 </td>
               </tr>
             )}
@@ -250,14 +250,14 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
               const l = loads[i];
               if (l && fromTakeoff.has(l.caseId)) {
                 return (
-                  <tr key={f.id} className="border-b border-paper-line/70 align-top text-ink-soft" aria-label={`Load ${i + 1}: from the roof takeoff`}>
+                  <tr key={f.id} className="border-b border-paper-line/70 align-top text-ink-soft" aria-label={`Load ${i + 1}: from the roof loading`}>
                     <td className="px-2 py-2" />
                     <td className="px-2 py-2">{l.caseId}</td>
                     <td className="px-2 py-2">{tags.get(l.joint) ?? l.joint}</td>
                     <td className="figures px-2 py-2 text-right">{Number(l.fx).toFixed(3)}</td>
                     <td className="figures px-2 py-2 text-right">{Number(l.fy).toFixed(3)}</td>
                     <td className="px-2 py-2 text-[11px] text-accent" colSpan={2}>
-                      from the roof takeoff
+                      from the roof loading
                     </td>
                   </tr>
                 );
@@ -327,7 +327,7 @@ export function LoadsSection({ form, joints, mayEdit, onDetach, detachBlocked = 
         )}
         {fromTakeoff.size > 0 && (
           <p className="mt-2 text-xs text-ink-soft">
-            Loads marked “from the roof takeoff” are the takeoff’s and read-only: change the takeoff and use its loads again, or detach a case to edit its loads by hand. A run solves the loads shown here.
+            Loads marked “from the roof loading” are the roof loading’s and read-only: change the roof loading and use its loads again, or detach a case to edit its loads by hand. A run solves the loads shown here.
           </p>
         )}
       </section>

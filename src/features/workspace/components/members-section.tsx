@@ -67,7 +67,7 @@ export function MembersSection({ form, joints, members, mayEdit, selected, onSel
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center gap-2 text-xs text-ink-soft">
-        <span className="font-semibold tracking-wide uppercase">Select</span>
+        <span className="font-semibold">Select</span>
         <Button size="sm" variant="quiet" onClick={() => selectGroup('all')}>
           All
         </Button>
@@ -94,7 +94,7 @@ export function MembersSection({ form, joints, members, mayEdit, selected, onSel
       </div>
 
       {mayEdit && selected.size > 0 && (
-        <div className="grid grid-cols-2 items-end gap-2 rounded-md border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs sm:grid-cols-7">
+        <div className="grid grid-cols-2 items-end gap-2 rounded-xs border border-accent/30 bg-accent-soft/50 px-3 py-2 text-xs sm:grid-cols-7">
           <span className="col-span-2 font-medium text-ink sm:col-span-7">
             {selected.size} member{selected.size === 1 ? '' : 's'} selected — set what you fill in:
           </span>
@@ -118,18 +118,18 @@ export function MembersSection({ form, joints, members, mayEdit, selected, onSel
       )}
 
       <div className="overflow-x-auto">
-        <table className="w-full border-collapse text-[13px]">
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={`${TH} w-8`}>
                 <span className="sr-only">Selected</span>
               </th>
               <th className={TH}>Member</th>
-              <th className={TH_RIGHT}>Length (m)</th>
+              <th className={TH_RIGHT}>Length, m</th>
               <th className={TH}>Group</th>
-              <th className={TH_RIGHT}>E (GPa)</th>
+              <th className={TH_RIGHT}>E, GPa</th>
               <th className={TH_RIGHT}>A (mm²)</th>
-              <th className={TH_RIGHT}>EA (kN)</th>
+              <th className={TH_RIGHT}>EA, kN</th>
               <th className={TH}>Material</th>
               <th className={TH}>Section</th>
             </tr>

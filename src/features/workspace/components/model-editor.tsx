@@ -43,7 +43,7 @@ const SECTIONS: { id: Section; label: string }[] = [
   { id: 'loads', label: 'Load cases & loads' },
   { id: 'combinations', label: 'Combinations' },
   { id: 'members', label: 'Members' },
-  { id: 'takeoff', label: 'Roof takeoff' },
+  { id: 'takeoff', label: 'Roof loading' },
 ];
 
 const GROUP_LOOK: Record<MemberGroup, MemberLook> = {
@@ -216,7 +216,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           }
         : { onJointClick: (joint: Joint, at: { x: number; y: number }) => setPopover({ joint, at }) };
 
-  /** Marks (or, with null, unmarks) the draft's cases as holding the roof takeoff's loads. */
+  /** Marks (or, with null, unmarks) the draft's cases as holding the roof loading's loads. */
   const markCases = (ids: ReadonlySet<string> | null) => {
     const cases = form.getValues('loadCases') ?? [];
     cases.forEach((c, i) => {
@@ -291,7 +291,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
       </div>
 
       {conflict && (
-        <div role="alert" className="rounded-md border border-compression/40 bg-compression/5 px-4 py-3 text-sm">
+        <div role="alert" className="rounded-xs border border-compression/40 bg-compression/5 px-4 py-3 text-sm">
           <p className="font-semibold text-ink">Not saved: someone else saved this model while you were editing.</p>
           <p className="mt-1 text-ink-soft">
             {conflict.theirs
@@ -321,12 +321,12 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
         </div>
       )}
       {saveError && (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-3 py-2 text-sm text-danger">
+        <p role="alert" className="rounded-xs border border-danger/30 bg-danger/5 px-3 py-2 text-sm text-danger">
           {saveError}
         </p>
       )}
       {Object.keys(form.formState.errors).length > 0 && (
-        <p role="alert" className="rounded-md border border-danger/30 bg-danger/5 px-3 py-2 text-sm text-danger">
+        <p role="alert" className="rounded-xs border border-danger/30 bg-danger/5 px-3 py-2 text-sm text-danger">
           Some entries need fixing before the model can be saved: they are marked in {SECTIONS.filter((s) => sectionHasErrors(s.id, form.formState.errors)).map((s) => s.label).join(', ') || 'the tables'}.
         </p>
       )}
@@ -337,7 +337,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           section !== 'members' && section !== 'takeoff' && draftCases.length > 0 ? (
             <label className="flex items-center gap-2 text-xs text-ink-soft">
               Loads shown
-              <select className="h-7 rounded border border-paper-line bg-paper-raised px-2 text-xs" value={caseShown} onChange={(e) => setShownCase(e.target.value)}>
+              <select className="h-7 rounded-xs border border-paper-line bg-paper-raised px-2 text-xs" value={caseShown} onChange={(e) => setShownCase(e.target.value)}>
                 {draftCases.map((c) => (
                   <option key={c.id} value={c.id}>
                     {c.id} — {c.name}
@@ -371,7 +371,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
         />
       </Panel>
 
-      <div role="tablist" aria-label="Model parts" className="flex flex-wrap gap-1">
+      <div role="tablist" aria-label="Model parts" className="inline-flex flex-wrap divide-x divide-paper-rule border border-paper-rule bg-paper-raised">
         {SECTIONS.map((s) => (
           <button
             key={s.id}
@@ -382,9 +382,10 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               setSection(s.id);
               setPopover(null);
             }}
-            className={`rounded-md border px-3 py-1.5 text-sm font-medium ${
-              section === s.id ? 'border-accent bg-accent-soft text-accent' : 'border-paper-line bg-paper-raised text-ink-soft hover:text-ink'
-            } ${sectionHasErrors(s.id, form.formState.errors) ? 'ring-1 ring-danger' : ''}`}
+            // A ruled strip of the model's parts: the open one on the pad ground with the accent line along its foot.
+            className={`relative px-3 py-1.5 text-sm ${
+              section === s.id ? 'bg-accent-soft font-semibold text-ink after:absolute after:inset-x-0 after:bottom-0 after:h-[3px] after:bg-accent' : 'text-ink-soft hover:bg-paper-sunk hover:text-ink'
+            } ${sectionHasErrors(s.id, form.formState.errors) ? 'text-danger underline decoration-danger decoration-double underline-offset-4' : ''}`}
           >
             {s.label}
           </button>
@@ -400,7 +401,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               joints={joints}
               mayEdit={mayEdit}
               onDetach={(id) => void detachCase(id)}
-              detachBlocked={hasEdits ? 'Save or discard your changes before detaching loads from the roof takeoff.' : save.isPending || detach.isPending ? 'Saving…' : null}
+              detachBlocked={hasEdits ? 'Save or discard your changes before detaching loads from the roof loading.' : save.isPending || detach.isPending ? 'Saving…' : null}
             />
           )}
           {section === 'combinations' && <CombinationsSection form={form} mayEdit={mayEdit} />}
@@ -409,11 +410,11 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
           )}
         </fieldset>
         {section === 'takeoff' && pendingUse && (
-          <div role="alertdialog" aria-label="Use the roof takeoff's loads" className="mb-4 rounded-md border border-accent/40 bg-accent-soft/40 px-4 py-3 text-sm">
+          <div role="alertdialog" aria-label="Use the roof loading's loads" className="mb-4 rounded-xs border border-accent/40 bg-accent-soft/40 px-4 py-3 text-sm">
             <p className="font-semibold text-ink">Use these loads? This saves the model with these changes:</p>
-            <table className="mt-2 border-collapse text-[13px]" aria-label="What using the takeoff's loads changes">
+            <table className="mt-2 border-collapse text-[13px]" aria-label="What using the roof loading's loads changes">
               <thead>
-                <tr className="border-b border-paper-line text-left text-xs text-ink-soft">
+                <tr className="border-y border-ink-soft text-left text-xs text-ink-soft">
                   <th className="py-1 pr-4">Load case</th>
                   <th className="py-1 pr-4">Change</th>
                   <th className="py-1 pr-4 text-right">Loads now</th>
@@ -436,7 +437,7 @@ function ModelEditor({ trussId, view, mayEdit }: { trussId: number; view: TrussM
               </tbody>
             </table>
             <p className="mt-2 text-xs text-ink-soft">
-              These cases are then marked “from the roof takeoff” and read-only in the loads table; any other unsaved edits are saved with them.
+              These cases are then marked “from the roof loading” and read-only in the loads table; any other unsaved edits are saved with them.
             </p>
             <div className="mt-2 flex gap-2">
               <Button size="sm" variant="primary" busy={save.isPending} onClick={confirmUse}>

@@ -23,7 +23,7 @@ export function ReactionEnvelopeTable({ rows, over, unitSystem }: { rows: Reacti
       <h3 className="mb-2 text-sm font-semibold text-ink">Reactions for bearing design</h3>
       <table aria-label="Reaction envelope" className="w-full border-collapse text-[13px]">
         <thead>
-          <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+          <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
             <th className={TH}>Joint</th>
             <th className={TH}>Component</th>
             <th className={TH_NUM}>Max ({unit})</th>

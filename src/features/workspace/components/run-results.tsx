@@ -1,12 +1,12 @@
-import { useMemo, useState, type ReactNode } from 'react';
+import { useMemo, useState } from 'react';
 import { caseSteps, reactionEnvelopeOf, type SolverStep, type TrussAnalysis } from '@shared/solver';
 import type { RunView } from '@shared/schemas/run.schema';
-import type { UnitSystemId } from '@shared/units';
+import { readableFormat, type UnitSystemId } from '@shared/units';
 import { Panel } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { formatDateTime } from '@/lib/format';
 import { useRun } from '../api/get-run';
-import { forceSense, forceStroke, forceText, forceDigits, senseMark } from '../utils/force-format';
+import { FORCE_COLOURS, forceSense, forceStroke, forceText, forceDigits, senseMark } from '../utils/force-format';
 import {
   forceRows,
   forceRowsFilter,
@@ -26,19 +26,12 @@ import { SheetPdfJob } from './sheet-pdf-job';
 import { SolverSteps } from './solver-steps';
 import { TrussSvg, type JointArrow } from './truss-svg';
 
-const LINK = 'inline-flex h-8 items-center rounded-md border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
-const SELECT = 'h-8 rounded border border-paper-line bg-paper-raised px-2 text-[13px]';
+const LINK = 'inline-flex h-8 items-center rounded-xs border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
+const SELECT = 'h-8 rounded-xs border border-paper-line bg-paper-raised px-2 text-[13px]';
 
-/** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000. */
-function smallKn(v: number): ReactNode {
-  if (v === 0) return '0 kN';
-  if (Math.abs(v) >= 0.001) return `${v.toFixed(4)} kN`;
-  const [m, e] = v.toExponential(1).split('e');
-  return (
-    <>
-      {m} × 10<sup>{Number(e).toString().replace('-', '\u2212')}</sup> kN
-    </>
-  );
+/** A small number written so it can be read: 3.6 × 10⁻¹⁵ kN rather than 0.000 or 3.6e-15. */
+function smallKn(v: number): string {
+  return `${readableFormat(v, 4, 2)}\u202fkN`;
 }
 
 /** One run: its status, the classification, and for a solved run the forces, diagram and steps. */
@@ -57,10 +50,10 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
           </h2>
           <p className="text-xs text-ink-soft">
             Model save <span className="figures">{r.modelVersion}</span> · run by {r.ranBy} · {formatDateTime(r.createdAt)}
-            {r.usedTakeoff && ' · loads from the roof takeoff'}
+            {r.usedTakeoff && ' · loads from the roof loading'}
           </p>
           {r.stale && (
-            <p className="mt-1 text-xs font-medium text-compression">Stale: the model changed after this run. Run the analysis again before using these results.</p>
+            <p className="mt-1 text-xs font-medium text-compression">Out of date: the model changed after this run. Run the analysis again before using these results.</p>
           )}
         </div>
         {r.analysis && (
@@ -92,7 +85,7 @@ export function RunResults({ runId, unitSystem, mayRun = false }: { runId: numbe
         </Panel>
       )}
       {r.status === 'failed' && (
-        <div role="alert" className="rounded-md border border-danger/30 bg-paper-raised px-5 py-4">
+        <div role="alert" className="rounded-xs border border-danger/30 bg-paper-raised px-5 py-4">
           <p className="text-sm font-semibold text-danger">The run failed</p>
           <p className="mt-1 text-sm text-ink-soft">{r.error?.message ?? 'The solver stopped without saying why.'}</p>
         </div>
@@ -185,7 +178,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
           <p
             role={cls.conditioning.nearMechanism ? 'alert' : undefined}
             data-testid="conditioning"
-            className={`mt-1 text-sm ${cls.conditioning.nearMechanism ? 'rounded-md border border-danger/30 bg-paper-raised px-3 py-2 font-medium text-danger' : 'text-ink-soft'}`}
+            className={`mt-1 text-sm ${cls.conditioning.nearMechanism ? 'rounded-xs border border-danger/30 bg-paper-raised px-3 py-2 font-medium text-danger' : 'text-ink-soft'}`}
           >
             {cls.conditioning.message}
           </p>
@@ -232,7 +225,7 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
 
           <Panel title="Force diagram">
             <TrussSvg
-              label="Force diagram: tension teal solid, compression amber dashed, zero-force grey dotted"
+              label="Force diagram: tension a thin line, compression a heavy line, zero force a faint dashed line"
               height={420}
               joints={model.joints}
               members={model.members}
@@ -265,13 +258,13 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
               {result?.reactions && (
                 <div>
                   <h3 className="mb-2 text-sm font-semibold text-ink">Reactions</h3>
-                  <table className="w-full border-collapse text-[13px]">
+                  <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
                     <thead>
-                      <tr className="border-b border-paper-line text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+                      <tr className="border-y border-ink-soft text-[12px] font-semibold text-ink-soft">
                         <th className="px-2 py-1.5 text-left">Joint</th>
                         <th className="px-2 py-1.5 text-left">Support</th>
-                        <th className="px-2 py-1.5 text-right">Rx ({forceText(0, unitSystem).split('\u202f')[1]})</th>
-                        <th className="px-2 py-1.5 text-right">Ry ({forceText(0, unitSystem).split('\u202f')[1]})</th>
+                        <th className="px-2 py-1.5 text-right">Rx, {forceText(0, unitSystem).split('\u202f')[1]}</th>
+                        <th className="px-2 py-1.5 text-right">Ry, {forceText(0, unitSystem).split('\u202f')[1]}</th>
                       </tr>
                     </thead>
                     <tbody className="figures">
@@ -300,15 +293,15 @@ function Analysis({ run, analysis, unitSystem }: { run: RunView; analysis: Truss
                 <div>
                   <h3 className="mb-2 text-sm font-semibold text-ink">Zero-force members</h3>
                   {caseResult.zeroForce.length === 0 ? (
-                    <p className="text-sm text-ink-soft">None found by the two joint rules in this case.</p>
+                    <p className="text-sm text-ink-soft">No member is seen to carry zero force at an unloaded joint in this case.</p>
                   ) : (
                     <ul className="flex flex-col gap-1 text-sm">
                       {caseResult.zeroForce.map((z) => (
                         <li key={z.id} className="cursor-pointer hover:text-accent" onMouseEnter={() => setHoverJoints([z.joint])} onMouseLeave={() => setHoverJoints(null)} onClick={() => setActiveStep(z)}>
                           <strong>{z.memberTag}</strong>{' '}
                           <span className="text-ink-soft">
-                            — at joint {z.jointTag}, {z.rule === 1 ? 'rule 1: two non-collinear members, no load, no support' : `rule 2: ${z.collinear?.map((id) => memberTags.get(id) ?? id).join(' and ')} are collinear, no load, no support`}
-                            {z.pass > 1 ? ` (found on pass ${z.pass}, once earlier zero-force members were set aside)` : ''}
+                            — at joint {z.jointTag}, {z.rule === 1 ? 'two members not in line meet there, with no load and no support' : `${z.collinear?.map((id) => memberTags.get(id) ?? id).join(' and ')} are in line there and nothing else loads or holds the joint`}
+                            {z.pass > 1 ? ' (found once the zero-force members above are set aside)' : ''}
                           </span>
                         </li>
                       ))}
@@ -380,23 +373,23 @@ function Legend() {
     <div className="mt-2 flex flex-wrap items-center gap-5 text-xs text-ink-soft" aria-hidden>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#1b8a82" strokeWidth="3" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS.T} strokeWidth="2" />
         </svg>
-        tension (T)
+        tension (T), thin line
       </span>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#c47f12" strokeWidth="3" strokeDasharray="8 4" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS.C} strokeWidth="5" />
         </svg>
-        compression (C)
+        compression (C), heavy line
       </span>
       <span className="flex items-center gap-2">
         <svg width="34" height="8">
-          <line x1="1" y1="4" x2="33" y2="4" stroke="#8a8d90" strokeWidth="1.25" strokeDasharray="1.5 3.5" strokeLinecap="round" />
+          <line x1="1" y1="4" x2="33" y2="4" stroke={FORCE_COLOURS['0']} strokeWidth="1.25" strokeDasharray="6 4" />
         </svg>
-        zero force
+        zero force, dashed
       </span>
-      <span>Line width grows with the force. Teal arrows: reactions.</span>
+      <span>Each member carries its force written beside it. Loads: filled arrow heads; reactions: open heads.</span>
     </div>
   );
 }

@@ -8,7 +8,7 @@ export function RunStatusBadge({ run }: { run: Pick<RunSummaryView, 'status' | '
     return (
       <span className="inline-flex items-center gap-2" role="status">
         <span className="text-xs font-medium text-ink-soft">{run.status === 'queued' ? 'Queued' : `Solving ${pct} %`}</span>
-        <span className="h-1.5 w-16 overflow-hidden rounded-full bg-paper-sunk" aria-hidden>
+        <span className="h-1.5 w-16 overflow-hidden border border-paper-rule bg-paper-raised" aria-hidden>
           <span className="block h-full bg-accent transition-all" style={{ width: `${Math.max(4, pct)}%` }} />
         </span>
       </span>

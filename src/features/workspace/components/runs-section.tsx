@@ -79,9 +79,9 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
           <p className="py-4 text-sm text-ink-soft">No runs yet.{mayRun ? ' Put supports and loads on the model, save it, then run the analysis.' : ''}</p>
         ) : (
           <div className="max-h-72 overflow-y-auto">
-            <table className="w-full border-collapse text-[13px]">
+            <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
               <thead className="sticky top-0 bg-paper-raised">
-                <tr className="border-b border-paper-line">
+                <tr className="border-y border-ink-soft">
                   <th className={TH}>Run</th>
                   <th className={TH}>Status</th>
                   <th className={TH}>Truss</th>
@@ -107,14 +107,14 @@ export function RunsWorkspace({ trussId, mayRun, unitSystem }: { trussId: number
                         {r.classification
                           ? `${KIND_WORDS[r.classification.kind]}${r.classification.kind === 'indeterminate' ? ` (degree ${r.classification.degree})` : ''}`
                           : r.error
-                            ? r.error.code
+                            ? <span className="block max-w-xs truncate" title={r.error.message}>{r.error.message}</span>
                             : '—'}
                       </td>
                       <td className="figures px-2 py-1.5 text-right whitespace-nowrap">
                         {r.modelVersion}
                         {r.stale && (
                           <span className="ml-2 text-[11px] font-medium text-compression" title="The model has been saved since this run: its results no longer match the model.">
-                            stale: the model changed after this run
+                            out of date: the model changed after this run
                           </span>
                         )}
                       </td>

@@ -2,7 +2,7 @@ import { printJobFinished } from '@shared/schemas/print-job.schema';
 import { Button } from '@/components/ui/button';
 import { useRequestSheetJob, useRunSheetJobs } from '../api/sheet-jobs';
 
-const LINK = 'inline-flex h-8 items-center rounded-md border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
+const LINK = 'inline-flex h-8 items-center rounded-xs border border-paper-line bg-paper-raised px-3 text-xs font-medium text-ink hover:bg-paper-sunk';
 
 /**
  * The run's calc sheet PDF, made in the background: a button that asks for it, then one line of

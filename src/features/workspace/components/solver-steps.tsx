@@ -35,7 +35,7 @@ const KIND_LABEL: Partial<Record<SolverStep['kind'], string>> = {
  */
 function JointFbd({ step, unitSystem }: { step: Extract<SolverStep, { kind: 'joint' }>; unitSystem: UnitSystemId }) {
   const svg = useMemo(() => jointFbdSvg(step, { formatForce: (kN) => forceText(kN, unitSystem), zeroTolerance: FORCE_ZERO_KN }), [step, unitSystem]);
-  return <figure className="m-0 self-start rounded border border-paper-line bg-white [&>svg]:block [&>svg]:h-auto [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: svg }} />;
+  return <figure className="m-0 self-start rounded-xs border border-paper-line bg-paper-raised [&>svg]:block [&>svg]:h-auto [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: svg }} />;
 }
 
 /**
@@ -61,7 +61,7 @@ export function SolverSteps({ steps, activeStep, onActivate, onHover, unitSystem
             key={step.id}
             data-step={step.id}
             id={`step-${step.id}`}
-            className={`rounded-md border px-3 py-2 transition-colors ${active ? 'border-accent bg-accent-soft/40' : 'border-paper-line bg-paper-raised'} ${joints.length ? 'cursor-pointer hover:border-accent/50' : ''}`}
+            className={`rounded-xs border px-3 py-2 transition-colors ${active ? 'border-accent bg-accent-soft/40' : 'border-paper-line bg-paper-raised'} ${joints.length ? 'cursor-pointer hover:border-accent/50' : ''}`}
             onMouseEnter={() => joints.length && onHover(joints)}
             onMouseLeave={() => onHover(null)}
             onClick={() => joints.length && onActivate(step)}

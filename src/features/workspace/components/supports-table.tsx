@@ -6,9 +6,9 @@ import type { DraftForm } from './draft-actions';
 import { RemoveCell } from './remove-cell';
 
 export const CELL_INPUT =
-  'h-8 w-full rounded border bg-paper-raised px-2 text-[13px] focus:border-accent focus:outline-none disabled:bg-transparent disabled:border-transparent disabled:appearance-none';
+  'h-8 w-full rounded-xs border bg-paper-raised px-2 text-[13px] focus:border-accent focus:outline-none disabled:bg-transparent disabled:border-transparent disabled:appearance-none';
 const border = (error?: string) => (error ? 'border-danger' : 'border-paper-line');
-export const TH = 'px-2 py-1.5 text-left text-[11px] font-semibold tracking-wide text-ink-soft uppercase whitespace-nowrap';
+export const TH = 'px-2 pt-2 pb-1.5 align-bottom text-left text-[12px] leading-4 font-semibold text-ink-soft whitespace-nowrap';
 export const TH_RIGHT = `${TH} text-right`;
 
 /** Every support as a row: the joint, pin or roller, and the roller's reaction-line angle. */
@@ -20,12 +20,12 @@ export function SupportsTable({ form, joints, mayEdit }: { form: DraftForm; join
 
   return (
     <div>
-      <table className="w-full border-collapse text-[13px]">
+      <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
         <thead>
-          <tr className="border-b border-paper-line">
+          <tr className="border-y border-ink-soft">
             <th className={TH}>Joint</th>
             <th className={TH}>Support</th>
-            <th className={TH_RIGHT}>Reaction line (° from +x)</th>
+            <th className={TH_RIGHT}>Roller pushes at, ° from horizontal</th>
             <th className={TH}>
               <span className="sr-only">Remove</span>
             </th>

@@ -16,7 +16,7 @@ const ordinal = (n: number) => `${n}${n % 10 === 1 && n % 100 !== 11 ? 'st' : n 
 export function TakeoffPreview({ result, caseNames, loadLetter }: { result: RoofTakeoffResult; caseNames: ReadonlyMap<string, string>; loadLetter: string }) {
   const equalSpans = result.spans.every((s) => Math.abs(s - result.spans[0]!) < 1e-9);
   return (
-    <div className="flex flex-col gap-4" aria-label="Takeoff preview">
+    <div className="flex flex-col gap-4" aria-label="Roof loading preview">
       <p className="figures text-sm text-ink">
         Truss {result.trussIndex + 1} of {result.trussCount} ({ordinal(result.trussIndex + 1)} from the end, {result.trussPosition}) · purlin spans{' '}
         {equalSpans ? `${result.spans.length} × ${f(result.spans[0]!, 3)} m` : result.spans.map((s) => f(s, 3)).join(', ') + ' m'} · reaction on this truss per 1 kN/m of purlin load:{' '}
@@ -26,11 +26,11 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
       <table className="w-full max-w-xl border-collapse text-[13px]">
         <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">Purlins and tributary widths</caption>
         <thead>
-          <tr className="border-b border-paper-line">
+          <tr className="border-y border-ink-soft">
             <th className={TH}>Purlin at</th>
-            <th className={TH_RIGHT}>x (m)</th>
-            <th className={TH_RIGHT}>Width along slope (m)</th>
-            <th className={TH_RIGHT}>Width on plan (m)</th>
+            <th className={TH_RIGHT}>x, m</th>
+            <th className={TH_RIGHT}>Width along slope, m</th>
+            <th className={TH_RIGHT}>Width on plan, m</th>
           </tr>
         </thead>
         <tbody className="figures">
@@ -46,7 +46,7 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
       </table>
 
       {result.cases.map((c) => (
-        <table key={c.caseId} className="w-full border-collapse text-[13px]" aria-label={`Takeoff of load case ${c.caseId}`}>
+        <table key={c.caseId} className="w-full border-collapse text-[13px]" aria-label={`Roof loading of load case ${c.caseId}`}>
           <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
             {c.caseId} — {caseNames.get(c.caseId) ?? 'new case'}: q = {f(c.q, 3)} kPa on the {c.basis === 'slope' ? 'sloped roof area' : 'horizontal projection'}
             {c.pattern && (
@@ -57,14 +57,14 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
             )}
           </caption>
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Purlin at</th>
-              <th className={TH_RIGHT}>Width b (m)</th>
-              <th className={TH_RIGHT}>w = q·b (kN/m)</th>
-              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, continuous (kN)</th>
-              <th className={`${TH_RIGHT} ${result.method === 'tributary' ? 'text-accent' : ''}`}>Reaction, tributary (kN)</th>
+              <th className={TH_RIGHT}>Width b, m</th>
+              <th className={TH_RIGHT}>w = q·b, kN/m</th>
+              <th className={`${TH_RIGHT} ${result.method === 'exact' ? 'text-accent' : ''}`}>Reaction, three-moment, kN</th>
+              <th className={`${TH_RIGHT} ${result.method === 'tributary' ? 'text-accent' : ''}`}>Reaction, tributary, kN</th>
               <th className={TH_RIGHT}>Difference</th>
-              <th className={TH_RIGHT}>Joint load Fy (kN)</th>
+              <th className={TH_RIGHT}>Joint load Fy, kN</th>
             </tr>
           </thead>
           <tbody className="figures">
@@ -86,20 +86,20 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
         </table>
       ))}
       {result.wind && (
-        <table className="w-full border-collapse text-[13px]" aria-label={`Wind on the roof, load case ${result.wind.caseId}`}>
+        <table className="w-full border-collapse border-b border-ink-soft text-[13px]" aria-label={`Wind on the roof, load case ${result.wind.caseId}`}>
           <caption className="mb-1 text-left text-xs font-semibold text-ink-soft">
             {result.wind.caseId} — {caseNames.get(result.wind.caseId) ?? 'new case'}: wind normal to the roof, q = {f(result.wind.q, 3)} kPa onto the{' '}
             {result.wind.windward} slope; coefficients windward {result.wind.cWindward === null ? '—' : f(result.wind.cWindward, 2)}, leeward{' '}
             {result.wind.cLeeward === null ? '—' : f(result.wind.cLeeward, 2)}
           </caption>
           <thead>
-            <tr className="border-b border-paper-line">
+            <tr className="border-y border-ink-soft">
               <th className={TH}>Purlin at</th>
-              <th className={TH_RIGHT}>x (m)</th>
-              <th className={TH_RIGHT}>wx (kN/m)</th>
-              <th className={TH_RIGHT}>wy (kN/m)</th>
-              <th className={TH_RIGHT}>Joint load Fx (kN)</th>
-              <th className={TH_RIGHT}>Joint load Fy (kN)</th>
+              <th className={TH_RIGHT}>x, m</th>
+              <th className={TH_RIGHT}>wx, kN/m</th>
+              <th className={TH_RIGHT}>wy, kN/m</th>
+              <th className={TH_RIGHT}>Joint load Fx, kN</th>
+              <th className={TH_RIGHT}>Joint load Fy, kN</th>
             </tr>
           </thead>
           <tbody className="figures">
@@ -117,11 +117,11 @@ export function TakeoffPreview({ result, caseNames, loadLetter }: { result: Roof
         </table>
       )}
       <p className="text-xs text-ink-faint">
-        Difference = (tributary − continuous) / continuous. The joint loads use the {result.method === 'exact' ? 'continuous-purlin' : 'tributary-length'} reactions, downward (Fy &lt; 0).
+        Difference = (tributary − three-moment) / three-moment. The joint loads use the {result.method === 'exact' ? 'three-moment (continuous purlin)' : 'tributary-length'} reactions, downward (Fy &lt; 0).
       </p>
 
-      <details className="rounded-md border border-paper-line bg-paper px-3 py-2">
-        <summary className="cursor-pointer text-sm font-medium text-ink">Every step of the takeoff ({result.steps.length})</summary>
+      <details className="rounded-xs border border-paper-line bg-paper px-3 py-2">
+        <summary className="cursor-pointer text-sm font-medium text-ink">Every step of the roof loading ({result.steps.length})</summary>
         <ol className="mt-2 flex flex-col gap-2">
           {result.steps.map((s) => (
             <li key={s.id}>

@@ -64,7 +64,7 @@ function useDebounced<T>(value: T, ms: number): T {
 }
 
 /**
- * The roof load takeoff as a guided form: area loads per case, purlins on the top-chord joints
+ * The roof loading as a guided form: area loads per case, purlins on the top-chord joints
  * (picked on the drawing above), truss spacing, count and which truss, and the method; the
  * server's preview shows every purlin's numbers, and "Use these loads" writes the cases.
  */
@@ -89,7 +89,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
   };
   const chooseCase = (i: number, value: string) => {
     const category = value.startsWith('new:') ? (value.slice(4) as LoadCategory) : categoryOf(value);
-    const id = value.startsWith('new:') ? actions.addCase(value.slice(4) as LoadCategory, `${CATEGORY_LABELS[value.slice(4) as LoadCategory]} (roof takeoff)`) : value;
+    const id = value.startsWith('new:') ? actions.addCase(value.slice(4) as LoadCategory, `${CATEGORY_LABELS[value.slice(4) as LoadCategory]} (roof loading)`) : value;
     takeoffForm.setValue(`areaLoads.${i}.caseId`, id, { shouldDirty: true });
     // Span patterns are for live, roof live and snow only: leave none ticked on another case.
     if (!category || !PATTERN_CATEGORIES.includes(category)) takeoffForm.setValue(`areaLoads.${i}.patterns`, false, { shouldDirty: true });
@@ -103,14 +103,14 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
       { shouldDirty: true },
     );
   const chooseWindCase = (value: string) => {
-    const id = value === 'new:wind' ? actions.addCase('wind', 'Wind (roof takeoff)') : value;
+    const id = value === 'new:wind' ? actions.addCase('wind', 'Wind (roof loading)') : value;
     takeoffForm.setValue('wind.caseId', id, { shouldDirty: true });
   };
 
   if (topChord.length < 2) {
     return (
-      <div className="rounded-md border border-dashed border-paper-line px-4 py-6 text-sm text-ink-soft">
-        The takeoff puts purlins on top-chord joints, and no members are grouped as top chord yet. Open <strong>Members</strong> and use
+      <div className="rounded-xs border border-dashed border-paper-line px-4 py-6 text-sm text-ink-soft">
+        The roof loading puts purlins on top-chord joints, and no members are grouped as top chord yet. Open <strong>Members</strong> and use
         “Suggest groups from the outline”, or select the top-chord members and set their group.
       </div>
     );
@@ -122,9 +122,9 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
         <div>
           <h3 className="mb-1 text-sm font-semibold text-ink">1. Area loads</h3>
           <p className="mb-2 text-xs text-ink-faint">Vertical, downward positive. Each writes the joint loads of one load case.</p>
-          <table className="w-full border-collapse text-[13px]">
+          <table className="w-full border-collapse border-b border-ink-soft text-[13px]">
             <thead>
-              <tr className="border-b border-paper-line">
+              <tr className="border-y border-ink-soft">
                 <th className={TH}>Load case</th>
                 <th className={TH_RIGHT}>q</th>
                 <th className={TH}>Unit</th>
@@ -227,9 +227,9 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
           </p>
           {wind && (
             <div className="grid grid-cols-1 gap-3 sm:grid-cols-6">
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-2">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft sm:col-span-2">
                 Wind load case
-                <select aria-label="Wind: load case" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} value={wind.caseId ?? ''} onChange={(e) => chooseWindCase(e.target.value)}>
+                <select aria-label="Wind: load case" className={`${CELL_INPUT} border-paper-line h-9 font-normal`} value={wind.caseId ?? ''} onChange={(e) => chooseWindCase(e.target.value)}>
                   <option value="">Choose…</option>
                   {windCases.map((c) => (
                     <option key={c.id} value={c.id}>
@@ -239,29 +239,29 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
                   <option value="new:wind">+ New wind case</option>
                 </select>
               </label>
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
                 q
                 <input type="number" step="any" aria-label="Wind: velocity pressure q" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.q', { valueAsNumber: true })} />
               </label>
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
                 Unit
-                <select aria-label="Wind: unit" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} {...takeoffForm.register('wind.unit')}>
+                <select aria-label="Wind: unit" className={`${CELL_INPUT} border-paper-line h-9 font-normal`} {...takeoffForm.register('wind.unit')}>
                   <option value="kPa">kPa</option>
                   <option value="psf">psf</option>
                 </select>
               </label>
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-2">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft sm:col-span-2">
                 Wind blows onto
-                <select aria-label="Wind: windward slope" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} {...takeoffForm.register('wind.windward')}>
+                <select aria-label="Wind: windward slope" className={`${CELL_INPUT} border-paper-line h-9 font-normal`} {...takeoffForm.register('wind.windward')}>
                   <option value="left">the slope left of the ridge</option>
                   <option value="right">the slope right of the ridge</option>
                 </select>
               </label>
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-3">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft sm:col-span-3">
                 Windward coefficient
                 <input type="number" step="any" aria-label="Wind: windward coefficient" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.cWindward', { valueAsNumber: true })} />
               </label>
-              <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase sm:col-span-3">
+              <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft sm:col-span-3">
                 Leeward coefficient
                 <input type="number" step="any" aria-label="Wind: leeward coefficient" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('wind.cLeeward', { valueAsNumber: true })} />
               </label>
@@ -288,24 +288,24 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
         <div>
           <h3 className="mb-2 text-sm font-semibold text-ink">3. Trusses the purlins run over</h3>
           <div className="grid grid-cols-1 gap-3 sm:grid-cols-4">
-            <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+            <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
               Spacing (m)
               <input
                 aria-label="Truss spacing, m"
-                className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`}
+                className={`${CELL_INPUT} border-paper-line h-9 font-normal`}
                 placeholder="4.5  or  4.5, 4.5, 6"
                 defaultValue={spacingText(takeoffForm.getValues('spacing'))}
                 onChange={(e) => takeoffForm.setValue('spacing', spacingParse(e.target.value), { shouldDirty: true })}
               />
               <span className="font-normal tracking-normal text-ink-faint normal-case">One value, or every spacing in order.</span>
             </label>
-            <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+            <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
               Number of trusses
               <input type="number" min={2} step={1} aria-label="Number of trusses" className={`${CELL_INPUT} border-paper-line h-9 text-right`} {...takeoffForm.register('trussCount', { valueAsNumber: true })} />
             </label>
-            <label className="flex flex-col gap-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">
+            <label className="flex flex-col gap-1 text-xs font-semibold text-ink-soft">
               This truss
-              <select aria-label="Which truss" className={`${CELL_INPUT} border-paper-line h-9 font-normal tracking-normal normal-case`} {...takeoffForm.register('trussIndex', { valueAsNumber: true })}>
+              <select aria-label="Which truss" className={`${CELL_INPUT} border-paper-line h-9 font-normal`} {...takeoffForm.register('trussIndex', { valueAsNumber: true })}>
                 {Array.from({ length: Number.isInteger(count) && count >= 2 ? Math.min(count, 1001) : 2 }, (_, i) => (
                   <option key={i} value={i}>
                     No. {i + 1} from the end — {i === 0 || i === count - 1 ? 'end truss' : 'interior'}
@@ -314,10 +314,10 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
               </select>
             </label>
             <fieldset className="flex flex-col gap-1">
-              <legend className="mb-1 text-xs font-semibold tracking-wide text-ink-soft uppercase">Joint loads from</legend>
+              <legend className="mb-1 text-xs font-semibold text-ink-soft">Joint loads from</legend>
               <label className="flex items-center gap-2 text-sm">
                 <input type="radio" value="exact" className="accent-accent" {...takeoffForm.register('method')} />
-                continuous purlin (exact)
+                continuous purlin (three-moment equation)
               </label>
               <label className="flex items-center gap-2 text-sm">
                 <input type="radio" value="tributary" className="accent-accent" {...takeoffForm.register('method')} />
@@ -328,14 +328,14 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
         </div>
       </fieldset>
 
-      <div className="rounded-md border border-paper-line bg-paper-raised px-4 py-3">
+      <div className="rounded-xs border border-paper-line bg-paper-raised px-4 py-3">
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
           <h3 className="text-sm font-semibold text-ink">Preview</h3>
           <div className="flex items-center gap-2">
             {preview.isFetching && <span className="text-xs text-ink-faint">Computing…</span>}
             {mayEdit && hasSaved && (
               <Button size="sm" variant="danger" onClick={onRemove} disabled={busy}>
-                Remove the takeoff
+                Remove the roof loading
               </Button>
             )}
             {mayEdit && (
@@ -360,7 +360,7 @@ export function TakeoffSection({ trussId, form, takeoffForm, topChord, mayEdit, 
             <TakeoffPreview result={(fresh ?? preview.data)!.result} caseNames={caseNames} loadLetter={loadLetter} />
           </div>
         ) : (
-          <p className="text-sm text-ink-soft">Computing the takeoff…</p>
+          <p className="text-sm text-ink-soft">Working out the roof loading…</p>
         )}
       </div>
     </div>

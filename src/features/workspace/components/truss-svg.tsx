@@ -92,7 +92,8 @@ function Arrow({ arrow, at }: { arrow: JointArrow; at: { x: number; y: number } 
   return (
     <g>
       <line x1={tx} y1={ty} x2={hx - ux * 6} y2={hy - uy * 6} stroke={colour} strokeWidth={1.6} />
-      <path d={head} fill={colour} />
+      {/* Told apart by shape as well as colour: a load's head is filled, a reaction's open. */}
+      <path d={head} fill={arrow.tone === 'reaction' ? 'none' : colour} stroke={colour} strokeWidth={arrow.tone === 'reaction' ? 1.4 : 0} strokeLinejoin="miter" />
       <text
         x={tx - ux * 4}
         y={ty - uy * 4 + (Math.abs(uy) > 0.5 ? (uy > 0 ? -4 : 12) : 4)}
@@ -149,7 +150,7 @@ export function TrussSvg({
   const haloColour = highlightTone === 'danger' ? DANGER : ACCENT;
 
   return (
-    <div ref={frameRef} className="relative overflow-hidden rounded-md border border-paper-line bg-white" style={{ height }}>
+    <div ref={frameRef} className="relative overflow-hidden rounded-xs border border-paper-line bg-paper-raised" style={{ height }}>
       {width > 0 && (
         <svg width={width} height={height} role="group" aria-label={label} className="block select-none">
           <defs>

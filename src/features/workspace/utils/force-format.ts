@@ -41,21 +41,16 @@ export interface ForceStroke {
   width: number;
 }
 
-// Panelpoint's force colours (tailwind `tension`, `compression`, `ink-faint`).
-export const FORCE_COLOURS = { T: '#1b8a82', C: '#c47f12', '0': '#8a8d90' } as const;
+// Panelpoint's force inks (tailwind `tension`, `compression`, `ink-faint`; docs/visual-language.md).
+export const FORCE_COLOURS = { T: '#17706a', C: '#8a4b0f', '0': '#65696c' } as const;
 
 /**
- * Tension teal and solid, compression amber and dashed, zero thin grey dotted; thickness grows
- * with |force| relative to the largest force shown, from 1.5 px to 7 px.
+ * Told by line before colour (docs/visual-language.md, "Drawings"): tension a thin continuous
+ * line, compression a heavy continuous line, zero force a faint dashed line. The size of a force
+ * is written beside its member; `largest` is kept for callers and no longer changes the width.
  */
-export function forceStroke(kN: number, largest: number): ForceStroke {
+export function forceStroke(kN: number, _largest: number): ForceStroke {
   const sense = forceSense(kN);
-  if (sense === '0') return { sense, colour: FORCE_COLOURS['0'], dash: '1.5 3.5', width: 1.25 };
-  const share = largest > 0 ? Math.min(1, Math.abs(kN) / largest) : 0;
-  return {
-    sense,
-    colour: FORCE_COLOURS[sense],
-    dash: sense === 'C' ? '8 4' : undefined,
-    width: 1.5 + 5.5 * share,
-  };
+  if (sense === '0') return { sense, colour: FORCE_COLOURS['0'], dash: '6 4', width: 1.25 };
+  return { sense, colour: FORCE_COLOURS[sense], dash: undefined, width: sense === 'C' ? 5 : 2 };
 }

@@ -52,7 +52,7 @@ export type DraftLoad = z.infer<typeof draftLoadSchema>;
 const draftSupportSchema = z.discriminatedUnion('kind', [
   supportSchema.options[0],
   supportSchema.options[1].extend({
-    angleDeg: z.number({ error: 'Enter the angle of the reaction line in degrees (90 = vertical).' }).finite(),
+    angleDeg: z.number({ error: 'Enter the angle of the roller’s reaction in degrees from horizontal (90 is straight up).' }).finite(),
   }),
 ]);
 
@@ -169,7 +169,7 @@ export const GROUP_LABELS: Record<MemberGroup, string> = {
   other: 'Other',
 };
 
-/** Joints of the members grouped as top chord, in order of x (the takeoff's top-chord list). */
+/** Joints of the members grouped as top chord, in order of x (the roof loading's top-chord list). */
 export function topChordJoints(model: Pick<TrussModel, 'joints' | 'members'>, groups: ReadonlyMap<string, MemberGroup | undefined>): Joint[] {
   const ids = new Set<string>();
   for (const m of model.members) {

@@ -7,7 +7,7 @@ describe('sheet view: equilibrium check of a case', () => {
   it('when the solution balances every joint, then the check is OK and says every joint is in equilibrium', () => {
     const [d] = buildCalcSheetView(sheetInput(triangleModel())).cases;
     expect(d.check.ok).toBe(true);
-    expect(d.check.verdict).toMatch(/every joint is in equilibrium \(limit 1e-9\)/);
+    expect(d.check.verdict).toMatch(/every joint is in equilibrium \(limit 1 × 10⁻⁹\)/);
     expect(d.check.lines.every((l) => l.includes('class="katex"'))).toBe(true);
   });
 
@@ -19,7 +19,7 @@ describe('sheet view: equilibrium check of a case', () => {
     analysis.cases[0] = { ...c, residual: 1e-3 * TRIANGLE.P, check: { ...c.check, residual: 1e-3 * TRIANGLE.P, residualJointTag: 'C' } };
     const [d] = buildCalcSheetView(sheetInput(model, { analysis })).cases;
     expect(d.check.ok).toBe(false);
-    expect(d.check.verdict).toMatch(/at joint C exceeds 1e-9 of the largest load: do not use these results/);
+    expect(d.check.verdict).toMatch(/at joint C exceeds 1 × 10⁻⁹ of the largest load: do not use these results/);
   });
 
   it('when geometry and loads are mirror-symmetric, then a symmetry note is given; under a side load it is not', () => {

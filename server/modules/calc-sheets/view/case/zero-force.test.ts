@@ -6,7 +6,7 @@ describe('sheet view: zero-force members', () => {
   it('when an unloaded joint has two collinear members and a third, then the third is listed as zero by rule 2 with the collinear pair', () => {
     const [c] = buildCalcSheetView(sheetInput(postedTriangleModel())).cases;
     expect(c.zeroForce.rows.map((r) => r.cells.slice(0, 2))).toEqual([['MC', 'M']]);
-    expect(c.zeroForce.rows[0].cells[2]).toBe('2 — three members, AM and MB collinear, unloaded');
+    expect(c.zeroForce.rows[0].cells[2]).toBe('three members meet, AM and MB in line, no load, no support');
     expect(c.zeroForce.steps).toHaveLength(1);
     expect(c.zeroForce.steps[0].lines.every((l) => l.includes('class="katex"'))).toBe(true);
   });
