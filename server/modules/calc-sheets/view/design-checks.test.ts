@@ -1,3 +1,4 @@
+import { undefinedIn } from '@shared/design/symbols';
 import { describe, expect, it } from 'vitest';
 import { runDesign } from '@shared/design/basis';
 import type { DesignInput } from '@shared/model/design-input';
@@ -58,6 +59,16 @@ describe('sheet view: member design pages', () => {
     expect(view.designChecks.notApplied.join(' ')).toMatch(/AISC 360-16 §E6/);
     expect(view.designChecks.caution).toMatch(/edition of the standard and any National Annex .* verified by the engineer of record/);
     expect(view.caution).toContain(view.designChecks.caution);
+  });
+
+  it('defines, before the first group, every symbol the governing member’s printed formulas use', () => {
+    // The formulas as the sheet prints them (column 3 of the steps table) against the list the
+    // page prints above them (undefinedIn, shared/design/symbols.ts).
+    const view = sheetWith(design);
+    expect(view.designChecks.symbols.map((s) => s.symbol)).toEqual(expect.arrayContaining(['Ag', 'Fy, Fu', 'Pn']));
+    const formulas = view.designChecks.groups.flatMap((g) => g.governing?.steps ?? []).map((s) => s.cells[2]).filter(Boolean);
+    expect(formulas).toContain('Pn = Fy·Ag');
+    expect(formulas.flatMap((f) => undefinedIn(f, view.designChecks.symbols))).toEqual([]);
   });
 
   it('a slender tie fails with its limit written, and the cover says so', () => {

@@ -1,4 +1,5 @@
 import { BUILT_UP_REFUSED, memberStepsIn } from '@shared/design/basis';
+import { designSymbols } from '@shared/design/symbols';
 import { carriedStep, num } from '@shared/design/steps';
 import { areaOut, DESIGN_UNITS, forceOut, lengthOut, spanOut, stressOut, type DesignUnitSet } from '@shared/design/units';
 import type { SheetSection } from './context';
@@ -41,7 +42,7 @@ export const designChecksSection: SheetSection<'designChecks'> = {
     const u = DESIGN_UNITS[system];
     const units = { force: u.force, line: designUnitsLine(u) };
     if (!d || unstable) {
-      return { view: { designChecks: { present: false, standard: '', caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: null, groups: [], units } } };
+      return { view: { designChecks: { present: false, standard: '', caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, symbols: [], error: null, groups: [], units } } };
     }
     const S = (mpa: number) => `${num(stressOut(mpa, u))} ${u.stress}`;
     const groups: DesignGroupView[] = d.groups.map((g, i) => {
@@ -119,7 +120,7 @@ export const designChecksSection: SheetSection<'designChecks'> = {
     const failing = d.members.filter((m) => !m.pass).length;
     const worst = d.members.reduce<(typeof d.members)[number] | null>((a, m) => (!a || m.utilisation > a.utilisation ? m : a), null);
     return {
-      view: { designChecks: { present: true, standard: d.standardName, caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, error: d.error?.message ?? null, groups, units } },
+      view: { designChecks: { present: true, standard: d.standardName, caution: DESIGN_CAUTION, notApplied: NOT_APPLIED, symbols: designSymbols(d.standard), error: d.error?.message ?? null, groups, units } },
       contents: d.error ? [{ anchor: 'design-checks', title: 'Member design' }] : groups.map((g) => ({ anchor: g.anchor, title: g.title })),
       summary: d.error
         ? [{ label: 'Member design', value: `not checked: ${d.error.message}` }]

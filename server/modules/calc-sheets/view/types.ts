@@ -188,6 +188,8 @@ export interface CalcSheetView {
     standard: string;
     caution: string;
     notApplied: string[];
+    /** The symbols the design steps print, with their meanings (shared/design/symbols.ts), before the first group. */
+    symbols: { symbol: string; meaning: string }[];
     error: string | null;
     groups: DesignGroupView[];
     /** The project's design units: the force unit of the tables' headings and the line saying what the steps are worked in. */
