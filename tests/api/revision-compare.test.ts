@@ -3,13 +3,12 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RunView } from '@shared/schemas/run.schema';
 import type { RevisionCompareView } from '@shared/schemas/revision-compare.schema';
 import { trussSolve } from '@shared/solver';
 import type { Services } from '../../server/bootstrap';
 import { AnalysisRun, SheetRevision, SheetRevisionEvent } from '../../server/db/models';
-import { binaryBody, fixtureRun, runToEnd } from '../support/fixtures';
+import { binaryBody, fixtureRun, loadDemoTruss, runToEnd } from '../support/fixtures';
 import { demoEmail, demoUserId, signIn, startTestServices, type Tab } from '../support/test-services';
 
 /**
@@ -32,32 +31,6 @@ let sheetA: number;
 let sheetB: number;
 let otherTrussSheet: number;
 
-async function saveDemoLoads(tab: Tab, apexLoad: number): Promise<void> {
-  const current: TrussModelView = (await tab.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  const res = await tab.agent
-    .put('/api/trusses/1/model')
-    .set('X-CSRF-Token', tab.csrf)
-    .send({
-      version: current.version,
-      supports: [
-        { joint: at(0, 0), kind: 'pin' },
-        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-      ],
-      loadCases: [
-        {
-          id: 'D',
-          name: 'Roof dead load',
-          category: 'dead',
-          loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x!, y!), fx: 0, fy: x === 6 ? -apexLoad : -10 })),
-        },
-      ],
-      combinations: [],
-      members: [],
-    });
-  expect(res.status).toBe(200);
-}
-
 const newSheet = async (trussId: number, runId: number) => {
   const res = await engineer.agent.post(`/api/trusses/${trussId}/sheets`).set('X-CSRF-Token', engineer.csrf).send({ runId });
   expect(res.status).toBe(201);
@@ -74,11 +47,11 @@ beforeAll(async () => {
   services = await startTestServices();
   engineer = await signIn(services.app, demoEmail('engineer'));
   reviewer = await signIn(services.app, demoEmail('reviewer'));
-  await saveDemoLoads(engineer, 10);
+  await loadDemoTruss(engineer, 10);
   runA = await runToEnd(engineer);
   expect(runA.status).toBe('solved');
   sheetA = await newSheet(1, runA.id);
-  await saveDemoLoads(engineer, 16);
+  await loadDemoTruss(engineer, 16);
   runB = await runToEnd(engineer);
   expect(runB.status).toBe('solved');
   sheetB = await newSheet(1, runB.id);

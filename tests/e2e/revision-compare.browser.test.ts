@@ -2,9 +2,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import type { TrussModelView } from '@shared/schemas/drawing.schema';
 import type { RevisionCompareView } from '@shared/schemas/revision-compare.schema';
-import { runToEnd } from '../support/fixtures';
+import { loadDemoTruss, runToEnd } from '../support/fixtures';
 import { launchBrowser, startRunningApp, type RunningApp } from '../support/browser';
 import { demoEmail, signIn as apiSignIn, type Tab } from '../support/test-services';
 
@@ -21,34 +20,8 @@ let sheetA = 0;
 let sheetB = 0;
 let compare: RevisionCompareView;
 
-async function saveDemoLoads(tab: Tab, apexLoad: number): Promise<void> {
-  const current: TrussModelView = (await tab.agent.get('/api/trusses/1/model').expect(200)).body;
-  const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
-  await tab.agent
-    .put('/api/trusses/1/model')
-    .set('X-CSRF-Token', tab.csrf)
-    .send({
-      version: current.version,
-      supports: [
-        { joint: at(0, 0), kind: 'pin' },
-        { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
-      ],
-      loadCases: [
-        {
-          id: 'D',
-          name: 'Roof dead load',
-          category: 'dead',
-          loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x!, y!), fx: 0, fy: x === 6 ? -apexLoad : -10 })),
-        },
-      ],
-      combinations: [],
-      members: [],
-    })
-    .expect(200);
-}
-
 async function revisionFrom(tab: Tab, apexLoad: number): Promise<number> {
-  await saveDemoLoads(tab, apexLoad);
+  await loadDemoTruss(tab, apexLoad);
   const run = await runToEnd(tab);
   expect(run.status).toBe('solved');
   const res = await tab.agent.post('/api/trusses/1/sheets').set('X-CSRF-Token', tab.csrf).send({ runId: run.id });

@@ -10,9 +10,9 @@ import type { Tab } from './test-services';
  * roller at the right, with one dead case of 10 kN down at each of the five upper panel points,
  * saved through the API by `tab` (an engineer). By hand (method of joints, tension positive):
  * R = 5 × 10 / 2 = 25 kN at each bearing; the end top chord N = −R·√5 = −55.90 kN and the end
- * bottom chord +2R = +50.00 kN.
+ * bottom chord +2R = +50.00 kN. `apexLoad` (kN) changes the load at the apex (6, 3) alone.
  */
-export async function loadDemoTruss(tab: Tab): Promise<void> {
+export async function loadDemoTruss(tab: Tab, apexLoad = 10): Promise<void> {
   const current: TrussModelView = (await tab.agent.get('/api/trusses/1/model').expect(200)).body;
   const at = (x: number, y: number) => current.model.joints.find((j) => Math.abs(j.x - x) < 1e-6 && Math.abs(j.y - y) < 1e-6)!.id;
   const saved = await tab.agent
@@ -24,7 +24,7 @@ export async function loadDemoTruss(tab: Tab): Promise<void> {
         { joint: at(0, 0), kind: 'pin' },
         { joint: at(12, 0), kind: 'roller', angleDeg: 90 },
       ],
-      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: -10 })) }],
+      loadCases: [{ id: 'D', name: 'Roof dead load', category: 'dead', loads: [[2, 1], [4, 2], [6, 3], [8, 2], [10, 1]].map(([x, y]) => ({ joint: at(x, y), fx: 0, fy: x === 6 ? -apexLoad : -10 })) }],
       combinations: [],
       members: [],
     });
